@@ -1,0 +1,5 @@
+"""Allow ``python -m rankwise``."""
+
+from rankwise.app import main
+
+raise SystemExit(main())

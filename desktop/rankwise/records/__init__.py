@@ -1,0 +1,1 @@
+"""Records: the signed result workbook (write, read back, verify) and its content fingerprint."""

@@ -1,0 +1,104 @@
+"""What the statistics service is asked: the question, the groups of readings, the settings.
+
+These objects hold plain numbers only. The readings layer builds them from what was typed or
+opened (``rankwise.readings``); scripts may build them directly.
+"""
+
+from __future__ import annotations
+
+import enum
+from dataclasses import dataclass, field
+
+
+class Question(str, enum.Enum):
+    """The question a technician asks of the readings."""
+
+    TWO_GROUPS = "two-groups"
+    """Two independent groups: did the change move the readings (or: are they the same within a margin)?"""
+    PAIRED = "paired"
+    """The same parts measured twice (before / after)."""
+    SEVERAL = "several"
+    """Three or more independent groups at once."""
+    PLAN = "plan"
+    """How many parts should be measured per group next time."""
+
+
+ALTERNATIVES = ("two-sided", "b-greater", "b-less")
+"""Allowed directions: B differs from A, B tends to read higher, B tends to read lower."""
+
+METHODS = ("auto", "exact", "normal")
+"""How the p-value is found: exact permutation distribution, normal approximation, or chosen by size."""
+
+
+@dataclass(frozen=True)
+class GroupReadings:
+    """One group's readings as numbers, in entry order.
+
+    Attributes:
+        name: the group's name as the user wrote it ("Wheel A", "Press 2").
+        values: the readings; NaN marks a blank that the statistics drop and count.
+        unit: the unit of the readings ("µm", "N"), or "".
+        lsl, usl, nominal: specification limits and nominal value, or None.
+        decimals: the gauge resolution as a number of decimals, when known from the typed text.
+    """
+
+    name: str
+    values: tuple[float, ...]
+    unit: str = ""
+    lsl: float | None = None
+    usl: float | None = None
+    nominal: float | None = None
+    decimals: int | None = None
+
+
+@dataclass(frozen=True)
+class Settings:
+    """How the question is to be answered.
+
+    Attributes:
+        alpha: significance level (0.10, 0.05, 0.01 are offered in the window).
+        alternative: "two-sided", "b-greater" or "b-less" (see ``ALTERNATIVES``).
+        confidence: confidence level of the shift's interval.
+        method: "auto", "exact" or "normal" (see ``METHODS``).
+        margin: equivalence margin in the readings' unit (same within +/- margin?), or None.
+        zero_method: paired question only: "wilcox" (drop zero differences) or "pratt".
+        comparison: several groups only: "all-pairs" or "against-reference".
+        reference: several groups only: name of the reference group for "against-reference".
+        planned_shift, planned_spread: planning only: the shift worth detecting and the
+            readings' spread (standard deviation), both in the readings' unit.
+        planned_prob_b_greater: planning only: P(B > A) to detect, instead of shift and spread.
+        power: planning only: the chance of detecting the planned shift.
+        ratio: planning only: parts in B per part in A.
+        characteristic: what is measured ("Ra after grinding"), for titles and records.
+    """
+
+    alpha: float = 0.05
+    alternative: str = "two-sided"
+    confidence: float = 0.95
+    method: str = "auto"
+    margin: float | None = None
+    zero_method: str = "wilcox"
+    comparison: str = "all-pairs"
+    reference: str | None = None
+    planned_shift: float | None = None
+    planned_spread: float | None = None
+    planned_prob_b_greater: float | None = None
+    power: float = 0.8
+    ratio: float = 1.0
+    characteristic: str = ""
+
+
+@dataclass(frozen=True)
+class Analysis:
+    """A question, the groups of readings it concerns, and the settings.
+
+    For the two-group and paired questions, ``groups[0]`` is A (the reference, e.g. the current
+    process or "before") and ``groups[1]`` is B (the changed process, or "after").
+    ``notes`` carries plain-words remarks from the readings layer (e.g. censored readings) that
+    belong in the record beside the result.
+    """
+
+    question: Question
+    groups: tuple[GroupReadings, ...]
+    settings: Settings = field(default_factory=Settings)
+    notes: tuple[str, ...] = ()
