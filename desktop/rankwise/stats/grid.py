@@ -1,0 +1,73 @@
+"""Readings on the gauge's grid: whole numbers of the last decimal, so that ties are exact.
+
+A reading typed as 0.42 is stored as a binary float near 0.42; differences such as 0.45 - 0.03
+then carry noise in the last bits, which could split a true tie or create a false one. Before
+ranking or differencing, readings are mapped to integers in units of their finest decimal (the
+readings' resolution), where every comparison and subtraction is exact.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+MAX_DECIMALS = 9
+"""Finest resolution searched for; readings needing more are treated as continuous floats."""
+
+_EXACT_INTEGER_LIMIT = 2.0**52
+
+
+@dataclass(frozen=True)
+class Grid:
+    """A common resolution for a set of readings.
+
+    Attributes:
+        decimals: number of decimals of the resolution, or None when the readings are not on
+            any grid up to ``MAX_DECIMALS`` (they are then used as floats, unchanged).
+    """
+
+    decimals: int | None
+
+    @property
+    def step(self) -> float:
+        """The resolution in the readings' unit (1 for whole numbers, 0.01 for two decimals)."""
+        return 1.0 if self.decimals is None else 10.0 ** (-self.decimals)
+
+    def to_counts(self, values: np.ndarray) -> np.ndarray:
+        """Readings as whole numbers of ``step`` (held in float64, exactly), or unchanged floats."""
+        values = np.asarray(values, dtype=float)
+        if self.decimals is None:
+            return values
+        return np.rint(values * 10.0**self.decimals)
+
+    def to_readings(self, counts: np.ndarray | float) -> np.ndarray | float:
+        """Map counts (or differences of counts) back to the readings' unit."""
+        if self.decimals is None:
+            return counts
+        return counts / 10.0**self.decimals
+
+
+def _fits(values: np.ndarray, decimals: int) -> bool:
+    """True when every reading is, within a few units in the last place, a whole number of 10^-decimals.
+
+    A decimal typed as text and parsed to float comes back exactly from round(x * 10^d) / 10^d,
+    because both the parsing and the division round correctly; a few units in the last place are
+    allowed for values that passed through spreadsheet arithmetic.
+    """
+    scale = 10.0**decimals
+    scaled = values * scale
+    if np.abs(scaled).max(initial=0.0) >= _EXACT_INTEGER_LIMIT:
+        return False
+    back = np.rint(scaled) / scale
+    return bool(np.all(np.abs(back - values) <= 4.0 * np.spacing(np.abs(values))))
+
+
+def find_grid(*groups: np.ndarray) -> Grid:
+    """The coarsest resolution (fewest decimals) on which every reading of every group lies."""
+    combined = np.concatenate([np.asarray(g, dtype=float).ravel() for g in groups]) if groups else np.array([])
+    combined = combined[np.isfinite(combined)]
+    for decimals in range(MAX_DECIMALS + 1):
+        if _fits(combined, decimals):
+            return Grid(decimals)
+    return Grid(None)
