@@ -1,0 +1,85 @@
+"""Numbers as people read them: readings at the gauge's resolution, p-values, percentages."""
+
+from __future__ import annotations
+
+import math
+
+MISSING = "—"
+"""Shown where a number does not apply or could not be computed."""
+
+_P_FLOOR = 0.0001
+
+
+def format_reading(value: float | None, decimals: int | None) -> str:
+    """A reading (or a shift, an interval end) with ``decimals`` decimals, or 6 significant digits.
+
+    ``decimals`` is the gauge's resolution as typed (``GroupReadings.decimals``); None means it is
+    not known, and the value is shown with up to six significant digits. Missing values show as "—".
+    """
+    if value is None or not math.isfinite(value):
+        return MISSING
+    if decimals is None:
+        text = f"{value:.6g}"
+    else:
+        if decimals < 0:
+            raise ValueError(f"decimals must be 0 or more; got {decimals!r}.")
+        text = f"{value:.{decimals}f}"
+    return "0" + text[2:] if text.startswith("-0") and float(text) == 0.0 else text
+
+
+def format_p(p: float | None, alpha: float | None = None) -> str:
+    """A p-value: "< 0.0001" below that, three significant digits below 0.1, else three decimals.
+
+    With ``alpha`` given, digits are added until the shown value lies on the same side of
+    ``alpha`` as the true one, so that a shown "0.0500" never stands for a significant 0.04996.
+    """
+    if p is None or not math.isfinite(p):
+        return MISSING
+    if not 0.0 <= p <= 1.0:
+        raise ValueError(f"p must lie between 0 and 1; got {p!r}.")
+    if p < _P_FLOOR:
+        return "< 0.0001"
+    digits = 3
+    while True:
+        text = f"{p:.{digits}f}" if p >= 0.1 else _significant(p, digits)
+        if alpha is None or digits >= 8 or (float(text) <= alpha) == (p <= alpha):
+            return text
+        digits += 1
+
+
+def _significant(value: float, digits: int) -> str:
+    """``value`` (0 < value < 1) with ``digits`` significant digits, written without an exponent."""
+    exponent = math.floor(math.log10(value))
+    decimals = max(0, digits - 1 - exponent)
+    text = f"{value:.{decimals}f}"
+    if float(text) >= 10.0 ** (exponent + 1):  # rounding carried into the next decade
+        text = f"{value:.{max(0, decimals - 1)}f}"
+    return text
+
+
+def format_percent(share: float | None, decimals: int = 0) -> str:
+    """A share (0..1) as a percentage with a space before the sign, e.g. "95 %"."""
+    if share is None or not math.isfinite(share):
+        return MISSING
+    return f"{100.0 * share:.{decimals}f} %"
+
+
+def format_level(share: float) -> str:
+    """A significance or confidence level as a percentage, with only the decimals it needs ("5 %", "2.5 %")."""
+    return f"{100.0 * share:.4g} %"
+
+
+def format_plain(value: float | None, significant: int = 4) -> str:
+    """A statistic without a unit (z, H, a ratio) with a few significant digits."""
+    if value is None or not math.isfinite(value):
+        return MISSING
+    return f"{value:.{significant}g}"
+
+
+def format_count(value: float | None) -> str:
+    """A count or a rank sum: whole numbers without decimals, halves (from ties) with one."""
+    if value is None or not math.isfinite(value):
+        return MISSING
+    if float(value).is_integer():
+        return str(int(value))
+    return f"{value:.1f}" if (2 * value).is_integer() else f"{value:.4g}"

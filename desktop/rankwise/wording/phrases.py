@@ -1,0 +1,79 @@
+"""Phrases shared by the verdicts of every question (directions, levels, p-value methods)."""
+
+from __future__ import annotations
+
+import math
+
+from rankwise.stats.results import ConfidenceInterval
+from rankwise.wording.numbers import format_level, format_p, format_reading
+
+NOT_SAMENESS = ("This does not show that the groups are the same; to show that, set an "
+                "equivalence margin.")
+"""Said after every "no difference shown": a non-significant test never proves sameness."""
+
+EXACT_METHOD = "exact p-value (permutation distribution given the ties)"
+NORMAL_METHOD = "normal approximation with tie and continuity correction"
+DOUBLING = ("the two-sided p-value is twice the smaller one-sided p-value (at most 1)")
+
+
+def p_method(method: str, alternative: str) -> str:
+    """How the p-value was found, in words, with the two-sided convention where it applies."""
+    if method == "exact":
+        text = EXACT_METHOD
+        if alternative == "two-sided":
+            text += "; " + DOUBLING
+        return text
+    if method == "normal":
+        return NORMAL_METHOD
+    return method
+
+
+def alternative_words(alternative: str, name_a: str, name_b: str) -> str:
+    """The direction tested, e.g. "two-sided: does B differ from A?"."""
+    if alternative == "b-greater":
+        return f"one-sided: does {name_b} read higher than {name_a}?"
+    if alternative == "b-less":
+        return f"one-sided: does {name_b} read lower than {name_a}?"
+    return f"two-sided: does {name_b} read differently from {name_a}?"
+
+
+def level_phrase(alpha: float) -> str:
+    """ "the 5 % level"."""
+    return f"the {format_level(alpha)} level"
+
+
+def p_phrase(p: float, alpha: float) -> str:
+    """ "p = 0.0019" (or "p < 0.0001"), shown with enough digits to sit on the right side of alpha."""
+    text = format_p(p, alpha)
+    return f"p {text}" if text.startswith("<") else f"p = {text}"
+
+
+def interval_phrase(interval: ConfidenceInterval, decimals: int | None, unit: str) -> str:
+    """ "95 % confidence interval 0.02 to 0.10 µm"."""
+    low = format_reading(interval.low, decimals)
+    high = format_reading(interval.high, decimals)
+    unit_text = f" {unit}" if unit else ""
+    return f"{format_level(interval.level)} confidence interval {low} to {high}{unit_text}"
+
+
+def signed_reading(value: float, decimals: int | None, unit: str) -> str:
+    """A change with its sign, "+0.06 µm" or "-0.06 µm"."""
+    text = format_reading(value, decimals)
+    if math.isfinite(value) and not text.startswith("-") and float(text) != 0.0:
+        text = "+" + text
+    return f"{text} {unit}" if unit else text
+
+
+def higher_or_lower(positive: bool) -> str:
+    """ "higher" or "lower"."""
+    return "higher" if positive else "lower"
+
+
+def smallest_sign_test_size(alpha: float, alternative: str) -> int:
+    """Fewest pairs for which a signed-rank result can reach ``alpha`` without ties.
+
+    The most extreme outcome (every difference the same sign) has one-sided probability 2^-n,
+    so n must satisfy 2^-n <= alpha (one-sided) or 2 * 2^-n <= alpha (two-sided).
+    """
+    tails = 2.0 if alternative == "two-sided" else 1.0
+    return max(1, math.ceil(math.log2(tails / alpha) - 1e-12))

@@ -1,0 +1,201 @@
+"""The verdict for two separate groups (Mann-Whitney U / Wilcoxon rank-sum), in plain words."""
+
+from __future__ import annotations
+
+from rankwise.stats.analysis import Analysis
+from rankwise.stats.results import TwoGroupResult
+from rankwise.wording.cautions import CAUTION_SHORT
+from rankwise.wording.numbers import format_level, format_percent, format_reading
+from rankwise.wording.phrases import (
+    NOT_SAMENESS,
+    alternative_words,
+    higher_or_lower,
+    interval_phrase,
+    level_phrase,
+    p_method,
+    p_phrase,
+)
+from rankwise.wording.questions import decimals_of, margin_text, unit_of, with_unit
+from rankwise.wording.verdict_types import Verdict
+
+INDEPENDENCE_NOTE = ("Each reading must come from a different part, and the two groups from "
+                     "separate parts; for the same parts measured twice, use the before / after question.")
+
+
+def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
+    """Headline, sentences, method note and assumption notes for a two-group result."""
+    a, b = result.name_a, result.name_b
+    shift_decimals = _shift_decimals(analysis)
+    unit = unit_of(analysis)
+    stochastic = result.shape is not None and result.shape.differ
+    b_higher = _b_reads_higher(result)
+
+    sentences: list[str] = []
+    impossible = result.critical_u is None
+    if impossible:
+        sentences.append(_impossible_sentence(result))
+
+    if result.significant:
+        headline = f"{b} {'tends to read' if stochastic else 'reads'} {higher_or_lower(b_higher)} than {a}."
+        sentences.append(_significant_sentence(result, stochastic, b_higher, shift_decimals, unit))
+        sentences.append(
+            f"The difference is significant at {level_phrase(result.alpha)} "
+            f"({p_phrase(result.p_value, result.alpha)}; {alternative_words(result.alternative, a, b)})."
+        )
+    else:
+        headline = _not_shown_headline(result)
+        sentences.append(
+            f"{headline[:-1]} at {level_phrase(result.alpha)} "
+            f"({p_phrase(result.p_value, result.alpha)}; {alternative_words(result.alternative, a, b)})."
+        )
+        if result.shift is not None and result.shift_ci is not None:
+            sentences.append(
+                f"The estimated shift of {b} against {a} is "
+                f"{with_unit(format_reading(result.shift, shift_decimals), unit)} "
+                f"({interval_phrase(result.shift_ci, shift_decimals, unit)})."
+            )
+        if result.margin is None:
+            sentences.append(NOT_SAMENESS)
+
+    if result.margin is not None:
+        equivalence_headline, equivalence_sentence = _equivalence(result, analysis, shift_decimals, unit)
+        sentences.append(equivalence_sentence)
+        headline = equivalence_headline
+    if impossible:
+        headline = (f"No result could reach {level_phrase(result.alpha)} with {result.n_a} "
+                    f"readings of {a} and {result.n_b} of {b}.")
+
+    return Verdict(
+        headline=headline,
+        sentences=tuple(sentences),
+        method_note=_method_note(result),
+        assumption_notes=_assumption_notes(result, analysis, b_higher),
+        caution=CAUTION_SHORT,
+    )
+
+
+def _shift_decimals(analysis: Analysis) -> int | None:
+    """Shifts and medians get one decimal more than the readings (a median of two can fall between)."""
+    decimals = decimals_of(analysis)
+    return None if decimals is None else decimals + 1
+
+
+def _b_reads_higher(result: TwoGroupResult) -> bool:
+    """True when B tends to read higher than A (by the shift, or by P(B > A) without one)."""
+    if result.alternative == "b-greater":
+        return True
+    if result.alternative == "b-less":
+        return False
+    if result.shift is not None and result.shift != 0.0:
+        return result.shift > 0.0
+    return result.prob_b_greater >= 0.5
+
+
+def _impossible_sentence(result: TwoGroupResult) -> str:
+    """Said first when the group sizes cannot give a significant result."""
+    needed = (f" At least {result.min_parts_needed} parts per group are needed."
+              if result.min_parts_needed is not None else "")
+    return (f"With {result.n_a} readings of {result.name_a} and {result.n_b} of {result.name_b}, "
+            f"no outcome of the test can reach {level_phrase(result.alpha)}, whatever the "
+            f"readings.{needed}")
+
+
+def _significant_sentence(result: TwoGroupResult, stochastic: bool, b_higher: bool,
+                          decimals: int | None, unit: str) -> str:
+    """The size of the change: the shift and its interval, or the share of pairs when shapes differ."""
+    a, b = result.name_a, result.name_b
+    direction = higher_or_lower(b_higher)
+    share = result.prob_b_greater if b_higher else 1.0 - result.prob_b_greater
+    pairs = (f"a part of {b} reads {direction} than a part of {a} in {format_percent(share)} "
+             f"of pairs (ties counted half)")
+    if stochastic:
+        return f"{b} tends to read {direction} than {a}: {pairs}."
+    if result.shift is None or result.shift_ci is None:
+        return f"{b} reads {direction} than {a}: {pairs}."
+    size = with_unit(format_reading(abs(result.shift), decimals), unit)
+    return (f"{b} reads {direction} than {a}: the shift is {size} "
+            f"({interval_phrase(result.shift_ci, decimals, unit)}, {b} minus {a}).")
+
+
+def _not_shown_headline(result: TwoGroupResult) -> str:
+    """ "No difference ... was shown." or, one-sided, "It was not shown that B reads higher than A." """
+    a, b = result.name_a, result.name_b
+    if result.alternative == "b-greater":
+        return f"It was not shown that {b} reads higher than {a}."
+    if result.alternative == "b-less":
+        return f"It was not shown that {b} reads lower than {a}."
+    return f"No difference between {a} and {b} was shown."
+
+
+def _equivalence(result: TwoGroupResult, analysis: Analysis, decimals: int | None,
+                 unit: str) -> tuple[str, str]:
+    """Headline and sentence for the question "the same within ± margin?"."""
+    a, b = result.name_a, result.name_b
+    margin = margin_text(analysis, result.margin)
+    interval = result.equivalence_ci
+    if result.equivalent is None or interval is None:
+        return (f"Equivalence within {margin} could not be judged.",
+                f"Equivalence within {margin} could not be judged: no interval for the shift was computed.")
+    shown = interval_phrase(interval, decimals, unit)
+    if result.equivalent:
+        return (f"{b} and {a} are equivalent within {margin}.",
+                f"{b} and {a} are equivalent within {margin}: the shift's {shown} lies inside the margin "
+                f"(two one-sided tests, each at {level_phrase(result.alpha)}).")
+    return (f"Equivalence of {b} and {a} within {margin} was not shown.",
+            f"Equivalence within {margin} was not shown: the shift's {shown} reaches the margin or "
+            f"beyond (two one-sided tests, each at {level_phrase(result.alpha)}).")
+
+
+def _method_note(result: TwoGroupResult) -> str:
+    """Which test, which p-value method, and how the shift and its interval were found."""
+    parts = [
+        "Mann-Whitney U test (Wilcoxon rank-sum), tied readings sharing their average rank",
+        p_method(result.method, result.alternative),
+    ]
+    if result.shift is not None:
+        shift = f"shift: Hodges-Lehmann estimate (median of all differences {result.name_b} minus {result.name_a})"
+        if result.shift_ci is not None:
+            shift += f"; its interval: {result.shift_ci.method}"
+        parts.append(shift)
+    return "; ".join(parts) + "."
+
+
+def _assumption_notes(result: TwoGroupResult, analysis: Analysis, b_higher: bool) -> tuple[str, ...]:
+    """Shape check, conservativeness of the exact test, warnings and the readings' own notes."""
+    a, b = result.name_a, result.name_b
+    notes = [INDEPENDENCE_NOTE]
+    shape = result.shape
+    if shape is None:
+        notes.append("Too few readings to compare the groups' spreads and shapes: the shift is a "
+                     "move of the median only if both groups have the same shape.")
+    elif not shape.differ:
+        notes.append(
+            f"The groups' spreads and shapes look alike ({shape.dispersion_method}: "
+            f"{p_phrase(shape.dispersion_p, result.alpha)}; {shape.shape_method}: "
+            f"{p_phrase(shape.shape_p, result.alpha)}), so the shift can be read as a move of "
+            f"the median."
+        )
+    else:
+        companion = []
+        if result.brunner_munzel is not None:
+            companion.append(f"the Brunner-Munzel test, which allows unequal spreads, gives "
+                             f"{p_phrase(result.brunner_munzel.p_value, result.alpha)}")
+        if result.mood_median is not None:
+            companion.append(f"Mood's median test (counts above the overall median; not Mood's "
+                             f"test of spread) gives {p_phrase(result.mood_median.p_value, result.alpha)}")
+        notes.append(
+            f"The groups' spreads or shapes differ ({shape.dispersion_method}: "
+            f"{p_phrase(shape.dispersion_p, result.alpha)}; {shape.shape_method}: "
+            f"{p_phrase(shape.shape_p, result.alpha)}): read the result as \"{b} tends to read "
+            f"{higher_or_lower(b_higher)} than {a}\", not as a move of the median"
+            + ("; " + "; ".join(companion) if companion else "") + "."
+        )
+    if (result.method == "exact" and result.attained_alpha is not None
+            and result.attained_alpha < 0.8 * result.alpha):
+        notes.append(
+            f"With these group sizes the exact test is cautious: its true significance level is "
+            f"{format_level(result.attained_alpha)} rather than {format_level(result.alpha)}."
+        )
+    notes.extend(w for w in result.warnings if w not in notes)
+    notes.extend(n for n in analysis.notes if n not in notes)
+    return tuple(notes)
