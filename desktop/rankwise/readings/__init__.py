@@ -1,1 +1,26 @@
-"""Readings: the Qt-free model of groups and cells, value parsing, and opening CSV/XLSX exports."""
+"""Readings: the Qt-free model of groups and cells, value parsing, and opening and saving CSV/XLSX files."""
+
+from rankwise.readings.cells import Cell, CellKind, GroupCounts, SkippedCell
+from rankwise.readings.errors import ReadingsError
+from rankwise.readings.parse import machine_decimal, parse_reading
+from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
+from rankwise.readings.sheet import GroupColumn, ReadingSheet, SheetChange
+from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
+
+__all__ = [
+    "Cell",
+    "CellKind",
+    "GroupColumn",
+    "GroupCounts",
+    "GroupSnapshot",
+    "ReadingGroup",
+    "ReadingSet",
+    "ReadingSheet",
+    "ReadingsError",
+    "SheetChange",
+    "SheetSnapshot",
+    "SkippedCell",
+    "SourceInfo",
+    "machine_decimal",
+    "parse_reading",
+]

@@ -1,0 +1,54 @@
+"""From the sheet's groups to the statistics service's ``Analysis``: numbers, blanks, notes, censoring."""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from typing import TYPE_CHECKING
+
+from rankwise.readings.censored import common_limit_value
+from rankwise.readings.cells import CellKind
+from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
+
+if TYPE_CHECKING:
+    from rankwise.readings.sheet import GroupColumn
+
+
+def build_analysis(columns: Sequence[GroupColumn], question: Question, settings: Settings | None) -> Analysis:
+    """The ``Analysis`` for these groups.
+
+    Each group's values follow entry order; blanks, notes and unreadable entries become NaN (the
+    statistics drop and count them). Censored readings with one common limit become one stand-in
+    value below every measured reading (see ``rankwise.readings.censored``), with a note saying so;
+    mixed limits raise ``ReadingsError``. The notes also list the entries not used, by row.
+    """
+    question = Question(question)
+    censoring = common_limit_value([(column.name, column.cells) for column in columns])
+    notes: list[str] = []
+    groups = []
+    for column in columns:
+        values = []
+        decimals = None
+        for cell in column.cells:
+            if cell.kind is CellKind.NUMBER:
+                values.append(cell.value)
+                decimals = max(decimals or 0, cell.decimals or 0)
+            elif cell.kind is CellKind.CENSORED and censoring is not None:
+                values.append(censoring[0])
+                decimals = max(decimals or 0, censoring[1])
+            else:
+                values.append(math.nan)
+        groups.append(
+            GroupReadings(
+                name=column.name, values=tuple(values), unit=column.unit, lsl=column.lsl, usl=column.usl,
+                nominal=column.nominal, decimals=decimals,
+            )
+        )
+        skipped = [(row, cell.text.strip()) for row, cell in enumerate(column.cells) if cell.is_skipped]
+        if skipped:
+            listed = ", ".join(f"row {row + 1} '{text[:30]}'" for row, text in skipped[:10])
+            more = f" and {len(skipped) - 10} more" if len(skipped) > 10 else ""
+            notes.append(f"{column.name}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}.")
+    if censoring is not None:
+        notes.insert(0, censoring[2])
+    return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes))

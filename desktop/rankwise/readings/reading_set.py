@@ -1,0 +1,84 @@
+"""What opening a file gives: groups of readings as read, where they came from, what was skipped."""
+
+from __future__ import annotations
+
+import functools
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from rankwise.readings.cells import Cell, SkippedCell
+
+
+@dataclass(frozen=True)
+class ReadingGroup:
+    """One group of an opened file.
+
+    Attributes:
+        name: the group's name (the column header in a wide layout, the label in a stacked one).
+        values: the numbers in file order (notes, blanks and unreadable entries left out).
+        skipped: the cells with text that are not used, each with its row, column and reason.
+        decimals: the most decimals written in the group (the gauge's resolution), or None.
+        cells: (property) every cell as read, blanks included, in file order.
+    """
+
+    name: str
+    values: np.ndarray
+    skipped: tuple[SkippedCell, ...] = ()
+    decimals: int | None = None
+    make_cells: Callable[[], tuple[Cell, ...]] = field(default=tuple, repr=False, compare=False)
+    """Builds ``cells`` on first use (a million cells take time to build and are rarely all needed)."""
+
+    @functools.cached_property
+    def cells(self) -> tuple[Cell, ...]:
+        """Every cell of the group as read, in file order."""
+        return tuple(self.make_cells())
+
+
+@dataclass(frozen=True)
+class SourceInfo:
+    """Where the readings came from and how the file was understood (the open dialog shows this).
+
+    Attributes:
+        path: the file opened.
+        format: "csv" or "xlsx".
+        sheet: the worksheet read (XLSX), or "".
+        sheet_names: every worksheet of the workbook (XLSX), or ().
+        layout: "wide" (a column per group) or "stacked" (a value column and a group column).
+        value_column, group_column: the header names of the columns used in a stacked layout, or "".
+        columns: the header names of all columns, in file order.
+        header_row: the 0-based row of the header line (rows above it are a title block).
+        encoding: the text encoding (CSV), or "".
+        delimiter: the field separator (CSV), or "".
+        decimal: the decimal mark used to read the numbers, "." or ",".
+        preview: the first rows of the file as texts, header and title block included.
+    """
+
+    path: str
+    format: str
+    sheet: str = ""
+    sheet_names: tuple[str, ...] = ()
+    layout: str = "wide"
+    value_column: str = ""
+    group_column: str = ""
+    columns: tuple[str, ...] = ()
+    header_row: int = 0
+    encoding: str = ""
+    delimiter: str = ""
+    decimal: str = "."
+    preview: tuple[tuple[str, ...], ...] = ()
+
+
+@dataclass(frozen=True)
+class ReadingSet:
+    """The readings of an opened file: groups, where they came from, and plain-words notes."""
+
+    groups: tuple[ReadingGroup, ...]
+    source: SourceInfo
+    notes: tuple[str, ...] = ()
+
+    @property
+    def group_names(self) -> list[str]:
+        """The groups' names, in order."""
+        return [group.name for group in self.groups]

@@ -1,0 +1,68 @@
+"""From the sheet to the statistics service: entry order, blanks as NaN, censored readings as low ties."""
+
+import math
+
+import pytest
+
+from rankwise.readings import ReadingSheet, ReadingsError
+from rankwise.stats.analysis import Question, Settings
+
+
+def make_sheet(*columns, names=("A", "B", "C")):
+    sheet = ReadingSheet(decimal=".")
+    for number, column in enumerate(columns):
+        sheet.add_group(names[number])
+        sheet.paste_block(number, 0, [[text] for text in column])
+    return sheet
+
+
+def test_values_follow_entry_order_with_nan_for_unused_cells():
+    sheet = make_sheet(["0.42", "", "scrap", "0.4,2", "0.45"], ["1.5"])
+    sheet.set_group_details(0, unit="µm", lsl=0.1, usl=0.9, nominal=0.5)
+    analysis = sheet.to_analysis(Question.TWO_GROUPS, Settings(alpha=0.01))
+    a, b = analysis.groups
+    assert a.values[0] == 0.42 and a.values[4] == 0.45
+    assert all(math.isnan(v) for v in a.values[1:4])
+    assert (a.unit, a.lsl, a.usl, a.nominal, a.decimals) == ("µm", 0.1, 0.9, 0.5, 2)
+    assert b.decimals == 1
+    assert analysis.settings.alpha == 0.01
+    assert any("row 3 'scrap'" in note and "row 4" in note for note in analysis.notes)
+
+
+def test_chosen_groups_in_the_chosen_order():
+    sheet = make_sheet(["1"], ["2"], ["3"])
+    analysis = sheet.to_analysis(Question.TWO_GROUPS, Settings(), groups=[2, 0])
+    assert [g.name for g in analysis.groups] == ["C", "A"]
+    with pytest.raises(ValueError, match="groups"):
+        sheet.to_analysis(Question.TWO_GROUPS, Settings(), groups=[0, 0])
+
+
+def test_censored_readings_rank_as_ties_below_every_measured_reading():
+    """One common limit: the stand-in is one gauge step below the limit and the lowest reading.
+
+    The treatment (ties below every measured value) follows Helsel, Statistics for Censored
+    Environmental Data, 2nd ed. (2012), rank tests with one detection limit; the stand-in value is
+    this project's own choice of representative, checked here by its ordering.
+    """
+    sheet = make_sheet(["<0.05", "0.12", "<0.05"], ["0.07", "0.31"])
+    analysis = sheet.to_analysis(Question.TWO_GROUPS, Settings())
+    a, b = analysis.groups
+    assert a.values[0] == a.values[2]
+    measured = [a.values[1], *b.values]
+    assert a.values[0] < 0.05 and a.values[0] < min(measured)
+    assert a.values[0] == pytest.approx(0.04)
+    assert "below the detection limit 0.05" in analysis.notes[0]
+    assert "ties" in analysis.notes[0]
+
+
+def test_a_measured_reading_below_the_limit_still_ranks_above_the_censored():
+    sheet = make_sheet(["<0.05", "0.03"], ["0.2"])
+    a, _ = sheet.to_analysis(Question.TWO_GROUPS, Settings()).groups
+    assert a.values[0] < 0.03
+    assert a.values[0] == pytest.approx(0.02)
+
+
+def test_mixed_detection_limits_ask_the_user_to_choose():
+    sheet = make_sheet(["<0.05", "0.12"], ["<0.1", "0.2"])
+    with pytest.raises(ReadingsError, match=r"different limits .*<0.1"):
+        sheet.to_analysis(Question.TWO_GROUPS, Settings())
