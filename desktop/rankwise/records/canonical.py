@@ -1,0 +1,139 @@
+"""Canonical JSON of the program's objects, and back: the form stored in a record and fingerprinted.
+
+Objects are turned into plain JSON data guided by their type annotations, so that a value is
+written the same way whatever Python or numpy type it arrived as (a float field always as a float,
+written by ``repr``). Non-finite floats are written as the strings "NaN", "Infinity" and
+"-Infinity". The canonical text has sorted keys, no whitespace and is encoded as UTF-8; the
+decision record resources/decisions/record-fingerprint.md describes it.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+import enum
+import hashlib
+import json
+import math
+import types
+import typing
+from datetime import datetime
+from typing import Any
+
+from rankwise.records.errors import RecordError
+
+_NON_FINITE = {"NaN": math.nan, "Infinity": math.inf, "-Infinity": -math.inf}
+
+
+def canonical_bytes(data: Any) -> bytes:
+    """The canonical text of plain JSON data: sorted keys, no whitespace, floats by repr, UTF-8."""
+    return json.dumps(data, sort_keys=True, separators=(",", ":"), ensure_ascii=False,
+                      allow_nan=False).encode("utf-8")
+
+
+def sha256_hex(data: Any) -> str:
+    """SHA-256 of the canonical text of ``data``, as 64 lower-case hex digits."""
+    return hashlib.sha256(canonical_bytes(data)).hexdigest()
+
+
+def encode(value: Any, hint: Any) -> Any:
+    """``value`` as plain JSON data, following the type annotation ``hint``."""
+    origin = typing.get_origin(hint)
+    if origin in (typing.Union, types.UnionType):
+        if value is None:
+            return None
+        arms = [arm for arm in typing.get_args(hint) if arm is not type(None)]
+        if len(arms) == 1:
+            return encode(value, arms[0])
+        for arm in arms:
+            if dataclasses.is_dataclass(arm) and isinstance(value, arm):
+                return {"type": arm.__name__, "fields": encode(value, arm)}
+        raise ValueError(f"value of type {type(value).__name__} fits none of {hint}")
+    if origin is tuple:
+        return [encode(item, item_hint) for item, item_hint in zip(value, _item_hints(hint, len(value)))]
+    if dataclasses.is_dataclass(hint):
+        hints = typing.get_type_hints(hint)
+        return {f.name: encode(getattr(value, f.name), hints[f.name]) for f in dataclasses.fields(hint)}
+    if isinstance(hint, type) and issubclass(hint, enum.Enum):
+        return hint(value).value
+    if hint is bool:
+        return bool(value)
+    if hint is int:
+        return int(value)
+    if hint is float:
+        number = float(value)
+        if math.isfinite(number):
+            return number
+        return "NaN" if math.isnan(number) else ("Infinity" if number > 0 else "-Infinity")
+    if hint is str:
+        return str(value)
+    if hint is datetime:
+        return value.isoformat()
+    raise ValueError(f"no canonical form for {hint!r}")
+
+
+def decode(data: Any, hint: Any) -> Any:
+    """The object of type ``hint`` that ``encode`` turned into ``data``; ``RecordError`` if damaged."""
+    try:
+        return _decode(data, hint)
+    except (KeyError, TypeError, ValueError, AttributeError) as error:
+        raise RecordError(
+            "The program data in the record are damaged and cannot be read back; "
+            "use the original file or an intact copy of the record."
+        ) from error
+
+
+def _decode(data: Any, hint: Any) -> Any:
+    origin = typing.get_origin(hint)
+    if origin in (typing.Union, types.UnionType):
+        if data is None:
+            return None
+        arms = [arm for arm in typing.get_args(hint) if arm is not type(None)]
+        if len(arms) == 1:
+            return _decode(data, arms[0])
+        chosen = next(arm for arm in arms if dataclasses.is_dataclass(arm) and arm.__name__ == data["type"])
+        return _decode(data["fields"], chosen)
+    if origin is tuple:
+        _require(data, list)
+        return tuple(_decode(item, item_hint) for item, item_hint in zip(data, _item_hints(hint, len(data))))
+    if dataclasses.is_dataclass(hint):
+        _require(data, dict)
+        hints = typing.get_type_hints(hint)
+        names = {f.name for f in dataclasses.fields(hint)}
+        if set(data) != names:
+            raise ValueError(f"fields of {hint.__name__} do not match")
+        return hint(**{name: _decode(data[name], hints[name]) for name in names})
+    if isinstance(hint, type) and issubclass(hint, enum.Enum):
+        return hint(data)
+    if hint is bool:
+        return _require(data, bool)
+    if hint is int:
+        if isinstance(data, bool):
+            raise TypeError("a whole number was expected")
+        return _require(data, int)
+    if hint is float:
+        if isinstance(data, str):
+            return _NON_FINITE[data]
+        if isinstance(data, bool) or not isinstance(data, (int, float)):
+            raise TypeError("a number was expected")
+        return float(data)
+    if hint is str:
+        return _require(data, str)
+    if hint is datetime:
+        return datetime.fromisoformat(_require(data, str))
+    raise ValueError(f"no canonical form for {hint!r}")
+
+
+def _item_hints(hint: Any, length: int) -> list[Any]:
+    """The annotation of each item of a tuple of ``length`` items."""
+    args = typing.get_args(hint)
+    if len(args) == 2 and args[1] is Ellipsis:
+        return [args[0]] * length
+    if len(args) != length:
+        raise ValueError(f"expected {len(args)} items, found {length}")
+    return list(args)
+
+
+def _require(data: Any, kind: type) -> Any:
+    if not isinstance(data, kind):
+        raise TypeError(f"{kind.__name__} expected")
+    return data

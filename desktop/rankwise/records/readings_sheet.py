@@ -1,0 +1,79 @@
+"""The sheet of readings exactly as entered: every cell's text or number, and why any was skipped."""
+
+from __future__ import annotations
+
+from openpyxl.utils import get_column_letter
+from openpyxl.worksheet.worksheet import Worksheet
+
+from rankwise.readings import CellKind, SheetSnapshot
+from rankwise.records.sheet_cells import put, reading_format
+
+SHEET_TITLE = "Readings as entered"
+FIRST_ENTRY_ROW = 12
+"""Row of the first entry; rows above hold each group's name, unit, limits and counts."""
+
+_DECIMAL_WORDS = {"auto": "recognised automatically", ".": "point", ",": "comma"}
+
+
+def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
+    """Write every group's cells in entry order: readings as numbers at their typed resolution,
+    everything else as the text that was typed; then the list of entries not used and why."""
+    put(sheet, 1, 1, "Readings exactly as typed or opened; entries that are not readings keep their text.",
+        bold=True)
+    put(sheet, 2, 1, "Decimal mark")
+    put(sheet, 2, 2, _DECIMAL_WORDS.get(snapshot.decimal, snapshot.decimal))
+    labels = ["Group", "Unit", "Lower limit (LSL)", "Upper limit (USL)", "Nominal", "Readings used",
+              "Entries not used", "Below a detection limit"]
+    for offset, label in enumerate(labels):
+        put(sheet, 3 + offset, 1, label, bold=True)
+    put(sheet, FIRST_ENTRY_ROW - 1, 1, "Entry", bold=True)
+    sheet.column_dimensions["A"].width = 24
+
+    longest = max((len(group.cells) for group in snapshot.groups), default=0)
+    for row in range(longest):
+        put(sheet, FIRST_ENTRY_ROW + row, 1, row + 1)
+
+    not_used = []
+    for index, group in enumerate(snapshot.groups):
+        column = index + 2
+        sheet.column_dimensions[get_column_letter(column)].width = max(12, min(40, len(group.name) + 4))
+        decimals = max((c.decimals for c in group.cells if c.decimals is not None), default=None)
+        limit_format = reading_format(decimals)
+        put(sheet, 3, column, group.name, bold=True)
+        put(sheet, 4, column, group.unit)
+        put(sheet, 5, column, group.lsl, limit_format)
+        put(sheet, 6, column, group.usl, limit_format)
+        put(sheet, 7, column, group.nominal, limit_format)
+        kinds = [cell.kind for cell in group.cells]
+        put(sheet, 8, column, kinds.count(CellKind.NUMBER))
+        put(sheet, 9, column, kinds.count(CellKind.NOTE) + kinds.count(CellKind.INVALID))
+        put(sheet, 10, column, kinds.count(CellKind.CENSORED))
+        for row, cell in enumerate(group.cells):
+            target = FIRST_ENTRY_ROW + row
+            if cell.kind is CellKind.NUMBER:
+                put(sheet, target, column, cell.value, reading_format(cell.decimals))
+            elif cell.kind is not CellKind.EMPTY:
+                put(sheet, target, column, cell.text)
+            if cell.kind in (CellKind.NOTE, CellKind.INVALID, CellKind.CENSORED):
+                not_used.append((group.name, row + 1, cell.text, cell.reason or _default_reason(cell.kind)))
+
+    table_column = len(snapshot.groups) + 3
+    put(sheet, 3, table_column, "Entries that are not plain readings", bold=True)
+    for offset, heading in enumerate(("Group", "Entry", "As typed", "Why")):
+        put(sheet, 4, table_column + offset, heading, bold=True)
+    for row, (name, entry, text, reason) in enumerate(not_used, start=5):
+        put(sheet, row, table_column, name)
+        put(sheet, row, table_column + 1, entry)
+        put(sheet, row, table_column + 2, text)
+        put(sheet, row, table_column + 3, reason)
+    sheet.column_dimensions[get_column_letter(table_column + 3)].width = 60
+    sheet.freeze_panes = sheet.cell(row=FIRST_ENTRY_ROW, column=2)
+
+
+def _default_reason(kind: CellKind) -> str:
+    """Why an entry is not a plain reading, when the readings layer gave no reason."""
+    if kind is CellKind.CENSORED:
+        return "below the detection limit; ranked below every measured reading"
+    if kind is CellKind.NOTE:
+        return "a note, not a reading"
+    return "cannot be read as a number"

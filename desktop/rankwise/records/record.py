@@ -1,0 +1,113 @@
+"""A result on record: what was asked, the readings as entered, the result, who signed, and when."""
+
+from __future__ import annotations
+
+import platform
+from dataclasses import dataclass
+from datetime import datetime
+from typing import Any
+
+import numpy
+import openpyxl
+import scipy
+
+import rankwise
+from rankwise.readings import ReadingsError, SheetSnapshot
+from rankwise.records.canonical import decode, encode, sha256_hex
+from rankwise.records.errors import RecordError
+from rankwise.records.signoff import SignOff
+from rankwise.stats.analysis import Analysis
+from rankwise.stats.results import Result
+
+RECORD_FORMAT = 1
+"""Version of the stored form; raised when the meaning of the stored data changes."""
+
+
+def current_library_versions() -> tuple[tuple[str, str], ...]:
+    """Versions of the libraries that computed and wrote a result (python, numpy, scipy, openpyxl)."""
+    return (
+        ("python", platform.python_version()),
+        ("numpy", numpy.__version__),
+        ("scipy", scipy.__version__),
+        ("openpyxl", openpyxl.__version__),
+    )
+
+
+@dataclass(frozen=True)
+class ResultRecord:
+    """Everything a signed result workbook holds.
+
+    Attributes:
+        analysis: the question, the groups' readings and the settings.
+        snapshot: the readings sheet exactly as entered (every cell's text and what it was read as).
+        result: the statistics service's answer to ``analysis``.
+        signoff: the sign-off block, or None for an unsigned draft.
+        program_version: Rankwise's version that wrote the record.
+        library_versions: (name, version) of python, numpy, scipy and openpyxl.
+        created_at: when the record was written (timezone-aware).
+    """
+
+    analysis: Analysis
+    snapshot: SheetSnapshot
+    result: Result
+    signoff: SignOff | None
+    program_version: str
+    library_versions: tuple[tuple[str, str], ...]
+    created_at: datetime
+
+    @classmethod
+    def now(cls, analysis: Analysis, snapshot: SheetSnapshot, result: Result,
+            signoff: SignOff | None) -> ResultRecord:
+        """A record written now, by this program and these libraries."""
+        return cls(analysis=analysis, snapshot=snapshot, result=result, signoff=signoff,
+                   program_version=rankwise.__version__,
+                   library_versions=current_library_versions(),
+                   created_at=datetime.now().astimezone())
+
+    @property
+    def is_signed(self) -> bool:
+        """True when at least the first signature is present."""
+        return self.signoff is not None
+
+
+def record_to_data(record: ResultRecord) -> dict[str, Any]:
+    """The record as plain JSON data: the stored form that the fingerprint covers."""
+    return {
+        "record_format": RECORD_FORMAT,
+        "analysis": encode(record.analysis, Analysis),
+        "snapshot": record.snapshot.to_dict(),
+        "result": encode(record.result, Result),
+        "signoff": encode(record.signoff, SignOff | None),
+        "program_version": record.program_version,
+        "library_versions": [list(pair) for pair in record.library_versions],
+        "created_at": encode(record.created_at, datetime),
+    }
+
+
+def record_from_data(data: Any) -> ResultRecord:
+    """The record from its stored form; ``RecordError`` when it is damaged or from a later format."""
+    if not isinstance(data, dict) or data.get("record_format") != RECORD_FORMAT:
+        raise RecordError(
+            "The record's program data are in a form this version of Rankwise does not know; "
+            "open it with the version that wrote it."
+        )
+    try:
+        snapshot = SheetSnapshot.from_dict(data["snapshot"])
+        versions = tuple((str(name), str(version)) for name, version in data["library_versions"])
+        program_version = data["program_version"]
+    except (ReadingsError, KeyError, TypeError, ValueError) as error:
+        raise RecordError("The readings stored in the record are damaged and cannot be read back.") from error
+    return ResultRecord(
+        analysis=decode(data.get("analysis"), Analysis),
+        snapshot=snapshot,
+        result=decode(data.get("result"), Result),
+        signoff=decode(data.get("signoff"), SignOff | None),
+        program_version=decode(program_version, str),
+        library_versions=versions,
+        created_at=decode(data.get("created_at"), datetime),
+    )
+
+
+def fingerprint(record: ResultRecord) -> str:
+    """SHA-256 (hex) over the canonical form of the readings, settings, result and sign-off."""
+    return sha256_hex(record_to_data(record))

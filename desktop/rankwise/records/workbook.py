@@ -1,0 +1,133 @@
+"""The result workbook: build its sheets from a record, write it atomically, read it back."""
+
+from __future__ import annotations
+
+import json
+import os
+from pathlib import Path
+from typing import Any
+
+from openpyxl import Workbook, load_workbook
+
+from rankwise.records.atomic import write_atomically
+from rankwise.records.canonical import canonical_bytes, sha256_hex
+from rankwise.records.details_sheet import SHEET_TITLE as DETAILS_TITLE
+from rankwise.records.details_sheet import fill_details_sheet
+from rankwise.records.errors import RecordError
+from rankwise.records.ranks_sheet import fill_ranks_sheet, ranks_sheet_title
+from rankwise.records.readings_sheet import SHEET_TITLE as READINGS_TITLE
+from rankwise.records.readings_sheet import fill_readings_sheet
+from rankwise.records.record import ResultRecord, record_from_data, record_to_data
+from rankwise.records.sheet_cells import put
+from rankwise.records.verdict_sheet import SHEET_TITLE as VERDICT_TITLE
+from rankwise.records.verdict_sheet import fill_verdict_sheet
+
+PROGRAM_SHEET = "Program data"
+PROGRAM_MARKER = "Rankwise result record: data for the program. Do not edit."
+"""Cell A1 of the program sheet; a workbook without it is not a Rankwise record."""
+CHUNK = 30000
+"""Characters of the stored JSON per cell (a spreadsheet cell holds at most 32,767)."""
+
+
+def build_workbook(record: ResultRecord) -> Workbook:
+    """The whole workbook for ``record``: the visible sheets, protected, and the hidden program sheet."""
+    data = record_to_data(record)
+    fingerprint = sha256_hex(data)
+    workbook = Workbook()
+    verdict = workbook.active
+    verdict.title = VERDICT_TITLE
+    fill_verdict_sheet(verdict, record, fingerprint)
+    fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot)
+    fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
+    fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
+    _fill_program_sheet(workbook.create_sheet(PROGRAM_SHEET), data, fingerprint)
+    for sheet in workbook.worksheets:
+        sheet.protection.sheet = True
+    workbook.security.lockStructure = True
+    return workbook
+
+
+def _fill_program_sheet(sheet, data: dict[str, Any], fingerprint: str) -> None:
+    """Marker, fingerprint, number of parts, and the canonical JSON cut into parts."""
+    text = canonical_bytes(data).decode("utf-8")
+    parts = [text[start:start + CHUNK] for start in range(0, len(text), CHUNK)] or [""]
+    put(sheet, 1, 1, PROGRAM_MARKER)
+    put(sheet, 2, 1, fingerprint)
+    put(sheet, 3, 1, len(parts))
+    for row, part in enumerate(parts, start=4):
+        put(sheet, row, 1, part)
+    sheet.sheet_state = "veryHidden"
+
+
+def write_record(path: str | os.PathLike[str], record: ResultRecord, *, overwrite_signed: bool = False) -> None:
+    """Write ``record`` as a result workbook at ``path``, atomically.
+
+    Refuses (``RecordError``) to replace a workbook that is a signed record unless
+    ``overwrite_signed`` is True; the existing file is then left as it was.
+    """
+    target = Path(path)
+    if target.suffix.lower() != ".xlsx":
+        raise RecordError(f"A result workbook must be saved with the ending .xlsx; got '{target.name}'.")
+    if not target.parent.is_dir():
+        raise RecordError(f"The folder '{target.parent}' does not exist; choose another place to save.")
+    if target.exists() and not overwrite_signed and _is_signed_record(target):
+        raise RecordError(
+            f"'{target.name}' is a signed record and is kept as it is; save the new result under "
+            f"another name, or confirm that the signed record is to be replaced."
+        )
+    workbook = build_workbook(record)
+    try:
+        write_atomically(target, lambda temporary: workbook.save(temporary))
+    except OSError as error:
+        raise RecordError(f"The result could not be saved to '{target}': {error.strerror or error}.") from error
+
+
+def _is_signed_record(path: Path) -> bool:
+    """True when ``path`` holds a Rankwise record with a sign-off (damaged data count as signed)."""
+    try:
+        data, _ = read_program_data(load_workbook_safely(path))
+    except RecordError:
+        return False
+    return not isinstance(data, dict) or data.get("signoff") is not None
+
+
+def load_workbook_safely(path: str | os.PathLike[str]) -> Workbook:
+    """Open a workbook, or raise ``RecordError`` in plain words when it cannot be read as one."""
+    try:
+        return load_workbook(path)
+    except FileNotFoundError as error:
+        raise RecordError(f"There is no file '{path}'.") from error
+    except Exception as error:  # openpyxl raises many kinds of error for damaged or foreign files
+        raise RecordError(f"'{Path(path).name}' cannot be read as a workbook; it is not a Rankwise record.") from error
+
+
+def read_program_data(workbook: Workbook) -> tuple[Any, str]:
+    """The stored JSON data and the stored fingerprint of a record workbook.
+
+    Raises ``RecordError`` when the workbook is not a Rankwise record. Returns the parsed JSON
+    even when it no longer forms a record, so that verification can report it as changed;
+    a JSON text that cannot be parsed is returned as None.
+    """
+    if PROGRAM_SHEET not in workbook.sheetnames or workbook[PROGRAM_SHEET]["A1"].value != PROGRAM_MARKER:
+        raise RecordError("This workbook is not a Rankwise result record (it has no program data).")
+    sheet = workbook[PROGRAM_SHEET]
+    fingerprint = str(sheet["A2"].value or "")
+    count = sheet["A3"].value
+    if not isinstance(count, int) or count < 1:
+        return None, fingerprint
+    text = "".join(str(sheet.cell(row=row, column=1).value or "") for row in range(4, 4 + count))
+    try:
+        return json.loads(text), fingerprint
+    except ValueError:
+        return None, fingerprint
+
+
+def read_record(path: str | os.PathLike[str]) -> ResultRecord:
+    """The record stored in a result workbook, so the window can reopen the analysis.
+
+    Raises ``RecordError`` in plain words for a file that is not a record or is damaged.
+    """
+    data, _ = read_program_data(load_workbook_safely(path))
+    if data is None:
+        raise RecordError("The record's program data are damaged and cannot be read back.")
+    return record_from_data(data)
