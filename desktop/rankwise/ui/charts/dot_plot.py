@@ -1,0 +1,160 @@
+"""Readings per group as dots, with each group's median and the specification limits."""
+
+from __future__ import annotations
+
+import numpy as np
+import pyqtgraph as pg
+
+from rankwise.stats import Analysis
+from rankwise.ui.charts import style
+from rankwise.ui.charts.chart_frame import ChartFrame
+from rankwise.ui.charts.readings_view import ReadingsView, readings_view, stacked_offsets
+
+MEDIAN_HALF_WIDTH = 0.38
+"""Half the width of a median bar, in group slots."""
+TIE_SPACING = 0.07
+"""Sideways distance between equal readings, in group slots."""
+NAME_CHARACTERS = 22
+"""Group names longer than this are shortened under the axis (the full name is in the tooltip)."""
+
+TOOLTIP = (
+    "Each dot is one reading; equal readings sit side by side so that every reading shows. "
+    "The heavy bar across a group is its median. Dashed lines are the specification limits "
+    "(LSL, USL), the dotted line the nominal value."
+)
+
+
+def shorten(name: str, characters: int = NAME_CHARACTERS) -> str:
+    """``name`` cut to ``characters`` with an ellipsis when longer."""
+    return name if len(name) <= characters else name[: characters - 1].rstrip() + "…"
+
+
+class ReadingsDotPlot(ChartFrame):
+    """Dots per group (stacked where readings are equal), medians, LSL/USL and nominal lines.
+
+    For the same parts measured twice, a thin line joins each part's first and second reading.
+    """
+
+    def __init__(self, parent=None) -> None:
+        super().__init__(
+            parent,
+            accessible_name="Readings per group",
+            tooltip=TOOLTIP,
+            idle_note="The readings appear here as dots, one column per group.",
+            bottom="Group",
+            left="Reading",
+        )
+        self._pair_lines = pg.PlotCurveItem(pen=pg.mkPen("#9A9A9A", width=1), connect="pairs")
+        self._medians = pg.PlotCurveItem(pen=style.median_pen(), connect="pairs")
+        self._medians.setZValue(8)
+        self.plot_item.addItem(self._pair_lines)
+        self.plot_item.addItem(self._medians)
+        self._dots: list[pg.ScatterPlotItem] = []
+        self._lines = {
+            "lsl": self._reference_line(style.limit_pen()),
+            "usl": self._reference_line(style.limit_pen()),
+            "nominal": self._reference_line(style.nominal_pen()),
+        }
+        self.view: ReadingsView | None = None
+        self.clear()
+
+    def _reference_line(self, pen) -> pg.InfiniteLine:
+        """A horizontal labelled line, created once and moved as limits change."""
+        line = pg.InfiniteLine(angle=0, movable=False, pen=pen,
+                               label="", labelOpts={"position": 0.02, "color": style.INK,
+                                                    "anchors": [(0, 1), (0, 1)],
+                                                    "fill": pg.mkBrush(255, 255, 255, 200)})
+        line.setZValue(5)
+        self.plot_item.addItem(line, ignoreBounds=True)
+        return line
+
+    def _dots_for(self, index: int) -> pg.ScatterPlotItem:
+        """The scatter item of group ``index`` (made the first time a group needs it)."""
+        while len(self._dots) <= index:
+            number = len(self._dots)
+            dots = pg.ScatterPlotItem(
+                size=style.MARKER_SIZE,
+                symbol=style.group_symbol(number),
+                pen=pg.mkPen(style.INK, width=0.8),
+                brush=pg.mkBrush(style.group_colour(number)),
+                hoverable=True,
+                tip=lambda x, y, data: f"{data}",
+            )
+            dots.setZValue(10)
+            self.plot_item.addItem(dots)
+            self._dots.append(dots)
+        return self._dots[index]
+
+    def clear(self) -> None:
+        """Remove all readings and show the idle note."""
+        self.view = None
+        for dots in self._dots:
+            dots.setData([], [])
+        self._medians.setData([], [])
+        self._pair_lines.setData([], [])
+        for line in self._lines.values():
+            line.setVisible(False)
+        self.plot_item.getAxis("bottom").setTicks(None)
+        self._label_axes(bottom="Group", left="Reading")
+        self.idle()
+
+    def show_result(self, result, analysis: Analysis) -> None:
+        """Draw the readings behind ``result`` (a planning result has none: a note says so)."""
+        view = readings_view(result, analysis)
+        if view is None:
+            self.clear()
+            self._show_note("A planning question has no readings to show yet.")
+            return
+        self._hide_note()
+        self.view = view
+        positions = []
+        for index, (name, values) in enumerate(zip(view.names, view.values)):
+            x = index + stacked_offsets(values, spacing=TIE_SPACING, half_width=MEDIAN_HALF_WIDTH - 0.04)
+            positions.append(x)
+            tips = [f"{name}: {view.format(value)}" + (f" {view.unit}" if view.unit else "") for value in values]
+            self._dots_for(index).setData(x=x, y=np.asarray(values, dtype=float), data=tips)
+        for dots in self._dots[len(view.names):]:
+            dots.setData([], [])
+        self._draw_medians(view)
+        self._draw_pairs(view, positions)
+        self._draw_limits(view)
+        ticks = [(index, shorten(name)) for index, name in enumerate(view.names)]
+        self.plot_item.getAxis("bottom").setTicks([ticks, []])
+        self._label_axes(bottom="Group", left=view.axis_label())
+        self._set_legend([(self._medians, "median")])
+        self._fit_range(view)
+
+    def _draw_medians(self, view: ReadingsView) -> None:
+        """One heavy horizontal bar per group at its median."""
+        x, y = [], []
+        for index, median in enumerate(view.medians):
+            x += [index - MEDIAN_HALF_WIDTH, index + MEDIAN_HALF_WIDTH]
+            y += [median, median]
+        self._medians.setData(np.asarray(x), np.asarray(y))
+
+    def _draw_pairs(self, view: ReadingsView, positions) -> None:
+        """Thin lines joining each part's two readings (same parts measured twice only)."""
+        if not view.paired:
+            self._pair_lines.setData([], [])
+            return
+        x = np.column_stack((positions[0], positions[1])).ravel()
+        y = np.column_stack((view.values[0], view.values[1])).ravel()
+        self._pair_lines.setData(x, y)
+
+    def _draw_limits(self, view: ReadingsView) -> None:
+        """Place and label the LSL, USL and nominal lines that are set; hide the others."""
+        for key, title in (("lsl", "LSL"), ("usl", "USL"), ("nominal", "nominal")):
+            line, value = self._lines[key], getattr(view, key)
+            line.setVisible(value is not None)
+            if value is not None:
+                line.setValue(value)
+                line.label.setFormat(f"{title} {view.format(value)}")
+
+    def _fit_range(self, view: ReadingsView) -> None:
+        """Show every reading and every limit that is set, with a margin."""
+        numbers = [v for group in view.values for v in group]
+        numbers += [v for v in (view.lsl, view.usl, view.nominal) if v is not None]
+        low, high = min(numbers), max(numbers)
+        pad = (high - low) * 0.08 or max(abs(high) * 0.05, 1e-6)
+        self.plot_item.setRange(xRange=(-0.6, len(view.names) - 0.4),
+                                yRange=(low - pad, high + pad), padding=0)
