@@ -1,0 +1,67 @@
+"""The questions the window asks the user: a path to open or save, a yes/no, a problem to read.
+
+The window never builds these dialogs itself; it calls the functions below. Tests replace one
+function (for example ``monkeypatch.setattr(dialogs, "ask_open_path", ...)``) instead of driving a
+modal window.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from PySide6.QtWidgets import QFileDialog, QMessageBox, QWidget
+
+READINGS_FILTER = "Readings (*.csv *.txt *.xlsx *.xlsm);;All files (*)"
+"""Files the open dialog offers: spreadsheet exports and signed result workbooks."""
+
+SAVE_READINGS_FILTER = "Readings as CSV (*.csv);;Readings as workbook (*.xlsx)"
+RECORD_FILTER = "Signed result workbook (*.xlsx)"
+PDF_FILTER = "One-page verdict (*.pdf)"
+
+
+def ask_open_path(parent: QWidget | None, title: str, file_filter: str = READINGS_FILTER) -> Path | None:
+    """Ask for an existing file to open; None when the user cancels."""
+    chosen, _ = QFileDialog.getOpenFileName(parent, title, "", file_filter)
+    return Path(chosen) if chosen else None
+
+
+def ask_save_path(parent: QWidget | None, title: str, suggested: str, file_filter: str) -> Path | None:
+    """Ask where to save; None when the user cancels. The platform dialog asks before overwriting."""
+    chosen, _ = QFileDialog.getSaveFileName(parent, title, suggested, file_filter)
+    return Path(chosen) if chosen else None
+
+
+def confirm(parent: QWidget | None, title: str, text: str, yes: str = "Yes", no: str = "No") -> bool:
+    """Ask a yes/no question in plain words; True for yes."""
+    box = QMessageBox(QMessageBox.Icon.Question, title, text, QMessageBox.StandardButton.NoButton, parent)
+    yes_button = box.addButton(yes, QMessageBox.ButtonRole.AcceptRole)
+    no_button = box.addButton(no, QMessageBox.ButtonRole.RejectRole)
+    box.setDefaultButton(no_button)
+    box.exec()
+    return box.clickedButton() is yes_button
+
+
+def ask_keep_changes(parent: QWidget | None, text: str) -> str:
+    """Ask what to do with unsaved readings: "save", "discard" or "cancel"."""
+    box = QMessageBox(QMessageBox.Icon.Warning, "Unsaved readings", text, QMessageBox.StandardButton.NoButton, parent)
+    save_button = box.addButton("Save the readings first", QMessageBox.ButtonRole.AcceptRole)
+    discard_button = box.addButton("Close without saving", QMessageBox.ButtonRole.DestructiveRole)
+    cancel_button = box.addButton("Keep working", QMessageBox.ButtonRole.RejectRole)
+    box.setDefaultButton(cancel_button)
+    box.exec()
+    clicked = box.clickedButton()
+    if clicked is save_button:
+        return "save"
+    if clicked is discard_button:
+        return "discard"
+    return "cancel"
+
+
+def show_problem(parent: QWidget | None, title: str, text: str) -> None:
+    """Tell the user, in plain words, what went wrong and what to do."""
+    QMessageBox.warning(parent, title, text)
+
+
+def show_message(parent: QWidget | None, title: str, text: str) -> None:
+    """Tell the user something that went well (e.g. a record was checked and is intact)."""
+    QMessageBox.information(parent, title, text)

@@ -1,0 +1,241 @@
+"""The open dialog: what the file looks like, how it was understood, what will be skipped, then load.
+
+The file is read with ``rankwise.readings.open_readings`` (automatic choices first); the dialog shows
+the first rows, the worksheet, the layout (a column per group, or a value column with a group
+column), the columns used and the decimal mark, and lets the user change each one. Every cell that
+will not be used is listed with its reason before anything lands in the sheet. The file itself is
+only read, never changed.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import (
+    QAbstractItemView,
+    QComboBox,
+    QDialog,
+    QDialogButtonBox,
+    QFormLayout,
+    QHBoxLayout,
+    QLabel,
+    QListWidget,
+    QTableWidget,
+    QTableWidgetItem,
+    QVBoxLayout,
+    QWidget,
+)
+
+from rankwise.readings import ReadingSet, ReadingsError
+
+PREVIEW_ROWS = 15
+"""Rows of the file shown in the preview."""
+
+LAYOUTS = (("wide", "A column per group"), ("stacked", "A value column and a group column"))
+DECIMALS = (("auto", "Decide from the file"), (".", "Point (0.42)"), (",", "Comma (0,42)"))
+
+
+def _combo(name: str) -> QComboBox:
+    box = QComboBox()
+    box.setAccessibleName(name)
+    box.setSizeAdjustPolicy(QComboBox.SizeAdjustPolicy.AdjustToMinimumContentsLengthWithIcon)
+    box.setMinimumContentsLength(16)
+    return box
+
+
+class OpenReadingsDialog(QDialog):
+    """Preview a file, check or change how it is read, and load it (``accept``) or cancel."""
+
+    def __init__(self, parent: QWidget | None, path: Path, reading_set: ReadingSet) -> None:
+        super().__init__(parent)
+        self.path = Path(path)
+        self.reading_set: ReadingSet | None = reading_set
+        self.setWindowTitle(f"Open {self.path.name}")
+        self.resize(1000, 720)
+        self._filling = False
+
+        self.sheet_choice = _combo("Worksheet")
+        self.layout_choice = _combo("Layout")
+        self.value_column = _combo("Value column")
+        self.group_column = _combo("Group column")
+        self.decimal_choice = _combo("Decimal mark")
+        for value, text in LAYOUTS:
+            self.layout_choice.addItem(text, value)
+        for value, text in DECIMALS:
+            self.decimal_choice.addItem(text, value)
+        self.sheet_label = QLabel("Worksheet")
+        form = QFormLayout()
+        form.addRow(self.sheet_label, self.sheet_choice)
+        form.addRow("Layout", self.layout_choice)
+        self.value_label = QLabel("Readings in column")
+        self.group_label = QLabel("Group names in column")
+        form.addRow(self.value_label, self.value_column)
+        form.addRow(self.group_label, self.group_column)
+        form.addRow("Decimal mark", self.decimal_choice)
+
+        self.found = QLabel()
+        self.found.setObjectName("openFound")
+        self.found.setWordWrap(True)
+        self.found.setAccessibleName("How the file was understood")
+        self.preview = QTableWidget()
+        self.preview.setAccessibleName("The first rows of the file")
+        self.preview.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
+        self.groups_list = QListWidget()
+        self.groups_list.setAccessibleName("Groups that will be loaded")
+        self.skipped_list = QListWidget()
+        self.skipped_list.setAccessibleName("Cells that will be skipped, with the reason")
+        self.problem = QLabel()
+        self.problem.setObjectName("dialogProblem")
+        self.problem.setWordWrap(True)
+
+        lists = QHBoxLayout()
+        for title, widget in (("Groups found", self.groups_list), ("Cells that will be skipped", self.skipped_list)):
+            column = QVBoxLayout()
+            label = QLabel(title)
+            label.setObjectName("sectionTitle")
+            column.addWidget(label)
+            column.addWidget(widget)
+            lists.addLayout(column, 1)
+
+        self.buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Cancel)
+        self.load_button = self.buttons.addButton("Load into the sheet", QDialogButtonBox.ButtonRole.AcceptRole)
+        self.load_button.setDefault(True)
+        self.buttons.accepted.connect(self.accept)
+        self.buttons.rejected.connect(self.reject)
+
+        preview_title = QLabel("The first rows of the file (nothing in the file is changed)")
+        preview_title.setObjectName("sectionTitle")
+        layout = QVBoxLayout(self)
+        layout.addWidget(self.found)
+        layout.addLayout(form)
+        layout.addWidget(preview_title)
+        layout.addWidget(self.preview, 2)
+        layout.addLayout(lists, 1)
+        layout.addWidget(self.problem)
+        layout.addWidget(self.buttons)
+
+        for box in (self.sheet_choice, self.layout_choice, self.value_column, self.group_column, self.decimal_choice):
+            box.currentIndexChanged.connect(self._on_choice_changed)
+        self._show(reading_set)
+
+    # -- showing ---------------------------------------------------------------------------------
+    def _show(self, reading_set: ReadingSet) -> None:
+        source = reading_set.source
+        self._filling = True
+        try:
+            self.sheet_choice.clear()
+            for name in source.sheet_names:
+                self.sheet_choice.addItem(name, name)
+            self.sheet_choice.setCurrentIndex(max(0, self.sheet_choice.findData(source.sheet)))
+            for widget in (self.sheet_label, self.sheet_choice):
+                widget.setVisible(bool(source.sheet_names))
+            self.layout_choice.setCurrentIndex(max(0, self.layout_choice.findData(source.layout)))
+            for box, chosen in ((self.value_column, source.value_column), (self.group_column, source.group_column)):
+                box.clear()
+                for name in source.columns:
+                    box.addItem(name, name)
+                box.setCurrentIndex(max(0, box.findData(chosen)))
+            stacked = source.layout == "stacked"
+            for widget in (self.value_label, self.value_column, self.group_label, self.group_column):
+                widget.setVisible(stacked)
+            if self.decimal_choice.currentData() != "auto":
+                self.decimal_choice.setCurrentIndex(max(0, self.decimal_choice.findData(source.decimal)))
+        finally:
+            self._filling = False
+        self._show_found(reading_set)
+        self._show_preview(source)
+        self._show_groups(reading_set)
+
+    def _show_found(self, reading_set: ReadingSet) -> None:
+        source = reading_set.source
+        if source.layout == "stacked":
+            layout_words = (f"readings in column '{source.value_column}', group names in column "
+                            f"'{source.group_column}'")
+        else:
+            layout_words = "a column per group"
+        details = [f"{source.format.upper()} file", layout_words,
+                   f"decimal {'comma' if source.decimal == ',' else 'point'}"]
+        if source.delimiter:
+            details.append("separator " + {"\t": "tab", ";": "semicolon", ",": "comma", "|": "bar"}.get(source.delimiter, repr(source.delimiter)))
+        if source.header_row:
+            details.append(f"column titles on row {source.header_row + 1} (the rows above are a title block)")
+        notes = " ".join(reading_set.notes)
+        self.found.setText(f"<b>{self.path.name}</b>: found " + ", ".join(details) + "." + (f" {notes}" if notes else ""))
+
+    def _show_preview(self, source) -> None:
+        rows = source.preview[:PREVIEW_ROWS]
+        width = max((len(row) for row in rows), default=0)
+        self.preview.clear()
+        self.preview.setRowCount(len(rows))
+        self.preview.setColumnCount(width)
+        self.preview.setVerticalHeaderLabels([str(number + 1) for number in range(len(rows))])
+        for r, row in enumerate(rows):
+            for c, text in enumerate(row):
+                item = QTableWidgetItem(text)
+                if r == source.header_row:
+                    font = item.font()
+                    font.setBold(True)
+                    item.setFont(font)
+                    item.setToolTip("Column titles")
+                elif r < source.header_row:
+                    item.setForeground(Qt.GlobalColor.darkGray)
+                    item.setToolTip("Title block: not read as readings")
+                self.preview.setItem(r, c, item)
+        self.preview.resizeColumnsToContents()
+
+    def _show_groups(self, reading_set: ReadingSet) -> None:
+        self.groups_list.clear()
+        self.skipped_list.clear()
+        for group in reading_set.groups:
+            skipped = len(group.skipped)
+            self.groups_list.addItem(
+                f"{group.name}: {len(group.values)} readings" + (f", {skipped} skipped" if skipped else ""))
+            for cell in group.skipped:
+                self.skipped_list.addItem(f"Row {cell.row}, column '{cell.column}': '{cell.text}' — {cell.reason}")
+        if self.skipped_list.count() == 0:
+            self.skipped_list.addItem("None: every cell with text is a reading.")
+        self.load_button.setEnabled(bool(reading_set.groups))
+        self.problem.setText("")
+
+    # -- changing --------------------------------------------------------------------------------
+    def choices(self) -> dict:
+        """The reading options as the dialog shows them, for ``open_readings``."""
+        layout = self.layout_choice.currentData()
+        options = {"layout": layout, "decimal": self.decimal_choice.currentData()}
+        if self.sheet_choice.count():
+            options["sheet"] = self.sheet_choice.currentData()
+        if layout == "stacked":
+            options["value_column"] = self.value_column.currentData()
+            options["group_column"] = self.group_column.currentData()
+        return options
+
+    def _on_choice_changed(self) -> None:
+        if self._filling:
+            return
+        from rankwise.readings import open_readings
+
+        options = self.choices()
+        if options["layout"] == "stacked" and options.get("value_column") == options.get("group_column"):
+            options.pop("value_column")
+            options.pop("group_column")
+        try:
+            reading_set = open_readings(self.path, **options)
+        except ReadingsError as error:
+            self.reading_set = None
+            self.load_button.setEnabled(False)
+            self.problem.setText(f"⚠ {error}")
+            return
+        self.reading_set = reading_set
+        self._show(reading_set)
+
+    @classmethod
+    def ask(cls, parent: QWidget | None, path: Path) -> ReadingSet | None:
+        """Open ``path`` with automatic choices, show the dialog; the readings to load, or None.
+
+        Raises ``ReadingsError`` when the file cannot be read at all.
+        """
+        from rankwise.readings import open_readings
+
+        dialog = cls(parent, path, open_readings(path))
+        return dialog.reading_set if dialog.exec() == QDialog.DialogCode.Accepted else None

@@ -1,0 +1,373 @@
+"""The question picker: what the technician wants to know, in plain words, and its few settings."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+
+from PySide6.QtCore import Qt, Signal
+from PySide6.QtWidgets import (
+    QButtonGroup,
+    QComboBox,
+    QDoubleSpinBox,
+    QFormLayout,
+    QLabel,
+    QRadioButton,
+    QVBoxLayout,
+    QWidget,
+)
+
+from rankwise.stats.analysis import Question, Settings
+
+
+@dataclass(frozen=True)
+class QuestionOption:
+    """One entry of the picker: its key, its words, and what it asks of the statistics."""
+
+    key: str
+    text: str
+    question: Question
+    alternative: str = "two-sided"
+    wants_margin: bool = False
+
+
+QUESTION_OPTIONS: tuple[QuestionOption, ...] = (
+    QuestionOption("differ", "Do the two groups differ?", Question.TWO_GROUPS),
+    QuestionOption("b-higher", "Does B read higher than A?", Question.TWO_GROUPS, "b-greater"),
+    QuestionOption("b-lower", "Does B read lower than A?", Question.TWO_GROUPS, "b-less"),
+    QuestionOption("paired", "Same parts: before vs after?", Question.PAIRED),
+    QuestionOption("several", "Do several groups differ?", Question.SEVERAL),
+    QuestionOption("margin", "Same within a margin?", Question.TWO_GROUPS, wants_margin=True),
+    QuestionOption("plan", "How many parts to measure?", Question.PLAN),
+)
+"""The questions offered, in the order shown."""
+
+LEVELS = ((0.10, "0.10 (10 %)"), (0.05, "0.05 (5 %)"), (0.01, "0.01 (1 %)"))
+PAIRED_DIRECTIONS = (
+    ("two-sided", "any change"),
+    ("b-greater", "after reads higher"),
+    ("b-less", "after reads lower"),
+)
+POWERS = ((0.8, "8 in 10"), (0.9, "9 in 10"), (0.95, "19 in 20"))
+
+
+@dataclass(frozen=True)
+class QuestionChoice:
+    """What the picker says: the question, its settings, and which groups (sheet columns) it uses.
+
+    Attributes:
+        option: the picker entry's key (see ``QUESTION_OPTIONS``).
+        question, settings: as handed to the statistics service.
+        group_indices: the sheet columns in question order (A first), () for planning.
+        problem: a plain-words reason the question cannot be asked yet, else "".
+    """
+
+    option: str
+    question: Question
+    settings: Settings
+    group_indices: tuple[int, ...]
+    problem: str = ""
+
+
+def _combo(name: str, tooltip: str) -> QComboBox:
+    box = QComboBox()
+    box.setAccessibleName(name)
+    box.setToolTip(tooltip)
+    return box
+
+
+def _spin(name: str, tooltip: str, decimals: int = 3) -> QDoubleSpinBox:
+    spin = QDoubleSpinBox()
+    spin.setAccessibleName(name)
+    spin.setToolTip(tooltip)
+    spin.setDecimals(decimals)
+    spin.setRange(0.0, 1e9)
+    spin.setKeyboardTracking(False)
+    return spin
+
+
+class QuestionPanel(QWidget):
+    """Plain-words question picker. Emits ``changed`` whenever the question or a setting changes."""
+
+    changed = Signal()
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.setObjectName("questionPanel")
+        self._group_names: list[str] = []
+        self._tolerances: list[float | None] = []
+        self._updating = False
+
+        title = QLabel("What do you want to know?")
+        title.setObjectName("panelTitle")
+        self._buttons = QButtonGroup(self)
+        self._buttons.setExclusive(True)
+        layout = QVBoxLayout(self)
+        layout.addWidget(title)
+        for position, option in enumerate(QUESTION_OPTIONS):
+            button = QRadioButton(option.text)
+            button.setAccessibleName(option.text)
+            button.setObjectName(f"question-{option.key}")
+            self._buttons.addButton(button, position)
+            layout.addWidget(button)
+        self._buttons.button(0).setChecked(True)
+
+        self.level = _combo("Significance level", "How small the p-value must be before the verdict says the change moved the readings.")
+        for value, text in LEVELS:
+            self.level.addItem(text, value)
+        self.level.setCurrentIndex(1)
+        self.group_a = _combo("Group A (reference)", "The reference: the current process, or the readings before the change.")
+        self.group_b = _combo("Group B (changed)", "The changed process, or the readings after the change.")
+        self.reference = _combo("Compare", "Several groups: compare every pair, or each group with one reference group.")
+        self.direction = _combo("Look for", "Same parts: look for any change, or only for one direction.")
+        for value, text in PAIRED_DIRECTIONS:
+            self.direction.addItem(text, value)
+        self.margin = _spin("Margin", "How far apart A and B may be and still count as the same for this part.")
+        self.margin_unit = _combo("Margin given as", "Give the margin in the readings' unit, or as a share of the tolerance width (USL - LSL).")
+        self.planned_shift = _spin("Shift worth finding", "The smallest change of the readings that matters, in the readings' unit.")
+        self.planned_spread = _spin("Usual spread", "The usual spread of the readings (standard deviation), in the readings' unit.")
+        self.power = _combo("Chance to find it", "How often a study of this size should find a shift of that size.")
+        for value, text in POWERS:
+            self.power.addItem(text, value)
+        self.planned_shift.setValue(1.0)
+        self.planned_spread.setValue(1.0)
+
+        form = QFormLayout()
+        form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
+        form.setLabelAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        self._rows: dict[str, tuple[QLabel, QWidget]] = {}
+        for key, label_text, widget in (
+            ("level", "Significance level", self.level),
+            ("a", "Group A (reference)", self.group_a),
+            ("b", "Group B (changed)", self.group_b),
+            ("reference", "Compare", self.reference),
+            ("direction", "Look for", self.direction),
+            ("margin", "Margin ±", self.margin),
+            ("margin_unit", "Margin given", self.margin_unit),
+            ("shift", "Shift worth finding", self.planned_shift),
+            ("spread", "Usual spread (SD)", self.planned_spread),
+            ("power", "Chance to find it", self.power),
+        ):
+            label = QLabel(label_text)
+            label.setBuddy(widget)
+            form.addRow(label, widget)
+            self._rows[key] = (label, widget)
+        layout.addLayout(form)
+        layout.addStretch(1)
+
+        self._buttons.idToggled.connect(self._on_option_toggled)
+        for box in (self.level, self.group_a, self.group_b, self.reference, self.direction, self.margin_unit, self.power):
+            box.currentIndexChanged.connect(self._on_setting_changed)
+        for spin in (self.margin, self.planned_shift, self.planned_spread):
+            spin.valueChanged.connect(self._on_setting_changed)
+        self.set_groups([], [])
+        self._show_rows_for_option()
+
+    # -- what the window tells the panel -------------------------------------------------------
+    def set_groups(self, names: list[str], tolerance_widths: list[float | None]) -> None:
+        """Offer the sheet's groups (keeping the current choice where the names still exist)."""
+        self._updating = True
+        try:
+            self._group_names = list(names)
+            self._tolerances = list(tolerance_widths)
+            keep_a, keep_b, keep_ref = self.group_a.currentText(), self.group_b.currentText(), self.reference.currentData()
+            self.group_a.clear()
+            self.group_b.clear()
+            for index, name in enumerate(names):
+                self.group_a.addItem(name, index)
+                self.group_b.addItem(name, index)
+            self.group_a.setCurrentIndex(max(0, self.group_a.findText(keep_a)) if keep_a else 0)
+            default_b = 1 if len(names) > 1 else 0
+            self.group_b.setCurrentIndex(self.group_b.findText(keep_b) if keep_b and self.group_b.findText(keep_b) >= 0 else default_b)
+            self.reference.clear()
+            self.reference.addItem("every pair of groups", None)
+            for name in names:
+                self.reference.addItem(f"each group with {name}", name)
+            found = self.reference.findData(keep_ref)
+            self.reference.setCurrentIndex(found if found >= 0 else 0)
+            self._refresh_margin_units()
+        finally:
+            self._updating = False
+
+    def select_option(self, key: str) -> None:
+        """Tick the question with ``key`` (see ``QUESTION_OPTIONS``)."""
+        for position, option in enumerate(QUESTION_OPTIONS):
+            if option.key == key:
+                self._buttons.button(position).setChecked(True)
+                return
+        raise ValueError(f"key must be one of {[o.key for o in QUESTION_OPTIONS]}; got {key!r}.")
+
+    def set_level(self, alpha: float) -> None:
+        """Choose the significance level (one of 0.10, 0.05, 0.01)."""
+        found = [index for index, (value, _) in enumerate(LEVELS) if abs(value - alpha) < 1e-12]
+        if not found:
+            raise ValueError(f"alpha must be one of {[v for v, _ in LEVELS]}; got {alpha!r}.")
+        self.level.setCurrentIndex(found[0])
+
+    # -- what the panel tells the window -------------------------------------------------------
+    @property
+    def option(self) -> QuestionOption:
+        """The ticked question."""
+        return QUESTION_OPTIONS[max(0, self._buttons.checkedId())]
+
+    def choice(self) -> QuestionChoice:
+        """The question, its settings and the groups it concerns, as the picker shows them now."""
+        option = self.option
+        settings = Settings(alpha=float(self.level.currentData()), alternative=option.alternative)
+        names = self._group_names
+        if option.question is Question.PLAN:
+            settings = replace(
+                settings,
+                planned_shift=self.planned_shift.value(),
+                planned_spread=self.planned_spread.value(),
+                power=float(self.power.currentData()),
+            )
+            problem = "" if self.planned_shift.value() > 0 and self.planned_spread.value() > 0 else (
+                "Give the shift worth finding and the usual spread of the readings (both above zero)."
+            )
+            return QuestionChoice(option.key, option.question, settings, (), problem)
+        if option.question is Question.SEVERAL:
+            reference = self.reference.currentData()
+            if reference is not None:
+                settings = replace(settings, comparison="against-reference", reference=reference)
+            problem = "" if len(names) >= 3 else "Several groups need at least three groups (columns) of readings."
+            return QuestionChoice(option.key, option.question, settings, tuple(range(len(names))), problem)
+        index_a, index_b = self.group_a.currentData(), self.group_b.currentData()
+        if option.question is Question.PAIRED:
+            settings = replace(settings, alternative=str(self.direction.currentData()))
+        problem = ""
+        if len(names) < 2:
+            problem = "Two groups are needed: type or paste readings into two columns."
+        elif index_a == index_b:
+            problem = "Choose two different groups for A and B."
+        if option.wants_margin:
+            margin, margin_problem = self._margin_in_units(index_a, index_b)
+            settings = replace(settings, margin=margin)
+            problem = problem or margin_problem
+        indices = () if index_a is None or index_b is None else (int(index_a), int(index_b))
+        return QuestionChoice(option.key, option.question, settings, indices, problem)
+
+    def to_dict(self) -> dict:
+        """The picker's state as plain data (kept in the recovery file)."""
+        return {
+            "option": self.option.key,
+            "alpha": float(self.level.currentData()),
+            "group_a": self.group_a.currentText(),
+            "group_b": self.group_b.currentText(),
+            "reference": self.reference.currentData(),
+            "direction": self.direction.currentData(),
+            "margin": self.margin.value(),
+            "margin_unit": self.margin_unit.currentData(),
+            "planned_shift": self.planned_shift.value(),
+            "planned_spread": self.planned_spread.value(),
+            "power": float(self.power.currentData()),
+        }
+
+    def from_dict(self, state: dict) -> None:
+        """Restore a state written by ``to_dict``; unknown or missing entries keep their defaults."""
+        self._updating = True
+        try:
+            keys = [o.key for o in QUESTION_OPTIONS]
+            if state.get("option") in keys:
+                self.select_option(state["option"])
+            for box, key, by_text in (
+                (self.level, "alpha", False), (self.group_a, "group_a", True), (self.group_b, "group_b", True),
+                (self.reference, "reference", False), (self.direction, "direction", False),
+                (self.margin_unit, "margin_unit", False), (self.power, "power", False),
+            ):
+                if key in state:
+                    found = box.findText(state[key]) if by_text else box.findData(state[key])
+                    if found >= 0:
+                        box.setCurrentIndex(found)
+            for spin, key in ((self.margin, "margin"), (self.planned_shift, "planned_shift"), (self.planned_spread, "planned_spread")):
+                if isinstance(state.get(key), (int, float)):
+                    spin.setValue(float(state[key]))
+        finally:
+            self._updating = False
+        self._show_rows_for_option()
+        self.changed.emit()
+
+    def set_from_analysis(self, analysis) -> None:
+        """Show the question and settings of a restored analysis (e.g. from a signed record)."""
+        settings = analysis.settings
+        names = [group.name for group in analysis.groups]
+        option = {
+            Question.PAIRED: "paired", Question.SEVERAL: "several", Question.PLAN: "plan",
+        }.get(analysis.question)
+        if option is None:
+            option = "margin" if settings.margin is not None else {
+                "b-greater": "b-higher", "b-less": "b-lower"}.get(settings.alternative, "differ")
+        state = {
+            "option": option, "alpha": settings.alpha, "direction": settings.alternative,
+            "reference": settings.reference, "margin_unit": "units",
+        }
+        if len(names) >= 2:
+            state.update(group_a=names[0], group_b=names[1])
+        if settings.margin is not None:
+            state["margin"] = settings.margin
+        for key in ("planned_shift", "planned_spread", "power"):
+            if getattr(settings, key) is not None:
+                state[key] = getattr(settings, key)
+        self.from_dict(state)
+
+    def set_read_only(self, read_only: bool) -> None:
+        """Lock the picker (a signed analysis is read-only)."""
+        for child in self.findChildren(QWidget):
+            child.setEnabled(not read_only)
+
+    # -- handlers ------------------------------------------------------------------------------
+    def _margin_in_units(self, index_a, index_b) -> tuple[float | None, str]:
+        value = self.margin.value()
+        if value <= 0:
+            return None, "Give the margin: how far apart A and B may be and still count as the same."
+        if self.margin_unit.currentData() != "tolerance":
+            return value, ""
+        width = self._tolerance_width(index_a, index_b)
+        if width is None:
+            return None, "A share of the tolerance needs LSL and USL set for group A or B."
+        return value / 100.0 * width, ""
+
+    def _tolerance_width(self, index_a, index_b) -> float | None:
+        for index in (index_a, index_b):
+            if index is not None and index < len(self._tolerances) and self._tolerances[index]:
+                return self._tolerances[index]
+        return None
+
+    def _refresh_margin_units(self) -> None:
+        keep = self.margin_unit.currentData()
+        self.margin_unit.clear()
+        self.margin_unit.addItem("in the readings' unit", "units")
+        if any(width for width in self._tolerances):
+            self.margin_unit.addItem("in % of the tolerance width", "tolerance")
+        found = self.margin_unit.findData(keep)
+        self.margin_unit.setCurrentIndex(found if found >= 0 else 0)
+
+    def _show_rows_for_option(self) -> None:
+        question = self.option.question
+        visible = {
+            "level": True,
+            "a": question in (Question.TWO_GROUPS, Question.PAIRED),
+            "b": question in (Question.TWO_GROUPS, Question.PAIRED),
+            "reference": question is Question.SEVERAL,
+            "direction": question is Question.PAIRED,
+            "margin": self.option.wants_margin,
+            "margin_unit": self.option.wants_margin,
+            "shift": question is Question.PLAN,
+            "spread": question is Question.PLAN,
+            "power": question is Question.PLAN,
+        }
+        for key, (label, widget) in self._rows.items():
+            label.setVisible(visible[key])
+            widget.setVisible(visible[key])
+        paired = question is Question.PAIRED
+        self._rows["a"][0].setText("Before" if paired else "Group A (reference)")
+        self._rows["b"][0].setText("After" if paired else "Group B (changed)")
+
+    def _on_option_toggled(self, _id: int, checked: bool) -> None:
+        if checked:
+            self._show_rows_for_option()
+            if not self._updating:
+                self.changed.emit()
+
+    def _on_setting_changed(self, *_args) -> None:
+        if not self._updating:
+            self.changed.emit()

@@ -1,0 +1,230 @@
+"""The rank table: every reading combined and sorted, with its group, its rank and its tie block.
+
+It shows why the verdict came out as it did: which readings share a rank (a tie block spans ranks
+``first..last`` and each member gets their average), and the rank sum of each group. For the
+same-parts question it lists the differences ranked by size with their signs.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt
+from PySide6.QtGui import QBrush, QColor, QFont
+from PySide6.QtWidgets import QLabel, QTableView, QVBoxLayout, QWidget
+
+from rankwise.stats.results import PairedResult, SeveralGroupsResult, TieBlock, TwoGroupResult
+from rankwise.wording.numbers import format_count, format_reading
+
+TIE_TINT = QColor("#e8eef7")
+"""Background of alternate tie blocks; the bracket marks and the words carry the meaning too."""
+
+
+@dataclass(frozen=True)
+class RankRow:
+    """One row of the rank table, already in words."""
+
+    cells: tuple[str, ...]
+    tie_mark: str
+    tie_text: str
+    block_number: int
+    tooltip: str
+
+
+def _tie_words(block: TieBlock) -> str:
+    return (f"tied: {block.count} readings share ranks {block.first_rank}–{block.last_rank}, "
+            f"each gets the average {format_count(block.mid_rank)}")
+
+
+def _bracket(position: int, count: int) -> str:
+    if count < 2:
+        return ""
+    if position == 0:
+        return "┌"
+    return "└" if position == count - 1 else "│"
+
+
+def _tie_columns(sorted_keys: list[float], blocks: dict[float, TieBlock]) -> list[tuple[str, str, int]]:
+    """For keys sorted ascending: (bracket mark, words, block number) per row; number 0 = no tie."""
+    out: list[tuple[str, str, int]] = []
+    position = 0
+    block_number = 0
+    previous = None
+    for key in sorted_keys:
+        block = blocks.get(key)
+        if block is None:
+            out.append(("", "", 0))
+            previous = None
+            continue
+        if key != previous:
+            block_number += 1
+            position = 0
+        out.append((_bracket(position, block.count), _tie_words(block), block_number))
+        position += 1
+        previous = key
+    return out
+
+
+def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...],
+                    ranks: tuple[tuple[float, ...], ...], tie_blocks: tuple[TieBlock, ...],
+                    decimals: int | None) -> list[RankRow]:
+    """Combined sorted readings of independent groups: position, group, reading, rank, tie."""
+    entries = sorted(
+        ((rank, value, group, row) for group, (vals, rks) in enumerate(zip(values, ranks))
+         for row, (value, rank) in enumerate(zip(vals, rks))),
+        key=lambda entry: (entry[0], entry[2], entry[3]),
+    )
+    by_rank = {block.mid_rank: block for block in tie_blocks}
+    ties = _tie_columns([entry[0] for entry in entries], by_rank)
+    rows = []
+    for position, ((rank, value, group, row), (mark, words, number)) in enumerate(zip(entries, ties), start=1):
+        reading = format_reading(value, decimals)
+        rows.append(RankRow(
+            cells=(str(position), names[group], reading, format_count(rank)),
+            tie_mark=mark, tie_text=words, block_number=number,
+            tooltip=f"{names[group]}, reading {row + 1} of that group: {reading}, rank {format_count(rank)}"
+                    + (f"; {words}" if words else ""),
+        ))
+    return rows
+
+
+def rows_for_pairs(result: PairedResult, decimals: int | None) -> list[RankRow]:
+    """Differences of the same parts, ranked by size: pair, before, after, difference, signed rank."""
+    entries = sorted(
+        range(len(result.differences)),
+        key=lambda i: (abs(result.signed_ranks[i]) if result.signed_ranks[i] else 0.0, abs(result.differences[i]), i),
+    )
+    by_rank = {block.mid_rank: block for block in result.tie_blocks}
+    ties = _tie_columns([abs(result.signed_ranks[i]) for i in entries], by_rank)
+    rows = []
+    for i, (mark, words, number) in zip(entries, ties):
+        signed = result.signed_ranks[i]
+        difference = format_reading(result.differences[i], decimals)
+        rank_text = "not ranked (no difference)" if signed == 0 else (
+            ("+" if signed > 0 else "−") + format_count(abs(signed)))
+        rows.append(RankRow(
+            cells=(str(i + 1), format_reading(result.values_a[i], decimals),
+                   format_reading(result.values_b[i], decimals), difference, rank_text),
+            tie_mark=mark, tie_text=words, block_number=number,
+            tooltip=f"Pair {i + 1}: {result.name_b} minus {result.name_a} = {difference}; signed rank {rank_text}"
+                    + (f"; {words}" if words else ""),
+        ))
+    return rows
+
+
+class RankTableModel(QAbstractTableModel):
+    """Read-only table of ``RankRow`` s; the last column marks tie blocks with brackets and words."""
+
+    def __init__(self, parent=None) -> None:
+        super().__init__(parent)
+        self._headers: tuple[str, ...] = ()
+        self._rows: list[RankRow] = []
+
+    def set_rows(self, headers: tuple[str, ...], rows: list[RankRow]) -> None:
+        """Replace the table's contents."""
+        self.beginResetModel()
+        self._headers = (*headers, "Tie") if headers else ()
+        self._rows = rows
+        self.endResetModel()
+
+    def rowCount(self, parent: QModelIndex = QModelIndex()) -> int:  # noqa: B008, N802 - Qt API
+        return 0 if parent.isValid() else len(self._rows)
+
+    def columnCount(self, parent: QModelIndex = QModelIndex()) -> int:  # noqa: B008, N802 - Qt API
+        return 0 if parent.isValid() else len(self._headers)
+
+    def headerData(self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole):  # noqa: N802
+        if role == Qt.ItemDataRole.DisplayRole and orientation == Qt.Orientation.Horizontal and 0 <= section < len(self._headers):
+            return self._headers[section]
+        return None
+
+    def data(self, index: QModelIndex, role: int = Qt.ItemDataRole.DisplayRole):
+        if not index.isValid() or not 0 <= index.row() < len(self._rows):
+            return None
+        row = self._rows[index.row()]
+        last = len(self._headers) - 1
+        if role == Qt.ItemDataRole.DisplayRole:
+            if index.column() == last:
+                return f"{row.tie_mark} {row.tie_text}".strip()
+            return row.cells[index.column()]
+        if role == Qt.ItemDataRole.ToolTipRole:
+            return row.tooltip
+        if role == Qt.ItemDataRole.BackgroundRole and row.block_number % 2 == 1:
+            return QBrush(TIE_TINT)
+        if role == Qt.ItemDataRole.TextAlignmentRole and 0 < index.column() < last:
+            return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        if role == Qt.ItemDataRole.FontRole and row.block_number and index.column() == last:
+            font = QFont()
+            font.setItalic(True)
+            return font
+        return None
+
+
+class RankTable(QWidget):
+    """The rank table with the rank sums per group underneath."""
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.model = RankTableModel(self)
+        self.view = QTableView()
+        self.view.setModel(self.model)
+        self.view.setAccessibleName("Rank table: all readings combined and sorted")
+        self.view.verticalHeader().hide()
+        self.view.setAlternatingRowColors(False)
+        self.view.setSelectionBehavior(QTableView.SelectionBehavior.SelectRows)
+        self.view.horizontalHeader().setResizeContentsPrecision(200)
+        self.view.horizontalHeader().setStretchLastSection(True)
+        self.sums = QLabel()
+        self.sums.setObjectName("rankSums")
+        self.sums.setWordWrap(True)
+        self.sums.setAccessibleName("Rank sums per group")
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(0, 0, 0, 0)
+        layout.addWidget(self.view, 1)
+        layout.addWidget(self.sums)
+        self.clear()
+
+    def clear(self, message: str = "The ranks appear here once there is a verdict.") -> None:
+        """Empty the table and say why."""
+        self.model.set_rows((), [])
+        self.sums.setText(message)
+
+    def show_result(self, result, analysis) -> None:
+        """Fill the table from a result of the statistics service."""
+        decimals = _decimals(analysis)
+        if isinstance(result, TwoGroupResult):
+            names = (result.name_a, result.name_b)
+            rows = rows_for_groups(names, (result.values_a, result.values_b), (result.ranks_a, result.ranks_b),
+                                   result.tie_blocks, decimals)
+            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows)
+            self.sums.setText(
+                f"Rank sums: {result.name_a} {format_count(result.rank_sum_a)} (n = {result.n_a}), "
+                f"{result.name_b} {format_count(result.rank_sum_b)} (n = {result.n_b}). "
+                f"All ranks together add up to N(N + 1)/2 = {format_count((result.n_a + result.n_b) * (result.n_a + result.n_b + 1) / 2)}."
+            )
+        elif isinstance(result, SeveralGroupsResult):
+            names = tuple(summary.name for summary in result.summaries)
+            rows = rows_for_groups(names, result.values, result.ranks, result.tie_blocks, decimals)
+            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows)
+            parts = ", ".join(
+                f"{name} {format_count(total)} (n = {summary.n}, mean rank {mean:.2f})"
+                for name, total, mean, summary in zip(names, result.rank_sums, result.mean_ranks, result.summaries)
+            )
+            self.sums.setText(f"Rank sums: {parts}.")
+        elif isinstance(result, PairedResult):
+            rows = rows_for_pairs(result, decimals)
+            self.model.set_rows(("Pair", result.name_a, result.name_b, "Difference", "Signed rank"), rows)
+            self.sums.setText(
+                f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus)}, "
+                f"of the negative ones (W−) {format_count(result.w_minus)}; "
+                f"{result.n_zero} pair(s) with no difference ({result.zero_method} convention)."
+            )
+        else:
+            self.clear("The planning question uses no readings, so there is nothing to rank.")
+            return
+        self.view.resizeColumnsToContents()
+
+
+def _decimals(analysis) -> int | None:
+    known = [group.decimals for group in getattr(analysis, "groups", ()) if group.decimals is not None]
+    return max(known) if known else None

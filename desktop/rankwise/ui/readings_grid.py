@@ -1,0 +1,215 @@
+"""The readings grid: a spreadsheet-like table for typing readings straight from a gauge sheet.
+
+Enter moves down (typing a column of readings), Tab moves right; typing starts editing; Delete
+clears; paste takes a block copied from any spreadsheet (tab-separated lines); copy gives one back.
+Every edit goes through the sheet model, so each is one undoable step.
+"""
+
+from __future__ import annotations
+
+from PySide6.QtCore import QItemSelection, QItemSelectionModel, Qt, Signal
+from PySide6.QtGui import QGuiApplication, QKeyEvent, QKeySequence
+from PySide6.QtWidgets import QAbstractItemDelegate, QAbstractItemView, QHeaderView, QTableView, QWidget
+
+from rankwise.ui.sheet_model import SheetModel
+
+
+def block_from_text(text: str) -> list[list[str]]:
+    """Rows of cell texts from spreadsheet clipboard text (tab between cells, a line per row).
+
+    A trailing line break (spreadsheets add one) does not make an extra row; Windows line ends
+    and a lone carriage return are accepted.
+    """
+    lines = text.replace("\r\n", "\n").replace("\r", "\n").split("\n")
+    if lines and lines[-1] == "":
+        lines.pop()
+    return [line.split("\t") for line in lines]
+
+
+def text_from_block(block: list[list[str]]) -> str:
+    """Clipboard text for a block of cell texts, as spreadsheets expect it."""
+    return "".join("\t".join(row) + "\n" for row in block)
+
+
+class ReadingsGrid(QTableView):
+    """The table view of the readings.
+
+    Signals:
+        problem(str): an edit was refused, in plain words (e.g. the sheet is signed).
+        header_double_clicked(int): the user wants to edit that group's details.
+    """
+
+    problem = Signal(str)
+    header_double_clicked = Signal(int)
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.setObjectName("readingsGrid")
+        self.setAccessibleName("Readings sheet")
+        self.setAccessibleDescription("One column per group. Enter moves down, Tab moves right.")
+        self.setEditTriggers(
+            QAbstractItemView.EditTrigger.AnyKeyPressed
+            | QAbstractItemView.EditTrigger.DoubleClicked
+            | QAbstractItemView.EditTrigger.EditKeyPressed
+        )
+        self.setSelectionMode(QAbstractItemView.SelectionMode.ContiguousSelection)
+        self.setTabKeyNavigation(True)
+        header = self.horizontalHeader()
+        header.setSectionResizeMode(QHeaderView.ResizeMode.Interactive)
+        header.setDefaultSectionSize(130)
+        header.setMinimumSectionSize(90)
+        header.sectionDoubleClicked.connect(self._on_header_double_clicked)
+        self.verticalHeader().setDefaultSectionSize(30)
+        self._restore_to: tuple[int, int] | None = None
+
+    # -- model -----------------------------------------------------------------------------------
+    def setModel(self, model: SheetModel) -> None:  # noqa: N802 - Qt API
+        """Show ``model``; the current cell survives model resets (group edits, undo)."""
+        super().setModel(model)
+        model.modelAboutToBeReset.connect(self._remember_current)
+        model.modelReset.connect(self._restore_current)
+        self.setCurrentIndex(model.index(0, 0))
+
+    def sheet_model(self) -> SheetModel:
+        """The sheet model shown."""
+        return self.model()
+
+    def _remember_current(self) -> None:
+        current = self.currentIndex()
+        self._restore_to = (current.row(), current.column()) if current.isValid() else None
+
+    def _restore_current(self) -> None:
+        model = self.model()
+        if self._restore_to is None or model.rowCount() == 0:
+            return
+        row = min(self._restore_to[0], model.rowCount() - 1)
+        column = min(self._restore_to[1], model.columnCount() - 1)
+        self.setCurrentIndex(model.index(row, column))
+
+    def _on_header_double_clicked(self, section: int) -> None:
+        if section < len(self.sheet_model().sheet.groups):
+            self.header_double_clicked.emit(section)
+
+    # -- moving ----------------------------------------------------------------------------------
+    def move_to(self, row: int, column: int) -> None:
+        """Make (row, column) the current cell, within the grid."""
+        model = self.model()
+        row = max(0, min(row, model.rowCount() - 1))
+        column = max(0, min(column, model.columnCount() - 1))
+        index = model.index(row, column)
+        self.setCurrentIndex(index)
+        self.scrollTo(index)
+
+    def closeEditor(self, editor: QWidget, hint: QAbstractItemDelegate.EndEditHint) -> None:  # noqa: N802
+        """Enter while typing commits the reading and moves down, like a gauge sheet."""
+        if hint == QAbstractItemDelegate.EndEditHint.SubmitModelCache:
+            super().closeEditor(editor, QAbstractItemDelegate.EndEditHint.NoHint)
+            current = self.currentIndex()
+            self.move_to(current.row() + 1, current.column())
+        else:
+            super().closeEditor(editor, hint)
+
+    def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: N802 - Qt API
+        """Enter moves down, Delete/Backspace clears, copy/cut/paste work on blocks."""
+        if self.state() != QAbstractItemView.State.EditingState:
+            if event.key() in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
+                step = -1 if event.modifiers() & Qt.KeyboardModifier.ShiftModifier else 1
+                current = self.currentIndex()
+                self.move_to(current.row() + step, current.column())
+                return
+            if event.key() in (Qt.Key.Key_Delete, Qt.Key.Key_Backspace):
+                self.clear_selected_cells()
+                return
+            if event.matches(QKeySequence.StandardKey.Copy):
+                self.copy_selection()
+                return
+            if event.matches(QKeySequence.StandardKey.Cut):
+                self.cut_selection()
+                return
+            if event.matches(QKeySequence.StandardKey.Paste):
+                self.paste_from_clipboard()
+                return
+        super().keyPressEvent(event)
+
+    # -- block edits -----------------------------------------------------------------------------
+    def _selected_cells(self) -> list[tuple[int, int]]:
+        """Selected (group, row) pairs within existing groups; the current cell when nothing is selected."""
+        groups = len(self.sheet_model().sheet.groups)
+        indexes = self.selectionModel().selectedIndexes() if self.selectionModel() else []
+        if not indexes and self.currentIndex().isValid():
+            indexes = [self.currentIndex()]
+        return sorted({(i.column(), i.row()) for i in indexes if i.column() < groups})
+
+    def _refuse_if_read_only(self) -> bool:
+        if self.sheet_model().read_only:
+            self.problem.emit("This analysis is signed and read-only. Start a new revision to change it.")
+            return True
+        return False
+
+    def clear_selected_cells(self) -> None:
+        """Empty the selected cells (one undoable step)."""
+        if self._refuse_if_read_only():
+            return
+        cells = self._selected_cells()
+        if cells:
+            self.sheet_model().sheet.clear(cells)
+
+    def selected_block(self) -> list[list[str]]:
+        """The texts of the selected rectangle, rows of cells, exactly as typed."""
+        cells = self._selected_cells()
+        if not cells:
+            return []
+        sheet = self.sheet_model().sheet
+        groups = sorted({g for g, _ in cells})
+        rows = sorted({r for _, r in cells})
+        return [[sheet.cell(g, r).text for g in range(groups[0], groups[-1] + 1)] for r in range(rows[0], rows[-1] + 1)]
+
+    def copy_selection(self) -> None:
+        """Copy the selected cells as tab-separated text (pastes into any spreadsheet)."""
+        block = self.selected_block()
+        if block:
+            QGuiApplication.clipboard().setText(text_from_block(block))
+
+    def cut_selection(self) -> None:
+        """Copy, then clear the selected cells."""
+        if self._refuse_if_read_only():
+            return
+        self.copy_selection()
+        self.clear_selected_cells()
+
+    def paste_from_clipboard(self) -> None:
+        """Paste the clipboard's text block with its top-left at the current cell."""
+        self.paste_text(QGuiApplication.clipboard().text())
+
+    def paste_text(self, text: str) -> None:
+        """Paste a block of text (tab-separated cells, a line per row) at the current cell."""
+        if self._refuse_if_read_only():
+            return
+        block = block_from_text(text)
+        if not block:
+            return
+        current = self.currentIndex()
+        row = max(0, current.row())
+        sheet = self.sheet_model().sheet
+        group = min(max(0, current.column()), len(sheet.groups))
+        sheet.paste_block(group, row, block)
+        height, width = len(block), max(len(line) for line in block)
+        model = self.model()
+        top_left = model.index(row, group)
+        bottom_right = model.index(min(row + height, model.rowCount()) - 1, min(group + width, model.columnCount()) - 1)
+        self.setCurrentIndex(top_left)
+        self.selectionModel().select(QItemSelection(top_left, bottom_right), QItemSelectionModel.SelectionFlag.ClearAndSelect)
+
+    def insert_rows_above(self) -> None:
+        """Insert as many empty rows as are selected, above the selection."""
+        if self._refuse_if_read_only():
+            return
+        rows = sorted({r for _, r in self._selected_cells()}) or [max(0, self.currentIndex().row())]
+        self.sheet_model().sheet.insert_rows(rows[0], rows[-1] - rows[0] + 1)
+
+    def delete_selected_rows(self) -> None:
+        """Delete the selected rows in every group (the rows below move up)."""
+        if self._refuse_if_read_only():
+            return
+        rows = sorted({r for _, r in self._selected_cells()}) or [max(0, self.currentIndex().row())]
+        self.sheet_model().sheet.delete_rows(rows[0], rows[-1] - rows[0] + 1)

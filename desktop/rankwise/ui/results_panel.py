@@ -1,0 +1,202 @@
+"""The verdict as the technician reads it: headline, sentences, key numbers, notes, the cautions note.
+
+The panel only displays: the window hands it a worded verdict (``rankwise.wording.describe``) and the
+key numbers (``rankwise.wording.key_numbers``). The cautions note sits outside the scrolling part,
+so it is visible whatever else is on screen.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from PySide6.QtCore import Qt, Signal
+from PySide6.QtWidgets import (
+    QFrame,
+    QGridLayout,
+    QHBoxLayout,
+    QLabel,
+    QProgressBar,
+    QPushButton,
+    QScrollArea,
+    QSizePolicy,
+    QVBoxLayout,
+    QWidget,
+)
+
+from rankwise.wording import CAUTION_SHORT
+
+KEY_NUMBER_COLUMNS = 2
+"""Key numbers are laid out in this many label/value pairs per row."""
+
+
+def _wrapping_label(object_name: str, accessible: str) -> QLabel:
+    label = QLabel()
+    label.setObjectName(object_name)
+    label.setWordWrap(True)
+    label.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse | Qt.TextInteractionFlag.TextSelectableByKeyboard)
+    label.setAccessibleName(accessible)
+    label.setSizePolicy(QSizePolicy.Policy.Preferred, QSizePolicy.Policy.Minimum)
+    label.setTextFormat(Qt.TextFormat.PlainText)
+    return label
+
+
+class ResultsPanel(QWidget):
+    """Shows one verdict at a time, or why there is none yet, with the cautions note always visible.
+
+    Signals:
+        stop_requested(): the user pressed the button that stops a long computation.
+    """
+
+    stop_requested = Signal()
+
+    def __init__(self, parent: QWidget | None = None) -> None:
+        super().__init__(parent)
+        self.setObjectName("resultsPanel")
+        self.headline = _wrapping_label("verdictHeadline", "Verdict")
+        self.sentences = _wrapping_label("verdictSentences", "Verdict in detail")
+        self.method_note = _wrapping_label("methodNote", "How it was found")
+        self.notes = _wrapping_label("assumptionNotes", "Notes on the readings and assumptions")
+        self.method_note.setTextFormat(Qt.TextFormat.RichText)
+        self.notes.setTextFormat(Qt.TextFormat.RichText)
+        self.numbers_title = QLabel("Key numbers (hover over a number to see what it means)")
+        self.numbers_title.setObjectName("sectionTitle")
+        self._numbers_box = QWidget()
+        self._numbers_grid = QGridLayout(self._numbers_box)
+        self._numbers_grid.setHorizontalSpacing(18)
+        self._numbers_grid.setVerticalSpacing(4)
+        self._number_labels: dict[str, QLabel] = {}
+
+        body = QWidget()
+        body.setObjectName("resultsBody")
+        body_layout = QVBoxLayout(body)
+        for widget in (self.headline, self.sentences, self.numbers_title, self._numbers_box, self.method_note, self.notes):
+            body_layout.addWidget(widget)
+        body_layout.addStretch(1)
+        scroll = QScrollArea()
+        scroll.setWidgetResizable(True)
+        scroll.setFrameShape(QFrame.Shape.NoFrame)
+        scroll.setWidget(body)
+
+        self.progress = QProgressBar()
+        self.progress.setRange(0, 1000)
+        self.progress.setAccessibleName("Progress of the calculation")
+        self.progress.setFormat("Working out the exact p-value… %p %")
+        self.stop_button = QPushButton("Stop the calculation")
+        self.stop_button.setAccessibleName("Stop the calculation")
+        self.stop_button.setToolTip("Stop this long calculation; the readings stay as they are (Esc).")
+        self.stop_button.clicked.connect(self.stop_requested)
+        self.busy_strip = QWidget()
+        self.busy_strip.setObjectName("busyStrip")
+        busy_layout = QHBoxLayout(self.busy_strip)
+        busy_layout.setContentsMargins(0, 0, 0, 0)
+        busy_layout.addWidget(self.progress, 1)
+        busy_layout.addWidget(self.stop_button)
+        self.busy_strip.hide()
+
+        self.caution = QLabel(f"<b>Please note.</b> {CAUTION_SHORT}")
+        self.caution.setObjectName("cautionNote")
+        self.caution.setWordWrap(True)
+        self.caution.setAccessibleName("Cautions note")
+        self.caution.setTextFormat(Qt.TextFormat.RichText)
+
+        layout = QVBoxLayout(self)
+        layout.setContentsMargins(0, 0, 0, 0)
+        layout.addWidget(scroll, 1)
+        layout.addWidget(self.busy_strip)
+        layout.addWidget(self.caution)
+        self.show_waiting("Type or paste readings into the sheet, or open a file, to see a verdict here.")
+
+    # -- states ----------------------------------------------------------------------------------
+    def show_waiting(self, message: str) -> None:
+        """No verdict yet: say what to do next."""
+        self._set_headline("No verdict yet", "waiting")
+        self.sentences.setText(message)
+        self._clear_details()
+
+    def show_problem(self, message: str) -> None:
+        """The entry cannot be analysed as it stands: say why in plain words."""
+        self._set_headline("No verdict: the readings need attention", "problem")
+        self.sentences.setText(message)
+        self._clear_details()
+
+    def show_stopped(self) -> None:
+        """The long calculation was stopped on request."""
+        self.show_busy(False)
+        self._set_headline("Calculation stopped", "waiting")
+        self.sentences.setText(
+            "The calculation was stopped. Change a reading or the question to start it again, "
+            "or choose the normal approximation for very large groups."
+        )
+        self._clear_details()
+
+    def show_busy(self, busy: bool, fraction: float = 0.0) -> None:
+        """Show or hide the progress strip with its stop button."""
+        self.busy_strip.setVisible(busy)
+        self.progress.setValue(int(round(fraction * 1000)))
+
+    def show_verdict(self, verdict, numbers: Sequence) -> None:
+        """Show a worded verdict and its key numbers (each with its plain-words tooltip)."""
+        self.show_busy(False)
+        self._set_headline(verdict.headline, "verdict")
+        self.sentences.setText(" ".join(verdict.sentences))
+        self.method_note.setText(f"<b>How it was found:</b> {_escape(verdict.method_note)}" if verdict.method_note else "")
+        self.method_note.setVisible(bool(verdict.method_note))
+        if verdict.assumption_notes:
+            items = "".join(f"<li>{_escape(note)}</li>" for note in verdict.assumption_notes)
+            self.notes.setText(f"<b>Notes:</b><ul style='margin-left:12px; -qt-list-indent:1'>{items}</ul>")
+        else:
+            self.notes.setText("")
+        self.notes.setVisible(bool(verdict.assumption_notes))
+        self._fill_numbers(numbers)
+
+    # -- read by tests and by the window -----------------------------------------------------------
+    def number_text(self, key: str) -> str | None:
+        """The shown text of key number ``key``, or None when it is not shown."""
+        label = self._number_labels.get(key)
+        return None if label is None else label.text()
+
+    def number_tooltip(self, key: str) -> str | None:
+        """The tooltip of key number ``key``, or None when it is not shown."""
+        label = self._number_labels.get(key)
+        return None if label is None else label.toolTip()
+
+    # -- helpers ---------------------------------------------------------------------------------
+    def _set_headline(self, text: str, state: str) -> None:
+        self.headline.setText(text)
+        self.headline.setProperty("state", state)
+        self.headline.style().unpolish(self.headline)
+        self.headline.style().polish(self.headline)
+
+    def _clear_details(self) -> None:
+        self.method_note.clear()
+        self.method_note.hide()
+        self.notes.clear()
+        self.notes.hide()
+        self._fill_numbers(())
+
+    def _fill_numbers(self, numbers: Sequence) -> None:
+        while self._numbers_grid.count():
+            item = self._numbers_grid.takeAt(0)
+            if item.widget() is not None:
+                item.widget().deleteLater()
+        self._number_labels = {}
+        for position, number in enumerate(numbers):
+            row, pair = divmod(position, KEY_NUMBER_COLUMNS)
+            name = QLabel(number.label)
+            name.setObjectName("numberLabel")
+            value = QLabel(number.text)
+            value.setObjectName("numberValue")
+            value.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+            for label in (name, value):
+                label.setToolTip(number.tooltip)
+            value.setAccessibleName(number.label)
+            value.setAccessibleDescription(number.tooltip)
+            self._numbers_grid.addWidget(name, row, pair * 2, Qt.AlignmentFlag.AlignLeft)
+            self._numbers_grid.addWidget(value, row, pair * 2 + 1, Qt.AlignmentFlag.AlignLeft)
+            self._number_labels[number.key] = value
+        self.numbers_title.setVisible(bool(numbers))
+        self._numbers_box.setVisible(bool(numbers))
+
+
+def _escape(text: str) -> str:
+    return text.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")
