@@ -1,0 +1,336 @@
+"""How many parts to measure: Noether's (1987) sample sizes for the rank tests, checked by simulation.
+
+Noether (1987), "Sample size determination for some common nonparametric tests", JASA 82,
+645-647. For the rank-sum test with a share c = n_a / N of the parts in A and p = P(B > A):
+
+    N = (z_(1-alpha/2) + z_(power))^2 / (12 c (1 - c) (p - 1/2)^2)
+
+(z_(1-alpha) when one-sided). For the signed-rank test on n pairs, with p' = P(d1 + d2 > 0) for
+two independent differences:
+
+    n = (z_(1-alpha/2) + z_(power))^2 / (3 (p' - 1/2)^2)
+
+Both compare the statistic's mean under the shift with its spread when nothing changed. Under a
+normal shift model with spread sigma, p = Phi(shift / (sigma sqrt 2)) and p' = Phi(shift sqrt 2 /
+sigma_d), where sigma_d is the spread of the differences.
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+from scipy import stats as _dist
+
+from rankwise.stats.critical import critical_u
+from rankwise.stats.inputs import check_choice, check_level
+from rankwise.stats.paired import critical_t
+from rankwise.stats.results import PlanResult, PowerPoint
+
+_CURVE_POINTS = 40
+_SIMULATION_CELLS = 2_000_000
+"""Readings simulated at once (rows x parts) in ``simulate_power``: bounds the memory used."""
+
+ALTERNATIVES = ("two-sided", "b-greater", "b-less")
+
+
+def plan_group_size(
+    shift: float | None = None,
+    spread: float | None = None,
+    *,
+    prob_b_greater: float | None = None,
+    alpha: float = 0.05,
+    power: float = 0.8,
+    ratio: float = 1.0,
+    alternative: str = "two-sided",
+    n_sim: int = 0,
+    seed: int = 20_261_201,
+) -> PlanResult:
+    """Parts per group for the rank-sum test to detect ``shift`` with chance ``power`` (Noether 1987).
+
+    Give the shift worth detecting and the readings' spread (standard deviation, same unit), or
+    ``prob_b_greater`` = P(B > A) directly. ``ratio`` = n_b / n_a. ``alternative`` as for
+    ``compare_two``; a one-sided plan needs the shift in its direction. With ``n_sim`` > 0 the
+    plan is checked by simulating the exact test (``simulate_power``) at the planned sizes.
+    """
+    check_choice("alternative", alternative, ALTERNATIVES)
+    check_level("alpha", alpha)
+    check_level("power", power)
+    if not float(ratio) > 0.0 or not math.isfinite(ratio):
+        raise ValueError(f"ratio (parts in B per part in A) must be a positive number; got {ratio!r}.")
+    p, standardized = _effect("prob_b_greater", shift, spread, prob_b_greater, alternative, math.sqrt(0.5))
+    share_a = 1.0 / (1.0 + ratio)
+    z_sum = _z_level(alpha, alternative) + _dist.norm.ppf(power)
+    total = z_sum**2 / (12.0 * share_a * (1.0 - share_a) * (p - 0.5) ** 2)
+    n_a = _ceil(share_a * total)
+    n_b = _ceil((1.0 - share_a) * total)
+    warnings = []
+    if critical_u(n_a, n_b, alpha, alternative) is None:
+        while critical_u(n_a, n_b, alpha, alternative) is None:
+            n_a += 1
+            n_b = max(n_b, _ceil(ratio * n_a))
+        warnings.append(
+            f"The formula asks for fewer parts than any significant result needs at the {alpha:g} "
+            f"level; raised to {n_a} and {n_b}, the fewest for which significance is possible."
+        )
+    if min(n_a, n_b) < 10:
+        warnings.append("Noether's formula is a large-sample approximation; with so few parts, check the plan by simulation.")
+    curve = tuple(
+        PowerPoint(n_a=m, n_b=_ceil(ratio * m), power=_rank_sum_power(m, _ceil(ratio * m), p, alpha, alternative))
+        for m in _curve_sizes(n_a)
+    )
+    simulated = None
+    if n_sim:
+        simulated = simulate_power(n_a, n_b, standardized, 1.0, alpha=alpha, alternative=alternative, n_sim=n_sim, seed=seed)
+    return PlanResult(
+        paired=False,
+        n_a=n_a,
+        n_b=n_b,
+        alpha=float(alpha),
+        power=float(power),
+        ratio=float(ratio),
+        alternative=alternative,
+        shift=None if shift is None else float(shift),
+        spread=None if spread is None else float(spread),
+        prob_b_greater=float(p),
+        method="Noether (1987), Wilcoxon rank-sum test",
+        assumptions=_assumptions(shift is not None, paired=False, alternative=alternative, alpha=alpha),
+        simulated_power=simulated,
+        power_curve=curve,
+        warnings=tuple(warnings),
+    )
+
+
+def plan_paired_size(
+    shift: float | None = None,
+    spread: float | None = None,
+    *,
+    prob_sum_positive: float | None = None,
+    alpha: float = 0.05,
+    power: float = 0.8,
+    alternative: str = "two-sided",
+    n_sim: int = 0,
+    seed: int = 20_261_201,
+) -> PlanResult:
+    """Parts to measure twice for the signed-rank test (Noether 1987, signed-rank form).
+
+    ``shift``: the mean difference (after - before) worth detecting; ``spread``: the standard
+    deviation of the differences (not of single readings). Or ``prob_sum_positive`` =
+    P(d1 + d2 > 0) for two parts' differences. ``n_a`` = ``n_b`` = parts. With ``n_sim`` > 0 the
+    plan is checked by simulating the exact signed-rank test (``simulate_paired_power``).
+    """
+    check_choice("alternative", alternative, ALTERNATIVES)
+    check_level("alpha", alpha)
+    check_level("power", power)
+    p, standardized = _effect("prob_sum_positive", shift, spread, prob_sum_positive, alternative, math.sqrt(2.0))
+    z_sum = _z_level(alpha, alternative) + _dist.norm.ppf(power)
+    n = _ceil(z_sum**2 / (3.0 * (p - 0.5) ** 2))
+    warnings = []
+    if critical_t(n, alpha, alternative) is None:
+        while critical_t(n, alpha, alternative) is None:
+            n += 1
+        warnings.append(
+            f"The formula asks for fewer parts than any significant result needs at the {alpha:g} "
+            f"level; raised to {n}, the fewest for which significance is possible."
+        )
+    if n < 10:
+        warnings.append("Noether's formula is a large-sample approximation; with so few parts, check the plan by simulation.")
+    curve = tuple(PowerPoint(n_a=m, n_b=m, power=_signed_rank_power(m, p, alpha, alternative)) for m in _curve_sizes(n))
+    simulated = None
+    if n_sim:
+        simulated = simulate_paired_power(n, standardized, 1.0, alpha=alpha, alternative=alternative, n_sim=n_sim, seed=seed)
+    return PlanResult(
+        paired=True,
+        n_a=n,
+        n_b=n,
+        alpha=float(alpha),
+        power=float(power),
+        ratio=1.0,
+        alternative=alternative,
+        shift=None if shift is None else float(shift),
+        spread=None if spread is None else float(spread),
+        prob_b_greater=float(p),
+        method="Noether (1987), Wilcoxon signed-rank test",
+        assumptions=_assumptions(shift is not None, paired=True, alternative=alternative, alpha=alpha),
+        simulated_power=simulated,
+        power_curve=curve,
+        warnings=tuple(warnings),
+    )
+
+
+def simulate_power(
+    n_a: int,
+    n_b: int,
+    shift: float,
+    spread: float,
+    *,
+    alpha: float = 0.05,
+    alternative: str = "two-sided",
+    n_sim: int = 2000,
+    seed: int = 20_261_201,
+    exact: bool = True,
+) -> float:
+    """Share of simulated studies in which the rank-sum test finds the shift (normal readings).
+
+    A ~ Normal(0, spread), B ~ Normal(shift, spread), no ties. Each study's U is computed from
+    ranks, vectorised over studies. ``exact``: reject when the smaller U (or the U of the
+    tested direction) is at most the exact critical U (``rankwise.stats.critical.critical_u``);
+    otherwise by the normal approximation with continuity correction.
+    """
+    n_a, n_b, n_sim = _positive_int("n_a", n_a), _positive_int("n_b", n_b), _positive_int("n_sim", n_sim)
+    check_choice("alternative", alternative, ALTERNATIVES)
+    check_level("alpha", alpha)
+    if not float(spread) > 0.0:
+        raise ValueError(f"spread must be a positive standard deviation; got {spread!r}.")
+    rng = np.random.default_rng(seed)
+    critical = critical_u(n_a, n_b, alpha, alternative) if exact else None
+    detected = 0
+    rows = max(1, _SIMULATION_CELLS // (n_a + n_b))
+    for start in range(0, n_sim, rows):
+        count = min(rows, n_sim - start)
+        readings = rng.normal(0.0, spread, (count, n_a + n_b))
+        readings[:, n_a:] += shift
+        ranks = np.argsort(np.argsort(readings, axis=1), axis=1) + 1.0
+        u_b = ranks[:, n_a:].sum(axis=1) - n_b * (n_b + 1) / 2.0  # pairs where B reads higher
+        u_a = n_a * n_b - u_b
+        if exact:
+            if critical is None:
+                continue
+            tested = {"two-sided": np.minimum(u_a, u_b), "b-greater": u_a, "b-less": u_b}[alternative]
+            detected += int(np.sum(tested <= critical))
+        else:
+            detected += int(np.sum(_normal_rejects(u_b, n_a, n_b, alpha, alternative)))
+    return detected / n_sim
+
+
+def simulate_paired_power(
+    n: int,
+    shift: float,
+    spread: float,
+    *,
+    alpha: float = 0.05,
+    alternative: str = "two-sided",
+    n_sim: int = 2000,
+    seed: int = 20_261_201,
+) -> float:
+    """Share of simulated studies in which the exact signed-rank test finds the shift.
+
+    Differences d ~ Normal(shift, spread), no ties and no zeros; reject when the smaller rank
+    sum (or the one against the tested direction) is at most ``critical_t``.
+    """
+    n, n_sim = _positive_int("n", n), _positive_int("n_sim", n_sim)
+    check_choice("alternative", alternative, ALTERNATIVES)
+    check_level("alpha", alpha)
+    if not float(spread) > 0.0:
+        raise ValueError(f"spread must be a positive standard deviation; got {spread!r}.")
+    critical = critical_t(n, alpha, alternative)
+    if critical is None:
+        return 0.0
+    rng = np.random.default_rng(seed)
+    detected = 0
+    rows = max(1, _SIMULATION_CELLS // n)
+    for start in range(0, n_sim, rows):
+        count = min(rows, n_sim - start)
+        d = rng.normal(shift, spread, (count, n))
+        ranks = np.argsort(np.argsort(np.abs(d), axis=1), axis=1) + 1.0
+        w_plus = np.where(d > 0, ranks, 0.0).sum(axis=1)
+        w_minus = n * (n + 1) / 2.0 - w_plus
+        tested = {"two-sided": np.minimum(w_plus, w_minus), "b-greater": w_minus, "b-less": w_plus}[alternative]
+        detected += int(np.sum(tested <= critical))
+    return detected / n_sim
+
+
+def _effect(name, shift, spread, probability, alternative, scale) -> tuple[float, float]:
+    """The probability the plan detects, and the shift in units of the spread.
+
+    ``scale`` turns shift / spread into the argument of Phi: 1/sqrt(2) for two groups, sqrt(2)
+    for pairs.
+    """
+    if probability is not None:
+        if shift is not None or spread is not None:
+            raise ValueError(f"Give either shift and spread, or {name}, not both.")
+        if not 0.0 < float(probability) < 1.0 or probability == 0.5:
+            raise ValueError(f"{name} must lie strictly between 0 and 1 and differ from 0.5; got {probability!r}.")
+        p = float(probability)
+        standardized = float(_dist.norm.ppf(p) / scale)
+    else:
+        if shift is None or spread is None:
+            raise ValueError(f"Give the shift worth detecting and the spread, or {name}.")
+        if not float(spread) > 0.0 or not math.isfinite(spread):
+            raise ValueError(f"spread must be a positive standard deviation; got {spread!r}.")
+        if not float(shift) != 0.0 or not math.isfinite(shift):
+            raise ValueError(f"shift must be a non-zero number (the change worth detecting); got {shift!r}.")
+        standardized = float(shift) / float(spread)
+        p = float(_dist.norm.cdf(standardized * scale))
+    if (alternative == "b-greater" and p < 0.5) or (alternative == "b-less" and p > 0.5):
+        raise ValueError(
+            f"shift must point the way of alternative={alternative!r}: a one-sided plan detects a change in that direction only."
+        )
+    return p, standardized
+
+
+def _z_level(alpha: float, alternative: str) -> float:
+    return float(_dist.norm.isf(alpha / 2.0 if alternative == "two-sided" else alpha))
+
+
+def _rank_sum_power(n_a: int, n_b: int, p: float, alpha: float, alternative: str) -> float:
+    """Noether's formula solved for power at given sizes."""
+    total = n_a + n_b
+    share = n_a / total
+    return float(_dist.norm.cdf(math.sqrt(12.0 * share * (1.0 - share) * total) * abs(p - 0.5) - _z_level(alpha, alternative)))
+
+
+def _signed_rank_power(n: int, p: float, alpha: float, alternative: str) -> float:
+    return float(_dist.norm.cdf(math.sqrt(3.0 * n) * abs(p - 0.5) - _z_level(alpha, alternative)))
+
+
+def _normal_rejects(u_b, n_a, n_b, alpha, alternative) -> np.ndarray:
+    """Normal approximation with continuity correction, no ties (B higher gives large U_b)."""
+    mean = n_a * n_b / 2.0
+    sd = math.sqrt(n_a * n_b * (n_a + n_b + 1) / 12.0)
+    if alternative == "b-greater":
+        return (u_b - mean - 0.5) / sd >= _dist.norm.isf(alpha)
+    if alternative == "b-less":
+        return (u_b - mean + 0.5) / sd <= -_dist.norm.isf(alpha)
+    return (np.abs(u_b - mean) - 0.5) / sd >= _dist.norm.isf(alpha / 2.0)
+
+
+def _curve_sizes(planned: int) -> list[int]:
+    """Group sizes for the power chart: from 2 to twice the plan, at most 40 points."""
+    top = max(2 * planned, 10)
+    return sorted({int(round(v)) for v in np.linspace(2, top, _CURVE_POINTS)})
+
+
+def _ceil(value: float) -> int:
+    """Round up, ignoring floating-point dust just above a whole number."""
+    return max(1, math.ceil(value - 1e-9))
+
+
+def _positive_int(name: str, value) -> int:
+    if int(value) != value or value < 1:
+        raise ValueError(f"{name} must be a whole number of at least 1; got {value!r}.")
+    return int(value)
+
+
+def _assumptions(from_shift: bool, *, paired: bool, alternative: str, alpha: float) -> tuple[str, ...]:
+    """What the plan rests on, in plain words."""
+    direction = {"two-sided": "a change either way", "b-greater": "a rise only", "b-less": "a fall only"}[alternative]
+    notes = [
+        f"The test will be the {'signed-rank test on the same parts' if paired else 'rank-sum test on two separate groups'} "
+        f"at the {alpha:g} significance level, looking for {direction}.",
+        "Every part is measured independently of the others.",
+        "Noether's formula is a large-sample approximation; the simulation shows how close it comes.",
+        "A coarse gauge that makes many readings equal loses some power: plan a few parts more.",
+    ]
+    if from_shift:
+        if paired:
+            notes.append(
+                "The spread is the standard deviation of the differences (after minus before), and the "
+                "differences are roughly bell-shaped; this only turns the shift into a probability."
+            )
+        else:
+            notes.append(
+                "Both groups have the same bell-like shape and the same spread (standard deviation); the "
+                "change only moves the readings. This only turns the shift into a probability."
+            )
+    return tuple(notes)
