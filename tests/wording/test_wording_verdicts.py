@@ -1,5 +1,6 @@
 """Verdict wording of results built by the real statistics functions, on published data."""
 
+import dataclasses
 import re
 
 from hypothesis import given, settings
@@ -131,3 +132,19 @@ def test_paired_verdict_never_claims_sameness_and_always_carries_the_caution(pai
     assert not CLAIMS_SAMENESS.search(spoken)
     if not result.significant and result.critical_t is not None:
         assert "does not show" in " ".join(verdict.sentences)
+
+
+def test_plan_wording_states_the_parts_per_group():
+    """Noether (1987), JASA 82: alpha 0.05 two-sided, power 0.90, P(B > A) = 0.7, equal groups -> 44 per group."""
+    from rankwise.stats.planning import plan_group_size
+
+    result = plan_group_size(prob_b_greater=0.7, alpha=0.05, power=0.9)
+    groups = (GroupReadings("Wheel A", (), unit="µm"), GroupReadings("Wheel B", (), unit="µm"))
+    analysis = Analysis(Question.PLAN, groups, Settings(planned_prob_b_greater=0.7, power=0.9))
+    verdict = describe(result, analysis)
+    assert verdict.headline == "Measure at least 44 parts of Wheel A and 44 parts of Wheel B."
+    assert verdict.sentences[0].startswith("This gives a 90 % chance of a significant result at the 5 % level")
+    assert "Noether (1987)" in verdict.method_note
+    assert {n.key: n.text for n in key_numbers(result, analysis)}["n_a"] == "44"
+    lower_power = dataclasses.replace(analysis, settings=dataclasses.replace(analysis.settings, power=0.8))
+    assert describe_question(lower_power).endswith("with an 80 % chance at the 5 % significance level?")

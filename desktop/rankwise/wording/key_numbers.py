@@ -16,12 +16,13 @@ from rankwise.stats.results import (
 )
 from rankwise.wording.numbers import (
     MISSING,
+    format_centre,
     format_count,
     format_level,
     format_p,
     format_percent,
     format_plain,
-    format_reading,
+    format_setting,
 )
 from rankwise.wording.planning import plan_names
 from rankwise.wording.phrases import EXACT_METHOD, NORMAL_METHOD
@@ -54,15 +55,15 @@ class _Formats:
 
     def __init__(self, analysis: Analysis) -> None:
         self.decimals = decimals_of(analysis)
-        self.finer = None if self.decimals is None else self.decimals + 1
         self.unit = unit_of(analysis)
 
-    def reading(self, value: float | None) -> str:
-        return self._with_unit(format_reading(value, self.decimals))
+    def setting(self, value: float | None) -> str:
+        """Numbers the user chose (margin, planned shift and spread), never rounded away."""
+        return self._with_unit(format_setting(value, self.decimals))
 
     def centre(self, value: float | None) -> str:
-        """Medians, quartiles and shifts: one decimal finer than the readings."""
-        return self._with_unit(format_reading(value, self.finer))
+        """Medians, quartiles and shifts: one decimal finer than the readings when off their grid."""
+        return self._with_unit(format_centre(value, self.decimals))
 
     def _with_unit(self, text: str) -> str:
         return text if text == MISSING else with_unit(text, self.unit)
@@ -179,7 +180,7 @@ def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
                  "Compares how many readings of each group lie above the overall median "
                  "(not Mood's test of spread).", r.alpha)
     if r.margin is not None:
-        yield _number("margin", "Equivalence margin (±)", f.reading(r.margin),
+        yield _number("margin", "Equivalence margin (±)", f.setting(r.margin),
                       "Shifts inside plus or minus this amount count as 'the same' for this characteristic.",
                       r.margin)
         yield from _interval("equivalence_ci", "Shift for equivalence", r.equivalence_ci, f,
@@ -222,7 +223,7 @@ def _paired(r: PairedResult, analysis: Analysis) -> Iterator[KeyNumber]:
     yield from _interval("shift_ci", "Change per part", r.shift_ci, f,
                          "The range of typical changes that fit the readings at this confidence level.")
     if r.margin is not None:
-        yield _number("margin", "Equivalence margin (±)", f.reading(r.margin),
+        yield _number("margin", "Equivalence margin (±)", f.setting(r.margin),
                       "Changes inside plus or minus this amount count as 'no change' for this characteristic.",
                       r.margin)
         yield from _interval("equivalence_ci", "Change for equivalence", r.equivalence_ci, f,
@@ -272,10 +273,10 @@ def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
                   "The chance that the test gives a significant result if the change is as large as stated.",
                   r.power)
     if r.shift is not None:
-        yield _number("shift", "Shift worth detecting", f.reading(r.shift),
+        yield _number("shift", "Shift worth detecting", f.setting(r.shift),
                       "The smallest change that matters for this characteristic.", r.shift)
     if r.spread is not None:
-        yield _number("spread", "Spread (standard deviation)", f.reading(r.spread),
+        yield _number("spread", "Spread (standard deviation)", f.setting(r.spread),
                       "The usual scatter of single readings.", r.spread)
     yield _number("prob_b_greater", "Share of pairs to detect", format_percent(r.prob_b_greater),
                   "The share of pairs in which a part of the second group reads higher that the plan "

@@ -83,3 +83,25 @@ def format_count(value: float | None) -> str:
     if float(value).is_integer():
         return str(int(value))
     return f"{value:.1f}" if (2 * value).is_integer() else f"{value:.4g}"
+
+
+def format_centre(value: float | None, decimals: int | None) -> str:
+    """A median, quartile, shift or interval end: at the readings' resolution when it falls on the
+    gauge's grid, otherwise one decimal finer (a median of two readings can fall half-way)."""
+    if value is None or not math.isfinite(value) or decimals is None:
+        return format_reading(value, decimals)
+    scaled = value * 10.0**decimals
+    on_grid = abs(scaled - round(scaled)) <= 1e-9 * max(1.0, abs(scaled))
+    return format_reading(value, decimals if on_grid else decimals + 1)
+
+
+def format_setting(value: float | None, decimals: int | None) -> str:
+    """A number the user chose (a margin, a planned shift): never rounded away, and shown with at
+    least the readings' decimals ("0.05" stays "0.05" even for readings to one decimal)."""
+    if value is None or not math.isfinite(value):
+        return MISSING
+    plain = f"{value:.6g}"
+    if "e" in plain:
+        return plain
+    needed = len(plain.partition(".")[2])
+    return format_reading(value, max(needed, decimals or 0))

@@ -5,7 +5,6 @@ from __future__ import annotations
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairedResult
 from rankwise.wording.cautions import CAUTION_SHORT
-from rankwise.wording.numbers import format_reading
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
     alternative_words,
@@ -43,9 +42,8 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
 
     change = ""
     if result.shift is not None and result.shift_ci is not None:
-        shift_decimals = None if decimals is None else decimals + 1
-        change = (f"the typical change per part is {signed_reading(result.shift, shift_decimals, unit)} "
-                  f"({b} minus {a}, pseudo-median; {interval_phrase(result.shift_ci, shift_decimals, unit)})")
+        change = (f"the typical change per part is {signed_reading(result.shift, decimals, unit)} "
+                  f"({b} minus {a}, pseudo-median; {interval_phrase(result.shift_ci, decimals, unit)})")
     tested = alternative_words(result.alternative, a, b)
     if result.significant:
         headline = f"{b} reads {higher_or_lower(b_higher)} than {a} on the same parts."
@@ -101,7 +99,6 @@ def _equivalence(result: PairedResult, analysis: Analysis, unit: str) -> tuple[s
     margin = margin_text(analysis, result.margin)
     interval = result.equivalence_ci
     decimals = decimals_of(analysis)
-    decimals = None if decimals is None else decimals + 1
     if result.equivalent is None or interval is None:
         text = f"Equivalence within {margin} could not be judged: no interval for the change was computed."
         return f"Equivalence within {margin} could not be judged.", text

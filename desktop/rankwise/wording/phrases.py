@@ -3,9 +3,10 @@
 from __future__ import annotations
 
 import math
+import re
 
 from rankwise.stats.results import ConfidenceInterval
-from rankwise.wording.numbers import format_level, format_p, format_reading
+from rankwise.wording.numbers import format_centre, format_level, format_p
 
 NOT_SAMENESS = ("This does not show that the groups are the same; to show that, set an "
                 "equivalence margin.")
@@ -49,16 +50,16 @@ def p_phrase(p: float, alpha: float) -> str:
 
 
 def interval_phrase(interval: ConfidenceInterval, decimals: int | None, unit: str) -> str:
-    """ "95 % confidence interval 0.02 to 0.10 µm"."""
-    low = format_reading(interval.low, decimals)
-    high = format_reading(interval.high, decimals)
+    """ "95 % confidence interval 0.02 to 0.10 µm" (``decimals``: the readings' resolution)."""
+    low = format_centre(interval.low, decimals)
+    high = format_centre(interval.high, decimals)
     unit_text = f" {unit}" if unit else ""
     return f"{format_level(interval.level)} confidence interval {low} to {high}{unit_text}"
 
 
 def signed_reading(value: float, decimals: int | None, unit: str) -> str:
     """A change with its sign, "+0.06 µm" or "-0.06 µm"."""
-    text = format_reading(value, decimals)
+    text = format_centre(value, decimals)
     if math.isfinite(value) and not text.startswith("-") and float(text) != 0.0:
         text = "+" + text
     return f"{text} {unit}" if unit else text
@@ -77,3 +78,8 @@ def smallest_sign_test_size(alpha: float, alternative: str) -> int:
     """
     tails = 2.0 if alternative == "two-sided" else 1.0
     return max(1, math.ceil(math.log2(tails / alpha) - 1e-12))
+
+
+def a_or_an(text: str) -> str:
+    """The article for a number read aloud: "an 80 % chance", "an 11 % share", "a 90 % chance"."""
+    return "an" if re.match(r"(8|1[18](?!\d))", text) else "a"

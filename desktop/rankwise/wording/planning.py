@@ -5,7 +5,8 @@ from __future__ import annotations
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PlanResult
 from rankwise.wording.cautions import CAUTION_SHORT
-from rankwise.wording.numbers import format_level, format_percent, format_reading
+from rankwise.wording.numbers import format_level, format_percent, format_setting
+from rankwise.wording.phrases import a_or_an
 from rankwise.wording.questions import decimals_of, group_names, unit_of, with_unit
 from rankwise.wording.verdict_types import Verdict
 
@@ -27,13 +28,14 @@ def describe_plan(result: PlanResult, analysis: Analysis) -> Verdict:
         headline = f"Measure at least {result.n_a} parts of {a} and {result.n_b} parts of {b}."
     sides = "two-sided" if result.alternative == "two-sided" else "one-sided"
     sentences = [
-        f"This gives a {format_level(result.power)} chance of a significant result at the "
+        f"This gives {a_or_an(format_level(result.power))} {format_level(result.power)} chance of a significant result at the "
         f"{format_level(result.alpha)} level ({sides}) if {_target(result, analysis, a, b)}.",
     ]
     if result.simulated_power is not None:
         sentences.append(
-            f"A simulation of the exact test at these sizes found a "
-            f"{format_percent(result.simulated_power)} chance of detecting it."
+            f"A simulation of the exact test at these sizes found "
+            f"{a_or_an(format_percent(result.simulated_power))} {format_percent(result.simulated_power)} "
+            f"chance of detecting it."
         )
     notes = list(result.assumptions)
     notes.extend(w for w in result.warnings if w not in notes)
@@ -53,8 +55,8 @@ def _target(result: PlanResult, analysis: Analysis, a: str, b: str) -> str:
     decimals = decimals_of(analysis)
     share = format_percent(result.prob_b_greater)
     if result.shift is not None and result.spread is not None:
-        shift = with_unit(format_reading(result.shift, decimals), unit)
-        spread = with_unit(format_reading(result.spread, decimals), unit)
+        shift = with_unit(format_setting(result.shift, decimals), unit)
+        spread = with_unit(format_setting(result.spread, decimals), unit)
         if result.paired:
             return (f"the change per part is {shift} with a spread (standard deviation) of "
                     f"{spread}")

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis, Question
-from rankwise.wording.numbers import format_level, format_reading
+from rankwise.wording.numbers import format_level, format_setting
 
 QUESTION_TITLES: dict[Question, str] = {
     Question.TWO_GROUPS: "Did the change move the readings? (two separate groups of parts)",
@@ -37,7 +37,7 @@ def with_unit(text: str, unit: str) -> str:
 
 def margin_text(analysis: Analysis, margin: float) -> str:
     """The equivalence margin as "± 0.05 µm"."""
-    return "± " + with_unit(format_reading(margin, decimals_of(analysis)), unit_of(analysis))
+    return "± " + with_unit(format_setting(margin, decimals_of(analysis)), unit_of(analysis))
 
 
 def describe_question(analysis: Analysis) -> str:
@@ -77,8 +77,9 @@ def _plan_question(analysis: Analysis) -> str:
         target = (f"a change that makes a part of the second group read higher than a part of "
                   f"the first in {format_level(settings.planned_prob_b_greater)} of pairs")
     elif settings.planned_shift is not None:
-        target = f"a shift of {with_unit(format_reading(settings.planned_shift, decimals), unit)}"
+        target = f"a shift of {with_unit(format_setting(settings.planned_shift, decimals), unit)}"
     else:
         target = "the shift worth detecting"
-    return (f"How many parts per group are needed to detect {target} with a {power} chance "
+    article = "an" if power.startswith("8") or power.startswith(("11 ", "18 ")) else "a"
+    return (f"How many parts per group are needed to detect {target} with {article} {power} chance "
             f"at the {format_level(settings.alpha)} significance level?")

@@ -5,7 +5,7 @@ from __future__ import annotations
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import TwoGroupResult
 from rankwise.wording.cautions import CAUTION_SHORT
-from rankwise.wording.numbers import format_level, format_percent, format_reading
+from rankwise.wording.numbers import format_centre, format_level, format_percent
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
     alternative_words,
@@ -51,7 +51,7 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
         if result.shift is not None and result.shift_ci is not None:
             sentences.append(
                 f"The estimated shift of {b} against {a} is "
-                f"{with_unit(format_reading(result.shift, shift_decimals), unit)} "
+                f"{with_unit(format_centre(result.shift, shift_decimals), unit)} "
                 f"({interval_phrase(result.shift_ci, shift_decimals, unit)})."
             )
         if result.margin is None:
@@ -75,9 +75,8 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
 
 
 def _shift_decimals(analysis: Analysis) -> int | None:
-    """Shifts and medians get one decimal more than the readings (a median of two can fall between)."""
-    decimals = decimals_of(analysis)
-    return None if decimals is None else decimals + 1
+    """The readings' resolution, at which shifts are shown (one decimal finer when off the grid)."""
+    return decimals_of(analysis)
 
 
 def _b_reads_higher(result: TwoGroupResult) -> bool:
@@ -112,7 +111,7 @@ def _significant_sentence(result: TwoGroupResult, stochastic: bool, b_higher: bo
         return f"{b} tends to read {direction} than {a}: {pairs}."
     if result.shift is None or result.shift_ci is None:
         return f"{b} reads {direction} than {a}: {pairs}."
-    size = with_unit(format_reading(abs(result.shift), decimals), unit)
+    size = with_unit(format_centre(abs(result.shift), decimals), unit)
     return (f"{b} reads {direction} than {a}: the shift is {size} "
             f"({interval_phrase(result.shift_ci, decimals, unit)}, {b} minus {a}).")
 
