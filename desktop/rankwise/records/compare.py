@@ -38,8 +38,8 @@ def sheet_differences(expected: Worksheet, actual: Worksheet) -> Iterator[str]:
             want = expected.cell(row=row, column=column)
             got = actual.cell(row=row, column=column)
             if want.value != got.value:
-                yield (f"Sheet '{actual.title}', cell {got.coordinate}: the record says "
-                       f"{_shown(want.value)}, the file now shows {_shown(got.value)}.")
+                yield (f"Sheet '{actual.title}', cell {got.coordinate}: the signed data give "
+                       f"{_shown(want.value)}, the sheet now shows {_shown(got.value)}.")
             elif want.value is not None and want.number_format != got.number_format:
                 yield (f"Sheet '{actual.title}', cell {got.coordinate}: the way the value is shown was "
                        f"changed from '{want.number_format}' to '{got.number_format}'.")
