@@ -47,3 +47,14 @@ def several_record():
     analysis = sheet.to_analysis(Question.SEVERAL, Settings())
     result = compare_several({g.name: g.values for g in analysis.groups})
     return ResultRecord.now(analysis, sheet.snapshot(), result, signoff())
+
+
+def plan_record():
+    """Noether (1987): alpha 0.05 two-sided, power 0.90, P(B > A) = 0.7 -> 44 parts per group."""
+    from rankwise.stats.planning import plan_group_size
+
+    sheet = ReadingSheet([GroupColumn("Wheel A", unit="µm"), GroupColumn("Wheel B", unit="µm")])
+    settings = Settings(planned_prob_b_greater=0.7, power=0.9)
+    analysis = sheet.to_analysis(Question.PLAN, settings)
+    result = plan_group_size(prob_b_greater=0.7, alpha=0.05, power=0.9)
+    return ResultRecord.now(analysis, sheet.snapshot(), result, signoff())

@@ -12,7 +12,7 @@ from rankwise.records.readings_sheet import FIRST_ENTRY_ROW
 from rankwise.records.workbook import PROGRAM_SHEET
 from rankwise.wording import CAUTION_SHORT
 
-from record_builders import paired_record, several_record
+from record_builders import paired_record, plan_record, several_record
 
 FORMULA_LIKE = ["=HYPERLINK(\"http://example.invalid\")", "+1+1", "-2", "@SUM(A1)"]
 
@@ -79,7 +79,7 @@ def test_text_that_looks_like_a_formula_is_written_as_text(tmp_path):
     assert read_record(path).analysis.groups[0].name == FORMULA_LIKE[0]
 
 
-@pytest.mark.parametrize("build", [paired_record, several_record])
+@pytest.mark.parametrize("build", [paired_record, several_record, plan_record])
 def test_reading_back_restores_the_whole_record(tmp_path, build):
     path = tmp_path / "record.xlsx"
     record = build()
@@ -137,3 +137,12 @@ def test_a_file_that_is_not_a_record_is_refused_on_reading(tmp_path):
     text.write_text("a,b\n1,2\n")
     with pytest.raises(RecordError, match="cannot be read as a workbook"):
         read_record(text)
+
+
+def test_a_plan_record_shows_the_parts_needed_and_the_power_table(tmp_path):
+    path = tmp_path / "plan.xlsx"
+    write_record(path, plan_record())
+    book = load_workbook(path)
+    assert book.sheetnames[2] == "Power by group size"
+    shown = [c.value for c in cells_of(book["Verdict"])]
+    assert "Measure at least 44 parts of Wheel A and 44 parts of Wheel B." in shown

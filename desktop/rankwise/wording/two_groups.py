@@ -38,6 +38,8 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
     if result.significant:
         headline = f"{b} {'tends to read' if stochastic else 'reads'} {higher_or_lower(b_higher)} than {a}."
         sentences.append(_significant_sentence(result, stochastic, b_higher, shift_decimals, unit))
+        if stochastic:
+            sentences.append(_stochastic_sentence(result))
         sentences.append(
             f"The difference is significant at {level_phrase(result.alpha)} "
             f"({p_phrase(result.p_value, result.alpha)}; {alternative_words(result.alternative, a, b)})."
@@ -114,6 +116,16 @@ def _significant_sentence(result: TwoGroupResult, stochastic: bool, b_higher: bo
     size = with_unit(format_centre(abs(result.shift), decimals), unit)
     return (f"{b} reads {direction} than {a}: the shift is {size} "
             f"({interval_phrase(result.shift_ci, decimals, unit)}, {b} minus {a}).")
+
+
+def _stochastic_sentence(result: TwoGroupResult) -> str:
+    """Why the verdict speaks of tendencies, and the test that allows unequal spreads."""
+    text = ("The groups' spreads or shapes differ, so this says which group tends to read higher, "
+            "not that the median moved")
+    if result.brunner_munzel is not None:
+        text += (f"; the Brunner-Munzel test, which allows unequal spreads, gives "
+                 f"{p_phrase(result.brunner_munzel.p_value, result.alpha)}")
+    return text + "."
 
 
 def _not_shown_headline(result: TwoGroupResult) -> str:
