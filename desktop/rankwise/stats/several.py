@@ -31,6 +31,8 @@ SMALL_GROUP = 5
 """With a group smaller than this, "auto" takes the permutation p instead of chi-square."""
 EXACT_ASSIGNMENT_LIMIT = 1_000_000
 """Largest number of ways to split the readings into the groups that is enumerated exactly."""
+EXACT_OUTER_LIMIT = 20_000
+"""Largest number of choices of the first k - 2 groups walked one by one (bounds the time)."""
 MONTE_CARLO_RESHUFFLES = 20_000
 MONTE_CARLO_SEED = 20_261_201
 """Fixed seed, so the same readings always give the same Monte Carlo p-value."""
@@ -51,8 +53,8 @@ def compare_several(
     ``groups`` maps each group's name to its readings (blanks None/NaN are dropped and counted).
     ``comparison``: "all-pairs" (k(k-1)/2 pairs) or "against-reference" (k - 1 pairs, each group
     against ``reference``; the first group when None). ``method``: "normal" (chi-square p),
-    "exact" (permutation p: every split counted when at most a million, else 20 000 random
-    reshuffles with a fixed seed) or "auto" (permutation p when a group has fewer than 5
+    "exact" (permutation p: every split of the readings counted when there are at most a million
+    and the count is quick, else 20 000 random reshuffles with a fixed seed) or "auto" (permutation p when a group has fewer than 5
     readings, chi-square otherwise). Raises ValueError for fewer than two groups, an empty group,
     non-numbers, or a wrong argument.
     """
@@ -189,10 +191,14 @@ def _permutation_p(doubled_ranks: list[np.ndarray], monitor: Monitor) -> tuple[f
     H grows with sum R_i^2 / n_i, compared here as the whole number sum (2 R_i)^2 (L / n_i) with L
     the least common multiple of the sizes, so equal values of H are found exactly (in floating
     point, with a relative tolerance of 1e-12, only where that number would not fit in 64 bits). Every split
-    is counted when there are at most ``EXACT_ASSIGNMENT_LIMIT``; otherwise a Monte Carlo
+    is counted when there are at most ``EXACT_ASSIGNMENT_LIMIT`` (and the walk stays within
+    ``EXACT_OUTER_LIMIT`` steps); otherwise a Monte Carlo
     estimate (b + 1) / (m + 1) from ``MONTE_CARLO_RESHUFFLES`` reshuffles with a fixed seed.
     Returns the p-value, the method's name and a note for the warnings.
     """
+    # The sum over groups does not depend on their order; the largest two go last, where the
+    # enumeration is vectorised.
+    doubled_ranks = sorted(doubled_ranks, key=len)
     sizes = [r.size for r in doubled_ranks]
     pooled = np.concatenate(doubled_ranks)
     weights = np.array([math.lcm(*sizes) // n for n in sizes], dtype=np.int64)
@@ -203,7 +209,7 @@ def _permutation_p(doubled_ranks: list[np.ndarray], monitor: Monitor) -> tuple[f
     observed = np.sum(np.array([r.sum() for r in doubled_ranks], dtype=pooled.dtype) ** 2 * weights)
     observed = observed * (1.0 - 1e-12) if weights.dtype == float else int(observed)
     splits = math.factorial(len(pooled)) // math.prod(math.factorial(n) for n in sizes)
-    if splits <= EXACT_ASSIGNMENT_LIMIT:
+    if splits <= EXACT_ASSIGNMENT_LIMIT and _outer_choices(sizes) <= EXACT_OUTER_LIMIT:
         statistics = _all_split_statistics(pooled, sizes, weights, monitor)
         return float(np.mean(statistics >= observed)), "exact permutation", ""
     rng = np.random.default_rng(MONTE_CARLO_SEED)
@@ -232,7 +238,7 @@ def _all_split_statistics(pooled: np.ndarray, sizes: list[int], weights: np.ndar
     """
     results: list[np.ndarray] = []
     outer = [0]
-    outer_total = math.prod(math.comb(int(sum(sizes[g:])), sizes[g]) for g in range(len(sizes) - 2)) or 1
+    outer_total = _outer_choices(sizes)
 
     def fill(remaining: np.ndarray, group: int, partial: int) -> None:
         if group == len(sizes) - 2:
@@ -250,6 +256,11 @@ def _all_split_statistics(pooled: np.ndarray, sizes: list[int], weights: np.ndar
 
     fill(pooled, 0, 0)
     return np.concatenate(results)
+
+
+def _outer_choices(sizes: list[int]) -> int:
+    """How many choices of the first k - 2 groups the enumeration walks through one by one."""
+    return math.prod(math.comb(int(sum(sizes[g:])), sizes[g]) for g in range(len(sizes) - 2))
 
 
 @functools.lru_cache(maxsize=8)
