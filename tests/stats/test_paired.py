@@ -188,3 +188,21 @@ def test_properties_of_the_signed_rank_result(pairs, zero_method):
     d = np.rint(np.array(b) * 10) - np.rint(np.array(a) * 10)
     if np.count_nonzero(d) <= 10:
         assert forward.p_exact == pytest.approx(brute_force_p(d, zero_method, "b-greater"), abs=1e-12)
+
+
+def test_pseudo_median_and_interval_of_many_pairs_match_all_walsh_averages():
+    """1100 pairs (past the limit where all Walsh averages are formed): the pseudo-median is the
+    median, and the 95 % interval the (C+1)-th and (M-C)-th, of all 605 550 Walsh averages
+    sorted by brute force; C from the normal approximation, as ``critical_t`` states beyond n = 400."""
+    rng = np.random.default_rng(21)
+    a = np.round(rng.normal(20.0, 1.0, 1100), 2)
+    b = np.round(a + rng.normal(0.05, 0.3, 1100), 2)
+    result = compare_paired(a, b)
+    d = (np.rint(b * 100) - np.rint(a * 100)) / 100
+    i, j = np.triu_indices(d.size)
+    walsh = np.sort((d[i] + d[j]) / 2)
+    assert result.shift == pytest.approx(np.median(walsh), abs=1e-12)
+    n = d.size
+    c = int(np.floor(n * (n + 1) / 4 - 0.5 - stats.norm.isf(0.025) * np.sqrt(n * (n + 1) * (2 * n + 1) / 24)))
+    assert critical_t(n, 0.05) == c
+    assert (result.shift_ci.low, result.shift_ci.high) == pytest.approx((walsh[c], walsh[walsh.size - c - 1]), abs=1e-12)
