@@ -238,7 +238,8 @@ class _Composer:
         chart_title = ("Chance of detecting the shift" if c.plan is not None
                        else "Readings per group (bar: median)")
         right_y = self.heading(chart_title, right_x, y, right_width)
-        chart = QRectF(right_x, right_y, right_width, self.pt(self.fit.chart_height))
+        chart_height = max(self.pt(self.fit.chart_height), left_y - right_y - self.pt(12))
+        chart = QRectF(right_x, right_y, right_width, chart_height)
         if self.drawing:
             self.painter.save()
             if c.plan is not None and c.plan.power_curve:

@@ -9,6 +9,7 @@ from pathlib import Path
 from PySide6.QtCore import QMarginsF, QRectF
 from PySide6.QtGui import QGuiApplication, QPageLayout, QPagedPaintDevice, QPageSize, QPainter, QPdfWriter
 
+from rankwise.records import fingerprint
 from rankwise.ui.printing.page_content import gather
 from rankwise.ui.printing.page_layout import PagePlan, draw_verdict_page
 
@@ -21,13 +22,6 @@ PDF_RESOLUTION = 600
 """Dots per inch of the PDF's drawing grid (vector output; only positions are rounded to it)."""
 
 
-def record_fingerprint(record) -> str:
-    """The record's SHA-256 fingerprint as the records layer computes it."""
-    from rankwise.records.record import fingerprint
-
-    return fingerprint(record)
-
-
 def page_layout(page_size: str) -> QPageLayout:
     """Portrait ``page_size`` ("A4" or "Letter") with our margins."""
     if page_size not in PAGE_SIZES:
@@ -38,7 +32,7 @@ def page_layout(page_size: str) -> QPageLayout:
 
 def paint_record(device, record) -> PagePlan:
     """Paint ``record``'s verdict page on ``device`` (a PDF writer, printer or image)."""
-    content = gather(record, record_fingerprint(record))
+    content = gather(record, fingerprint(record))
     painter = QPainter()
     if not painter.begin(device):
         raise OSError("The page could not be opened for drawing (is the printer or file available?).")
