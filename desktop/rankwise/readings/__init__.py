@@ -2,8 +2,10 @@
 
 from rankwise.readings.cells import Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError
+from rankwise.readings.open import open_readings
 from rankwise.readings.parse import machine_decimal, parse_reading
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
+from rankwise.readings.save import save_sheet
 from rankwise.readings.sheet import GroupColumn, ReadingSheet, SheetChange
 from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
 
@@ -22,5 +24,7 @@ __all__ = [
     "SkippedCell",
     "SourceInfo",
     "machine_decimal",
+    "open_readings",
     "parse_reading",
+    "save_sheet",
 ]

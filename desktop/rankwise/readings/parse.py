@@ -32,6 +32,12 @@ _NUMBER_START = re.compile(
     r"\s*(?P<suffix>.*)",
     re.DOTALL,
 )
+_DATE_OR_TIME = re.compile(
+    r"(?:\d{4}|\d{1,2})[-/.]\d{1,2}[-/.](?:\d{4}|\d{2})(?:[ T]\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?)?"
+    r"|\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?(?:\s*[AaPp][Mm])?"
+)
+"""Dates ("2026-03-02", "02.03.2026", "3/2/26") and times ("14:05", "14:05:30"): never readings."""
+
 _COMMA_LANGUAGES = frozenset(
     "af az be bg bs ca cs da de el es et eu fi fo fr gl hr hu hy id is it ka kk ky lt lv mk mn nb "
     "nl nn no pl pt ro ru sk sl sq sr sv tr uk uz vi".split()
@@ -97,6 +103,8 @@ def parse_reading(text: str, *, decimal: str = "auto", unit: str = "") -> Cell:
             f"'{_short(text)}' is above a limit; only readings below a detection limit can be ranked, "
             "so type the measured value or a note.",
         )
+    if _DATE_OR_TIME.fullmatch(stripped):
+        return Cell(text, CellKind.NOTE, reason=f"'{_short(text)}' is a date or a time, not a reading.")
     read = _read_number(stripped, decimal, unit)
     if read is None:
         return Cell(text, CellKind.NOTE, reason=f"Text note '{_short(text)}', not a reading.")

@@ -1,0 +1,186 @@
+"""Text exports (CSV, TXT, TSV): encoding, field separator, and the columns' texts.
+
+The encoding is found from a byte-order mark, then UTF-16 without a mark (NUL bytes in every
+other place), then strict UTF-8, and the common Western single-byte code page (cp1252) as the
+fallback. The separator is the one of comma, semicolon, tab and pipe that splits the lines most
+consistently. Big files are read by pandas' C parser, keeping every cell's text as written.
+"""
+
+from __future__ import annotations
+
+import codecs
+import csv
+import re
+from collections import Counter
+from dataclasses import dataclass
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from rankwise.readings.errors import ReadingsError
+
+SAMPLE_CHARACTERS = 1 << 20
+"""How much of a text file is looked at to find its encoding, separator, header and layout."""
+SAMPLE_ROWS = 400
+MAX_CELL_CHARACTERS = 10_000
+"""A cell longer than this is not part of a readings export."""
+
+DELIMITERS = (";", "\t", "|", ",")
+"""Candidate separators, in order of preference when they split the lines equally well."""
+
+_DECIMAL_COMMA_LINE = re.compile(r"\s*[+-]?\d*,\d+\s*")
+
+
+@dataclass(frozen=True)
+class TextSample:
+    """The start of a text file, understood.
+
+    Attributes:
+        encoding: the encoding the file is read with.
+        delimiter: the field separator, or "" for a single column.
+        rows: the first rows, split into fields.
+        complete: True when the sample holds the whole file.
+    """
+
+    encoding: str
+    delimiter: str
+    rows: list[list[str]]
+    complete: bool
+
+
+def find_encoding(head: bytes, path: Path) -> str:
+    """The encoding of a text file from its first bytes; binary content raises ``ReadingsError``."""
+    if head.startswith(codecs.BOM_UTF8):
+        return "utf-8-sig"
+    if head.startswith((codecs.BOM_UTF16_LE, codecs.BOM_UTF16_BE)):
+        return "utf-16"
+    if b"\x00" in head:
+        even, odd = head[0::2].count(0), head[1::2].count(0)
+        if odd > 0.3 * len(head) / 2 and even == 0:
+            return "utf-16-le"
+        if even > 0.3 * len(head) / 2 and odd == 0:
+            return "utf-16-be"
+        raise not_a_spreadsheet(path)
+    try:
+        codecs.getincrementaldecoder("utf-8")().decode(head, final=False)
+    except UnicodeDecodeError:
+        pass
+    else:
+        return "utf-8"
+    try:
+        head.decode("cp1252")
+    except UnicodeDecodeError:
+        return "latin-1"
+    return "cp1252"
+
+
+def not_a_spreadsheet(path: Path) -> ReadingsError:
+    """The error for a file that is neither a text export nor a workbook."""
+    return ReadingsError(
+        f"'{path.name}' is not a spreadsheet or a text export (it holds binary data); "
+        "open a CSV or XLSX file of readings."
+    )
+
+
+def read_sample(path: Path, encoding: str) -> TextSample:
+    """The first rows of a text file, split with the separator that fits them best."""
+    try:
+        with open(path, encoding=encoding, newline="") as stream:
+            text = stream.read(SAMPLE_CHARACTERS)
+            complete = stream.read(1) == ""
+    except UnicodeDecodeError as error:
+        raise ReadingsError(
+            f"'{path.name}' cannot be read as {encoding} text; choose the file's encoding (for example UTF-8 or cp1252)."
+        ) from error
+    if not complete and "\n" not in text and "\r" not in text:
+        raise ReadingsError(
+            f"'{path.name}' starts with a line of more than a million characters, far too long for readings; "
+            "check that this is the right file."
+        )
+    controls = sum(1 for ch in text[:100_000] if ch < " " and ch not in "\t\r\n")
+    if controls > 0.01 * min(len(text), 100_000) or "\x00" in text:
+        raise not_a_spreadsheet(path)
+    lines = text.splitlines()
+    if not complete and lines:
+        lines.pop()
+    lines = lines[:SAMPLE_ROWS]
+    delimiter = find_delimiter(lines)
+    rows = split_lines(lines, delimiter)
+    return TextSample(encoding, delimiter, rows, complete and len(lines) < SAMPLE_ROWS)
+
+
+def find_delimiter(lines: list[str]) -> str:
+    """The separator splitting the non-blank lines into the most consistent number of fields."""
+    filled = [line for line in lines if line.strip()]
+    if not filled:
+        return ""
+    if sum(1 for line in filled if _DECIMAL_COMMA_LINE.fullmatch(line)) >= 0.6 * len(filled):
+        candidates = [d for d in DELIMITERS if d != ","]
+    else:
+        candidates = list(DELIMITERS)
+    best, best_score = "", 0.0
+    for delimiter in candidates:
+        widths = [len(row) for row in csv.reader(filled, delimiter=delimiter)]
+        width, count = Counter(widths).most_common(1)[0]
+        score = count / len(widths) if width > 1 else 0.0
+        if score > best_score + 1e-9:
+            best, best_score = delimiter, score
+    return best
+
+
+def split_lines(lines: list[str], delimiter: str) -> list[list[str]]:
+    """Lines split into fields (quotes honoured); a single column when there is no separator."""
+    if not delimiter:
+        return [[next(csv.reader([line]), [""])[0] if line else ""] for line in lines]
+    return [row if row else [""] for row in csv.reader(lines, delimiter=delimiter)]
+
+
+def read_columns(
+    path: Path, sample: TextSample, first_data_row: int, width: int, wanted: list[int]
+) -> dict[int, np.ndarray]:
+    """The texts of the ``wanted`` columns from ``first_data_row`` to the end, "" for blanks."""
+    if sample.complete:
+        rows = sample.rows[first_data_row:]
+        return {j: _column(rows, j) for j in wanted}
+    try:
+        frame = pd.read_csv(
+            path, sep=sample.delimiter or "\x1f", header=None, names=list(range(width)), usecols=wanted,
+            skiprows=first_data_row, dtype=str, keep_default_na=False, na_filter=False,
+            encoding=sample.encoding, skip_blank_lines=False, engine="c", index_col=False,
+        )
+    except (pd.errors.ParserError, ValueError, UnicodeDecodeError):
+        return _read_columns_slowly(path, sample, first_data_row, wanted)
+    return {j: frame[j].to_numpy(dtype=object) for j in wanted}
+
+
+def _read_columns_slowly(path: Path, sample: TextSample, first_data_row: int, wanted: list[int]) -> dict[int, np.ndarray]:
+    """Row by row, for files the fast parser refuses (ragged rows, mixed line ends, late encoding slips)."""
+    try:
+        with open(path, encoding=sample.encoding, errors="strict", newline="") as stream:
+            lines = stream.read().splitlines()
+    except UnicodeDecodeError as error:
+        raise ReadingsError(
+            f"'{path.name}' is not {sample.encoding} text throughout; choose the file's encoding "
+            "(for example cp1252) when opening it."
+        ) from error
+    rows = split_lines(lines[first_data_row:], sample.delimiter)
+    return {j: _column(rows, j) for j in wanted}
+
+
+def _column(rows: list[list[str]], j: int) -> np.ndarray:
+    column = np.empty(len(rows), dtype=object)
+    column[:] = [row[j] if j < len(row) else "" for row in rows]
+    return column
+
+
+def check_cell_lengths(path: Path, columns: dict[int, np.ndarray], first_data_row: int) -> None:
+    """Refuse a file with a cell far too long for a reading (a damaged or wrong file)."""
+    too_long = re.compile(rf"[^\n]{{{MAX_CELL_CHARACTERS + 1}}}")
+    for column in columns.values():
+        if column.size and too_long.search("\n".join(column)):
+            row = next(i for i, text in enumerate(column) if len(text) > MAX_CELL_CHARACTERS)
+            raise ReadingsError(
+                f"Row {first_data_row + row + 1} of '{path.name}' holds a cell of {len(column[row]):,} characters, "
+                "far too long for a reading; check that this is the right file."
+            )
