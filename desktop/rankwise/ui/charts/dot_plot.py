@@ -16,6 +16,8 @@ TIE_SPACING = 0.07
 """Sideways distance between equal readings, in group slots."""
 NAME_CHARACTERS = 22
 """Group names longer than this are shortened under the axis (the full name is in the tooltip)."""
+PIXELS_PER_CHARACTER = 7.5
+"""Rough width of one character of the axis font, to decide how much of a name fits under a column."""
 
 TOOLTIP = (
     "Each dot is one reading; equal readings sit side by side so that every reading shows. "
@@ -118,11 +120,32 @@ class ReadingsDotPlot(ChartFrame):
         self._draw_medians(view)
         self._draw_pairs(view, positions)
         self._draw_limits(view)
-        ticks = [(index, shorten(name)) for index, name in enumerate(view.names)]
-        self.plot_item.getAxis("bottom").setTicks([ticks, []])
+        self._update_ticks()
         self._label_axes(bottom="Group", left=view.axis_label())
         self._set_legend([(self._medians, "median")])
         self._fit_range(view)
+
+    def tick_labels(self) -> list[str]:
+        """The labels under the columns: number and name, shortened to the room each column has."""
+        if self.view is None:
+            return []
+        column = self.plot_item.getViewBox().width() / max(len(self.view.names), 1)
+        characters = min(NAME_CHARACTERS, int(column / PIXELS_PER_CHARACTER) - 3)
+        return [f"{index + 1} " + shorten(name, characters) if characters >= 5 else f"{index + 1}"
+                for index, name in enumerate(self.view.names)]
+
+    def _update_ticks(self) -> None:
+        """Put the column labels under the axis (again after a resize)."""
+        self.plot_item.getAxis("bottom").setTicks([list(enumerate(self.tick_labels())), []])
+        self.plot_item.getAxis("bottom").setToolTip(
+            "\n".join(f"{index + 1}: {name}" for index, name in enumerate(self.view.names)) if self.view else "")
+
+    def resizeEvent(self, event) -> None:  # noqa: N802 (Qt's name)
+        """Fit the column labels to the new width."""
+        super().resizeEvent(event)
+        # Resizes also come while the widget is being built and after pyqtgraph's close() let go of the plot.
+        if getattr(self, "view", None) is not None and getattr(self, "plotItem", None) is not None:
+            self._update_ticks()
 
     def _draw_medians(self, view: ReadingsView) -> None:
         """One heavy horizontal bar per group at its median."""

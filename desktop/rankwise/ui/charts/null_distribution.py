@@ -81,7 +81,7 @@ class NullDistributionPlot(ChartFrame):
             self.plot_item.addItem(item)
         self._observed = pg.InfiniteLine(angle=90, movable=False,
                                          pen=pg.mkPen(style.OBSERVED_COLOUR, width=3),
-                                         label="", labelOpts={"position": 0.8, "color": style.INK,
+                                         label="", labelOpts={"position": 0.7, "color": style.INK,
                                                               "anchors": [(0, 0.5), (0, 0.5)],
                                                               "fill": pg.mkBrush(255, 255, 255, 220)})
         self._observed.setZValue(20)
@@ -126,7 +126,8 @@ class NullDistributionPlot(ChartFrame):
         width = 0.8 * (float(np.min(np.diff(x))) if x.size > 1 else 1.0)
         self._bars.setOpts(x=x[~mask], height=100 * p[~mask], width=width)
         self._region_bars.setOpts(x=x[mask], height=100 * p[mask], width=width)
-        self._mark_observed(distribution.observed, f"{distribution.statistic} = {distribution.observed:g}")
+        self._mark_observed(distribution.observed, f"{distribution.statistic} = {distribution.observed:g}",
+                            float(x.min()), float(x.max()))
         self._label_axes(bottom=f"{distribution.statistic} (exact distribution if the change did nothing)",
                          left="Chance of each value (%)")
         self._set_legend([(self._bars, "if the change did nothing"),
@@ -143,7 +144,7 @@ class NullDistributionPlot(ChartFrame):
         for item, (low, high) in zip(self._tails, region):
             inside = (grid >= low) & (grid <= high)
             item.setData(grid[inside], density[inside])
-        self._mark_observed(observed, label)
+        self._mark_observed(observed, label, float(grid.min()), float(grid.max()))
         self._label_axes(bottom=axis, left="Density")
         self._set_legend([(self._curve, "if the change did nothing"),
                           (self._tails[0], f"would count as a change at {alpha:g}")])
@@ -177,8 +178,10 @@ class NullDistributionPlot(ChartFrame):
                          f"Kruskal-Wallis H (chi-square, {result.df} degrees of freedom)", result.alpha)
         self.shown = "chi-square"
 
-    def _mark_observed(self, value: float, label: str) -> None:
-        """The vertical line at the observed statistic."""
+    def _mark_observed(self, value: float, label: str, low: float, high: float) -> None:
+        """The vertical line at the observed statistic, labelled on the side with more room."""
+        side = (1, 0.5) if value > (low + high) / 2 else (0, 0.5)
+        self._observed.label.anchors = [side, side]
         self._observed.setVisible(True)
         self._observed.setValue(value)
         self._observed.label.setFormat(f"observed: {label}".replace("{", "{{").replace("}", "}}"))
