@@ -227,9 +227,9 @@ def choose_layout(
         if not chosen:
             raise _no_readings()
         unused = [headers[j] for j in range(len(headers)) if j not in chosen and profiles[j].filled]
-        notes = [f"Each column of readings is a group: {', '.join(headers[j] for j in chosen)}."]
+        notes = [f"Each column of readings is a group: {_quoted(headers[j] for j in chosen)}."]
         if unused:
-            notes.append(f"Columns not used as readings: {', '.join(unused)}.")
+            notes.append(f"Columns not used as readings: {_quoted(unused)}.")
         return LayoutChoice("wide", chosen, None, tuple(notes))
     values = [j for j in (value_columns or readings) if j != group_column]
     if not values:
@@ -240,11 +240,11 @@ def choose_layout(
     ]
     if len(values) > 1 and not value_columns:
         notes.append(
-            f"Other columns with numbers, not used: {', '.join(headers[j] for j in values[1:])}; "
+            f"Other columns with numbers, not used: {_quoted(headers[j] for j in values[1:])}; "
             "choose one of them as the readings column if it is the one you want."
         )
     if others:
-        notes.append(f"Column(s) {', '.join(others)} could also be group labels; choose one if it fits the question better.")
+        notes.append(f"Also possible as group labels: {_quoted(others)}; choose one if it fits the question better.")
     return LayoutChoice("stacked", (value,), group_column, tuple(notes))
 
 
@@ -257,6 +257,10 @@ def _could_group(profile: ColumnProfile, readings: list[int], value_columns: Seq
         return False
     distinct = len(profile.labels)
     return 2 <= distinct <= 50 and distinct <= labelled / 2
+
+
+def _quoted(names) -> str:
+    return ", ".join(f"'{name}'" for name in names)
 
 
 def _no_readings() -> ReadingsError:

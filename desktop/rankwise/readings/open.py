@@ -307,8 +307,10 @@ def _skipped(parsed: ParsedColumn, header: str, first_row_number: int) -> tuple[
 
 def _notes(shape: TableShape, table: _Table, choice, groups: list[ReadingGroup], unlabelled: list[SkippedCell]) -> list[str]:
     notes = list(choice.notes)
-    if shape.header_row > 0:
-        notes.append(f"Rows 1 to {shape.header_row} above the header were taken as a title block and skipped.")
+    if shape.header_row == 1:
+        notes.append("Row 1, above the header, was taken as a title and skipped.")
+    elif shape.header_row > 1:
+        notes.append(f"Rows 1 to {shape.header_row}, above the header, were taken as a title block and skipped.")
     elif shape.header_row < 0:
         notes.append("The file has no header row; the columns are named by position.")
     if table.decimal_note:

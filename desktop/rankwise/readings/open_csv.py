@@ -29,6 +29,8 @@ MAX_CELL_CHARACTERS = 10_000
 DELIMITERS = (";", "\t", "|", ",")
 """Candidate separators, in order of preference when they split the lines equally well."""
 
+_NO_DELIMITER = "\x1f"
+"""Stands in for the separator of a single-column file (the unit separator never occurs in exports)."""
 _DECIMAL_COMMA_LINE = re.compile(r"\s*[+-]?\d*,\d+\s*")
 
 
@@ -131,9 +133,7 @@ def find_delimiter(lines: list[str]) -> str:
 
 def split_lines(lines: list[str], delimiter: str) -> list[list[str]]:
     """Lines split into fields (quotes honoured); a single column when there is no separator."""
-    if not delimiter:
-        return [[next(csv.reader([line]), [""])[0] if line else ""] for line in lines]
-    return [row if row else [""] for row in csv.reader(lines, delimiter=delimiter)]
+    return [row if row else [""] for row in csv.reader(lines, delimiter=delimiter or _NO_DELIMITER)]
 
 
 def read_columns(
@@ -145,7 +145,7 @@ def read_columns(
         return {j: _column(rows, j) for j in wanted}
     try:
         frame = pd.read_csv(
-            path, sep=sample.delimiter or "\x1f", header=None, names=list(range(width)), usecols=wanted,
+            path, sep=sample.delimiter or _NO_DELIMITER, header=None, names=list(range(width)), usecols=wanted,
             skiprows=first_data_row, dtype=str, keep_default_na=False, na_filter=False,
             encoding=sample.encoding, skip_blank_lines=False, engine="c", index_col=False,
         )

@@ -50,6 +50,7 @@ def write_atomically(path: Path, data: bytes) -> None:
             stream.write(data)
             stream.flush()
             os.fsync(stream.fileno())
+        os.chmod(temporary, _file_mode(path))
         os.replace(temporary, path)
     except BaseException as error:
         try:
@@ -61,6 +62,16 @@ def write_atomically(path: Path, data: bytes) -> None:
         if isinstance(error, OSError):
             raise ReadingsError(f"Saving '{path.name}' failed ({error.strerror or 'system error'}); the old file is unchanged.") from error
         raise
+
+
+def _file_mode(path: Path) -> int:
+    """The replaced file's permissions, or those a newly created file would get."""
+    try:
+        return path.stat().st_mode & 0o777
+    except OSError:
+        umask = os.umask(0)
+        os.umask(umask)
+        return 0o666 & ~umask
 
 
 def _rows(sheet: ReadingSheet) -> list[list[str]]:
