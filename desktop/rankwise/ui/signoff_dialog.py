@@ -49,8 +49,8 @@ class SignOffDialog(QDialog):
         self.setAccessibleName(self.windowTitle())
         self.setMinimumWidth(520)
 
-        intro = QLabel(self._intro_text(prepared))
-        intro.setWordWrap(True)
+        self.intro_label = QLabel(self._intro_text(prepared))
+        self.intro_label.setWordWrap(True)
 
         self.name_edit = QLineEdit()
         self.name_edit.setMaxLength(NAME_LIMIT)
@@ -99,13 +99,13 @@ class SignOffDialog(QDialog):
         self.buttons = QDialogButtonBox(QDialogButtonBox.StandardButton.Cancel)
         self.sign_button = self.buttons.addButton("&Approve and sign" if reviewing else "&Sign",
                                                   QDialogButtonBox.ButtonRole.AcceptRole)
-        self.sign_button.setDefault(True)
+        self.buttons.button(QDialogButtonBox.StandardButton.Cancel).setAutoDefault(False)
         self.sign_button.setAccessibleName(self.sign_button.text().replace("&", ""))
         self.buttons.accepted.connect(self.accept)
         self.buttons.rejected.connect(self.reject)
 
         layout = QVBoxLayout(self)
-        layout.addWidget(intro)
+        layout.addWidget(self.intro_label)
         layout.addLayout(form)
         layout.addWidget(self.problem_label)
         layout.addWidget(self.buttons)
@@ -115,6 +115,11 @@ class SignOffDialog(QDialog):
         self._ticker.start(1000)
         self._show_time()
         self.name_edit.setFocus()
+
+    def showEvent(self, event) -> None:  # noqa: N802 (Qt's name)
+        """Enter signs (the button box would otherwise make another button the default on showing)."""
+        super().showEvent(event)
+        self.sign_button.setDefault(True)
 
     @staticmethod
     def _intro_text(prepared: Signature | None) -> str:
