@@ -1,0 +1,193 @@
+"""Every bad file gets one plain sentence (a ReadingsError), never a traceback, and is never changed."""
+
+import io
+import os
+import pathlib
+import zipfile
+
+import openpyxl
+import pytest
+
+from rankwise.readings import ReadingsError, open_readings
+from rankwise.readings import open as open_module
+from rankwise.readings import open_xlsx
+
+DEMO = pathlib.Path(__file__).resolve().parents[2] / "demo_files"
+
+
+def one_sentence(message: str) -> bool:
+    """A plain sentence: starts with a capital or a quote, ends with a full stop, no code words."""
+    return (message[:1].isupper() or message[:1] == "'") and message.endswith(".") and "Error" not in message
+
+
+def refused(path, match, **options):
+    with pytest.raises(ReadingsError, match=match) as caught:
+        open_readings(path, **options)
+    message = str(caught.value)
+    assert one_sentence(message), message
+    assert message.count(". ") == 0, f"more than one sentence: {message}"
+    return message
+
+
+def test_missing_file(tmp_path):
+    refused(tmp_path / "nowhere.csv", "There is no file")
+
+
+def test_a_folder(tmp_path):
+    refused(tmp_path, "is a folder")
+
+
+def test_no_permission(tmp_path, monkeypatch):
+    """Reading refused by the system (simulated: tests may run as an all-powerful user)."""
+    path = tmp_path / "locked.csv"
+    path.write_text("A\n1\n")
+
+    def refuse(*args, **kwargs):
+        raise PermissionError(13, "Permission denied")
+
+    monkeypatch.setattr(open_module, "open", refuse, raising=False)
+    refused(path, "permission to read 'locked.csv'")
+
+
+@pytest.mark.skipif(os.name != "posix" or os.geteuid() == 0, reason="needs a user without access")
+def test_no_permission_for_real(tmp_path):
+    path = tmp_path / "locked.csv"
+    path.write_text("A\n1\n")
+    path.chmod(0)
+    refused(path, "permission to read")
+
+
+def test_empty_file(tmp_path, unchanged):
+    path = tmp_path / "empty.csv"
+    path.write_bytes(b"")
+    refused(unchanged(path), "is empty")
+
+
+@pytest.mark.parametrize("content", [b"\n\n  \n", b"just some words\nand more words\n", b"Name\nAnna\nBert\nCara\n"])
+def test_text_without_numbers(tmp_path, unchanged, content):
+    path = tmp_path / "words.csv"
+    path.write_bytes(content)
+    refused(unchanged(path), "no numbers|no readings")
+
+
+def test_one_column_of_text(tmp_path):
+    path = tmp_path / "names.csv"
+    path.write_text("Operator\nAnna\nBert\n")
+    refused(path, "single column of text")
+
+
+def test_columns_of_text_only(tmp_path):
+    path = tmp_path / "names.csv"
+    path.write_text("Operator;Shift\nAnna;early\nBert;late\n")
+    refused(path, "no readings")
+
+
+@pytest.mark.parametrize(
+    ("content", "match"),
+    [
+        (bytes(range(256)) * 40, "not a spreadsheet"),
+        (b"%PDF-1.7\n" + bytes(200), "PDF document"),
+        (b"\x89PNG\r\n\x1a\n" + bytes(100), "picture"),
+        (b"\x7fELF" + bytes(300), "program"),
+        (b"1,2\n3,\x00\x01\x02\x03\x04" * 50, "not a spreadsheet"),
+    ],
+)
+def test_binary_junk(tmp_path, unchanged, content, match):
+    path = tmp_path / "junk.csv"
+    path.write_bytes(content)
+    refused(unchanged(path), match)
+
+
+def test_not_a_workbook_zip(tmp_path, unchanged):
+    path = tmp_path / "archive.xlsx"
+    with zipfile.ZipFile(path, "w") as archive:
+        archive.writestr("notes.txt", "hello")
+    refused(unchanged(path), "zip archive, not an Excel workbook")
+
+
+def test_opendocument_is_named(tmp_path):
+    path = tmp_path / "sheet.ods"
+    with zipfile.ZipFile(path, "w") as archive:
+        archive.writestr("mimetype", "application/vnd.oasis.opendocument.spreadsheet")
+        archive.writestr("content.xml", "<x/>")
+    refused(path, "OpenDocument")
+
+
+@pytest.mark.parametrize("cut", [0.3, 0.6, 0.95])
+def test_damaged_workbook(tmp_path, unchanged, cut):
+    data = (DEMO / "push_out_force_three_presses.xlsx").read_bytes()
+    path = tmp_path / "damaged.xlsx"
+    path.write_bytes(data[: int(len(data) * cut)])
+    refused(unchanged(path), "damaged")
+
+
+def test_damaged_sheet_inside_a_sound_zip(tmp_path):
+    source = DEMO / "push_out_force_three_presses.xlsx"
+    path = tmp_path / "broken.xlsx"
+    with zipfile.ZipFile(source) as original, zipfile.ZipFile(path, "w") as copy:
+        for item in original.infolist():
+            data = original.read(item.filename)
+            if item.filename == "xl/worksheets/sheet1.xml":
+                data = data[: len(data) // 2]
+            copy.writestr(item, data)
+    refused(path, "damaged")
+
+
+def test_xlsx_name_on_a_text_file(tmp_path):
+    path = tmp_path / "fake.xlsx"
+    path.write_text("A,B\n1,2\n")
+    refused(path, "damaged")
+
+
+def test_password_protected_or_old_workbook(tmp_path, unchanged):
+    """Encrypted XLSX files and old .xls files are stored in the same compound-file container."""
+    path = tmp_path / "locked.xlsx"
+    path.write_bytes(open_xlsx.OLE_SIGNATURE + bytes(2000))
+    refused(unchanged(path), "password-protected")
+
+
+def test_workbook_without_numbers(tmp_path, unchanged):
+    workbook = openpyxl.Workbook()
+    workbook.active.append(["Operator", "Shift"])
+    workbook.active.append(["Anna", "early"])
+    path = tmp_path / "words.xlsx"
+    workbook.save(path)
+    refused(unchanged(path), "no readings")
+
+
+def test_huge_first_line(tmp_path, unchanged):
+    path = tmp_path / "huge.csv"
+    path.write_bytes(b"1" * (3 << 20))
+    refused(unchanged(path), "more than a million characters")
+
+
+def test_huge_cell_further_down(tmp_path):
+    lines = ["A;B"] + [f"{i}.5;{i}.25" for i in range(600)]
+    lines[500] = "1.5;" + "9" * 50_000
+    path = tmp_path / "huge.csv"
+    path.write_text("\n".join(lines) + "\n")
+    refused(path, "Row 501 .* 50,000 characters")
+
+
+def test_zip_bomb_by_packing_ratio(tmp_path, unchanged):
+    """A member that unpacks to 20 MB of zeros from a few kB is refused before anything is unpacked."""
+    path = tmp_path / "bomb.xlsx"
+    with zipfile.ZipFile(path, "w", zipfile.ZIP_DEFLATED) as archive:
+        archive.writestr("[Content_Types].xml", "<Types/>")
+        archive.writestr("xl/workbook.xml", "<workbook/>")
+        archive.writestr("xl/worksheets/sheet1.xml", bytes(20_000_000))
+    refused(unchanged(path), "would unpack to")
+
+
+def test_zip_bomb_by_total_size(tmp_path, monkeypatch):
+    monkeypatch.setattr(open_xlsx, "MAX_UNPACKED_BYTES", 1_000_000)
+    path = tmp_path / "big.xlsx"
+    with zipfile.ZipFile(path, "w", zipfile.ZIP_STORED) as archive:
+        archive.writestr("xl/workbook.xml", os.urandom(1_200_000))
+    refused(path, "would unpack to")
+
+
+def test_wrong_encoding_chosen(tmp_path):
+    path = tmp_path / "utf16.csv"
+    path.write_bytes("A;B\n1;2\n3;4\n5;6\n".encode("utf-16"))
+    refused(path, "cannot be read as utf-8", encoding="utf-8")
