@@ -98,6 +98,8 @@ class MainWindow(QMainWindow):
         self._progress_timer = QTimer(self, singleShot=True, interval=PROGRESS_DELAY_MS)
         self._progress_timer.timeout.connect(lambda: self.results_panel.show_busy(True, self._progress))
         self._progress = 0.0
+        self._edit_timer = QTimer(self, singleShot=True, interval=0)
+        self._edit_timer.timeout.connect(lambda: self._refresh_after_edit(immediately=False))
         self._recovery_timer = QTimer(self, singleShot=True, interval=RECOVERY_DELAY_MS)
         self._recovery_timer.timeout.connect(self.save_recovery)
         self._show_tabs_for_question()
@@ -269,7 +271,9 @@ class MainWindow(QMainWindow):
         self._refresh_after_edit(immediately=True)
 
     def _on_sheet_changed(self, change) -> None:
-        self._refresh_after_edit(immediately=False)
+        # The sheet sends its notices while an edit is under way (its undo history and saved state
+        # are updated after them), so the window refreshes once the edit has finished.
+        self._edit_timer.start()
         self._recovery_timer.start()
 
     def _refresh_after_edit(self, immediately: bool) -> None:

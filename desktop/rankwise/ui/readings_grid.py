@@ -68,7 +68,9 @@ class ReadingsGrid(QTableView):
         super().setModel(model)
         model.modelAboutToBeReset.connect(self._remember_current)
         model.modelReset.connect(self._restore_current)
+        model.modelReset.connect(self._fit_spare_column)
         self.setCurrentIndex(model.index(0, 0))
+        self._fit_spare_column()
 
     def sheet_model(self) -> SheetModel:
         """The sheet model shown."""
@@ -85,6 +87,12 @@ class ReadingsGrid(QTableView):
         row = min(self._restore_to[0], model.rowCount() - 1)
         column = min(self._restore_to[1], model.columnCount() - 1)
         self.setCurrentIndex(model.index(row, column))
+
+    def _fit_spare_column(self) -> None:
+        """The spare column at the right is as wide as its title ("+ new group")."""
+        spare = self.model().columnCount() - 1
+        self.horizontalHeader().resizeSection(spare, max(self.horizontalHeader().defaultSectionSize(),
+                                                          self.horizontalHeader().sectionSizeHint(spare)))
 
     def _on_header_double_clicked(self, section: int) -> None:
         if section < len(self.sheet_model().sheet.groups):
@@ -205,7 +213,9 @@ class ReadingsGrid(QTableView):
         if self._refuse_if_read_only():
             return
         rows = sorted({r for _, r in self._selected_cells()}) or [max(0, self.currentIndex().row())]
+        column = max(0, self.currentIndex().column())
         self.sheet_model().sheet.insert_rows(rows[0], rows[-1] - rows[0] + 1)
+        self.move_to(rows[0], column)
 
     def delete_selected_rows(self) -> None:
         """Delete the selected rows in every group (the rows below move up)."""

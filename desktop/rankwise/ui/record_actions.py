@@ -100,8 +100,12 @@ class RecordActions(QObject):
         signature = SignOffDialog.ask(self.window)
         if signature is None:
             return False
+        reviewed = None
+        if dialogs.confirm(self.window, "Review signature", "Is a reviewer here to countersign now?",
+                           "Yes, countersign now", "No, only my signature"):
+            reviewed = SignOffDialog.ask(self.window, reviewing=True, prepared=signature)
         record = ResultRecord.now(self.window.last_analysis, self.window.sheet.snapshot(), self.window.last_result,
-                                  SignOff(prepared=signature, revision=self.next_revision))
+                                  SignOff(prepared=signature, reviewed=reviewed, revision=self.next_revision))
         stem = self.window.source_path.stem if self.window.source_path else "result"
         path = dialogs.ask_save_path(self.window, "Save the signed result", f"{stem}-signed-rev{self.next_revision}.xlsx",
                                      dialogs.RECORD_FILTER)

@@ -1,0 +1,91 @@
+"""Shared set-up for the window tests: a real window offscreen, dialogs answered by the test.
+
+Only the functions in ``rankwise.ui.dialogs`` (and the dialogs' ``ask`` class methods) are
+replaced; every Qt class is the real one.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from pathlib import Path
+
+import pytest
+from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QAbstractItemView, QApplication, QLineEdit
+
+from rankwise.ui import dialogs
+from rankwise.ui.main_window import MainWindow
+from rankwise.ui.recovery import RecoveryFile
+
+SCREENSHOTS = Path(__file__).resolve().parents[1] / "screenshots"
+DEMO_FILES = Path(__file__).resolve().parents[2] / "demo_files"
+
+
+@dataclass
+class Answers:
+    """What the replaced dialogs answer, and what they were told."""
+
+    confirm: bool = False
+    keep_changes: str = "discard"
+    open_path: Path | None = None
+    save_path: Path | None = None
+    problems: list[tuple[str, str]] = field(default_factory=list)
+    messages: list[tuple[str, str]] = field(default_factory=list)
+    questions: list[str] = field(default_factory=list)
+
+
+@pytest.fixture
+def answers(monkeypatch) -> Answers:
+    """Replace the window's dialogs with answers the test sets."""
+    given = Answers()
+
+    def confirm(parent, title, text, yes="Yes", no="No"):
+        given.questions.append(text)
+        return given.confirm
+
+    monkeypatch.setattr(dialogs, "confirm", confirm)
+    monkeypatch.setattr(dialogs, "ask_keep_changes", lambda parent, text: given.keep_changes)
+    monkeypatch.setattr(dialogs, "ask_open_path", lambda parent, title, file_filter=None: given.open_path)
+    monkeypatch.setattr(dialogs, "ask_save_path", lambda parent, title, suggested, file_filter: given.save_path)
+    monkeypatch.setattr(dialogs, "show_problem", lambda parent, title, text: given.problems.append((title, text)))
+    monkeypatch.setattr(dialogs, "show_message", lambda parent, title, text: given.messages.append((title, text)))
+    return given
+
+
+@pytest.fixture
+def window(qtbot, tmp_path, answers) -> MainWindow:
+    """A real main window, shown offscreen, with its own recovery file."""
+    shown = MainWindow(recovery=RecoveryFile(tmp_path / "recovery.json"))
+    qtbot.addWidget(shown)
+    shown.show()
+    qtbot.waitExposed(shown)
+    shown.activateWindow()
+    return shown
+
+
+def screenshot(widget, name: str) -> Path:
+    """Save a picture of ``widget`` into tests/screenshots/ (git-ignored) for a person to look at."""
+    SCREENSHOTS.mkdir(parents=True, exist_ok=True)
+    path = SCREENSHOTS / f"{name}.png"
+    QApplication.processEvents()
+    assert widget.grab().save(str(path)), f"could not save {path}"
+    return path
+
+
+def type_column(qtbot, grid, column: int, texts: list[str], start_row: int = 0) -> None:
+    """Type readings into one column with key presses: each text, then Enter (which moves down)."""
+    grid.setFocus()
+    grid.move_to(start_row, column)
+    for row, text in enumerate(texts, start=start_row):
+        assert grid.currentIndex().row() == row
+        qtbot.keyClicks(grid, text[0])
+        editor = QApplication.focusWidget()
+        assert isinstance(editor, QLineEdit) and grid.state() == QAbstractItemView.State.EditingState
+        qtbot.keyClicks(editor, text[1:])
+        qtbot.keyClick(editor, Qt.Key.Key_Return)
+        qtbot.waitUntil(lambda r=row: grid.currentIndex().row() == r + 1, timeout=2000)
+
+
+def wait_for_verdict(qtbot, window, timeout: int = 10000) -> None:
+    """Wait until the newest entry has been analysed and its verdict is shown."""
+    qtbot.waitUntil(lambda: not window.runner.busy and window.last_result is not None, timeout=timeout)
