@@ -106,6 +106,7 @@ CASES = {
     "two-groups-of-several": lambda: several_record(2, 12),
     "8-groups-80-character-names": lambda: several_record(8, 80),
     "12-groups-long-comment": lambda: several_record(12, 80, signed(LONG_COMMENT)),
+    "40-groups-long-comment": lambda: several_record(40, 80, signed(LONG_COMMENT)),
     "long-comment": lambda: paired_record(signed(LONG_COMMENT)),
     "plan": plan_record,
 }
@@ -120,6 +121,15 @@ def test_every_record_prints_on_exactly_one_page_with_nothing_cut_off(qapp, tmp_
     check_one_page(path, page_size)
     assert plan.fits, f"{case} on {page_size} needed more room than the page has: {plan}"
     assert plan.used_height <= plan.available_height
+
+
+def test_tick_labels_show_the_step_with_just_enough_decimals():
+    from rankwise.ui.printing.page_chart import nice_ticks, tick_text
+
+    assert [tick_text(t, nice_ticks(0, 110)) for t in nice_ticks(0, 110)] == ["0", "25", "50", "75", "100"]
+    assert [tick_text(t, nice_ticks(12.0, 13.2)) for t in nice_ticks(12.0, 13.2)] == \
+        ["12.00", "12.25", "12.50", "12.75", "13.00"]
+    assert [tick_text(t, nice_ticks(0.0, 1.0)) for t in nice_ticks(0.0, 1.0)] == ["0.0", "0.2", "0.4", "0.6", "0.8", "1.0"]
 
 
 def test_long_names_and_comments_make_the_page_more_compact_not_longer(qapp, tmp_path):
@@ -169,6 +179,20 @@ def test_a_failed_write_leaves_the_old_file_untouched_and_no_temporary_file(qapp
         write_verdict_pdf(path, broken, "A4")
     assert path.read_bytes() == b"the earlier printout"
     assert sorted(p.name for p in tmp_path.iterdir()) == ["verdict.pdf"]
+
+
+def test_a_new_pdf_gets_ordinary_permissions_and_a_replaced_one_keeps_its_own(qapp, tmp_path):
+    umask = os.umask(0)
+    os.umask(umask)
+    fresh = tmp_path / "fresh.pdf"
+    write_verdict_pdf(fresh, paired_record(), "A4")
+    assert fresh.stat().st_mode & 0o777 == 0o666 & ~umask
+    shared = tmp_path / "shared.pdf"
+    shared.write_bytes(b"old")
+    shared.chmod(0o640)
+    write_verdict_pdf(shared, paired_record(), "A4")
+    assert shared.stat().st_mode & 0o777 == 0o640
+    check_one_page(shared, "A4")
 
 
 def test_wrong_paper_and_missing_folder_are_refused_in_plain_words(qapp, tmp_path):

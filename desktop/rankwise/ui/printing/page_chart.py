@@ -34,9 +34,9 @@ def nice_ticks(low: float, high: float, count: int = 5) -> list[float]:
 
 
 def tick_text(value: float, ticks: list[float]) -> str:
-    """A tick label with just enough decimals to tell neighbouring ticks apart."""
-    step = abs(ticks[1] - ticks[0]) if len(ticks) > 1 else abs(value) or 1.0
-    decimals = max(0, -math.floor(math.log10(step) + 1e-9)) + (1 if round(step / 10 ** math.floor(math.log10(step)), 6) == 2.5 else 0)
+    """A tick label with just enough decimals to show the step between ticks exactly."""
+    step = abs(ticks[1] - ticks[0]) if len(ticks) > 1 else 1.0
+    decimals = next(d for d in range(0, 10) if abs(round(step, d) - step) <= step * 1e-9 or d == 9)
     return f"{value:.{decimals}f}"
 
 

@@ -34,6 +34,8 @@ class Fit:
         comment_lines: most lines of a sign-off comment.
         note_count, note_lines: most method/assumption notes, and lines per note.
         chart_height: the chart's height in points (before ``scale``).
+        group_rows: most rows of the groups table.
+        sentences: most verdict sentences under the headline.
     """
 
     scale: float
@@ -42,16 +44,18 @@ class Fit:
     note_count: int
     note_lines: int
     chart_height: float
+    group_rows: int
+    sentences: int
 
 
 FITS = (
-    Fit(1.00, 24, 5, 8, 4, 210),
-    Fit(0.93, 20, 4, 6, 3, 190),
-    Fit(0.86, 16, 3, 5, 3, 170),
-    Fit(0.80, 14, 3, 4, 2, 150),
-    Fit(0.74, 12, 2, 3, 2, 135),
-    Fit(0.68, 10, 2, 3, 2, 120),
-    Fit(0.62, 8, 1, 2, 1, 110),
+    Fit(1.00, 24, 5, 8, 4, 210, 12, 8),
+    Fit(0.93, 20, 4, 6, 3, 190, 12, 6),
+    Fit(0.86, 16, 3, 5, 3, 170, 10, 5),
+    Fit(0.80, 14, 3, 4, 2, 150, 10, 4),
+    Fit(0.74, 12, 2, 3, 2, 135, 8, 4),
+    Fit(0.68, 10, 2, 3, 2, 120, 8, 3),
+    Fit(0.62, 8, 1, 2, 1, 110, 6, 3),
 )
 """Arrangements tried in order; the first that fits is printed."""
 
@@ -183,7 +187,8 @@ class _Composer:
             self.text_line(title, "small_bold", QRectF(left, y, share * self.width - self.pt(4), row_height), align,
                            colour=MUTED_INK)
         y += row_height
-        for row in c.groups:
+        shown = c.groups if len(c.groups) <= self.fit.group_rows else c.groups[: self.fit.group_rows - 1]
+        for row in shown:
             marker = self.pt(5.5)
             if self.drawing:
                 draw_marker(self.painter, row.index, QPointF(x + marker * 0.7, y + row_height / 2), marker)
@@ -196,6 +201,10 @@ class _Composer:
                     self.text_line(text, "small", QRectF(left, y, share * self.width - self.pt(4), row_height),
                                    Qt.AlignmentFlag.AlignRight)
             y += row_height
+        if len(shown) < len(c.groups):
+            y = self.put(self.paragraph(f"… and {len(c.groups) - len(shown)} more groups, numbered in the chart "
+                                        "below; every group is in the signed workbook.", "italic", self.width),
+                         x, y, MUTED_INK)
         return y
 
     def verdict(self, x: float, y: float) -> float:
@@ -205,9 +214,12 @@ class _Composer:
         top = y
         y = self.put(self.paragraph(v.headline, "headline", width, max_lines=3), x + indent, y)
         y += self.pt(3)
-        for sentence in v.sentences:
+        for sentence in v.sentences[: self.fit.sentences]:
             y = self.put(self.paragraph(sentence, "body", width, max_lines=5), x + indent, y)
             y += self.pt(1.5)
+        if len(v.sentences) > self.fit.sentences:
+            y = self.put(self.paragraph(f"{len(v.sentences) - self.fit.sentences} more findings are in the "
+                                        "signed workbook.", "italic", width), x + indent, y, MUTED_INK)
         if self.drawing:
             self.painter.setPen(QPen(QColor(ACCENT_COLOUR), 3.2 * self.k))
             self.painter.drawLine(QLineF(x + self.pt(2), top, x + self.pt(2), y))

@@ -43,6 +43,15 @@ def paint_record(device, record) -> PagePlan:
         painter.end()
 
 
+def _mode_for(target: Path) -> int:
+    """The replaced file's permissions, or those of a newly created file (the temporary is private)."""
+    if target.exists():
+        return target.stat().st_mode & 0o777
+    umask = os.umask(0)
+    os.umask(umask)
+    return 0o666 & ~umask
+
+
 def write_verdict_pdf(path, record, page_size: str = "A4") -> PagePlan:
     """Write the one-page verdict of ``record`` to ``path`` as PDF/A-1b, atomically.
 
@@ -67,6 +76,7 @@ def write_verdict_pdf(path, record, page_size: str = "A4") -> PagePlan:
         del writer
         if os.path.getsize(temporary) == 0:
             raise OSError(f"The PDF could not be written to {target}.")
+        os.chmod(temporary, _mode_for(target))
         os.replace(temporary, target)
     except BaseException:
         if os.path.exists(temporary):
