@@ -33,7 +33,7 @@ class ChartFrame(pg.PlotWidget):
         self._note.setFont(style.chart_font(11.0))
         self._note.setZValue(50)
         self.plot_item.addItem(self._note, ignoreBounds=True)
-        offset = {"top-right": (-8, 8), "top-left": (8, 8)}[legend_corner]
+        offset = {"top-right": (-8, 8), "top-left": (8, 8), "bottom-right": (-8, -8)}[legend_corner]
         self.legend = self.plot_item.addLegend(offset=offset, labelTextColor=style.INK,
                                                brush=pg.mkBrush(255, 255, 255, 220),
                                                pen=pg.mkPen("#BBBBBB"))

@@ -27,6 +27,7 @@ class PowerCurvePlot(ChartFrame):
             idle_note="For a planning question, the chance of detecting the shift appears here.",
             bottom="Parts per group",
             left="Chance of detecting the shift (%)",
+            legend_corner="bottom-right",
         )
         self._curve = pg.PlotDataItem(pen=pg.mkPen(style.OBSERVED_COLOUR, width=2.5), symbol="o",
                                       symbolSize=7, symbolBrush=pg.mkBrush(style.OBSERVED_COLOUR),
@@ -43,7 +44,7 @@ class PowerCurvePlot(ChartFrame):
                                        labelOpts={**label_options, "position": 0.05,
                                                   "anchors": [(0, 1), (0, 1)]})
         self._planned = pg.InfiniteLine(angle=90, movable=False, pen=pg.mkPen(style.INK, width=2),
-                                        label="", labelOpts={**label_options, "position": 0.12})
+                                        label="", labelOpts={**label_options, "position": 0.55})
         for line in (self._target, self._planned):
             self.plot_item.addItem(line, ignoreBounds=True)
         self.clear()

@@ -19,12 +19,6 @@ GROUP_COLOURS = ("#0072B2", "#D55E00", "#009E73", "#CC79A7", "#E69F00", "#56B4E9
 GROUP_SYMBOLS = ("o", "s", "t1", "d", "t", "p", "h", "star", "x", "+")
 """Marker shapes in the order groups receive them: circle, square, triangles, diamond, pentagon..."""
 
-SYMBOL_WORDS = {
-    "o": "circle", "s": "square", "t1": "triangle up", "d": "diamond", "t": "triangle down",
-    "p": "pentagon", "h": "hexagon", "star": "star", "x": "cross", "+": "plus",
-}
-"""The shape's name in words, for legends and tooltips."""
-
 BACKGROUND = "#FFFFFF"
 INK = "#222222"
 """Text and axis colour."""
