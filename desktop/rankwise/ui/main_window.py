@@ -80,6 +80,7 @@ class MainWindow(QMainWindow):
         self.resize(1440, 900)
         self.recovery = recovery if recovery is not None else RecoveryFile()
         self.source_path: Path | None = None
+        self.restored_unsaved = False
         self.last_result = None
         self.last_analysis: Analysis | None = None
 
@@ -266,6 +267,7 @@ class MainWindow(QMainWindow):
         self._on_sheet_replaced()
 
     def _on_sheet_replaced(self) -> None:
+        self.restored_unsaved = False
         self.sheet.subscribe(self._on_sheet_changed)
         self._update_title()
         self._refresh_after_edit(immediately=True)
@@ -306,7 +308,7 @@ class MainWindow(QMainWindow):
 
     def _update_title(self) -> None:
         name = self.source_path.name if self.source_path else "New sheet"
-        marker = " •" if self.sheet.is_modified else ""
+        marker = " •" if self.has_unsaved_readings() else ""
         signed = " (signed, read-only)" if self.sheet_model.read_only else ""
         self.setWindowTitle(f"{name}{marker}{signed} — Rankwise")
 
@@ -470,15 +472,17 @@ class MainWindow(QMainWindow):
     # -- files -----------------------------------------------------------------------------------
     def _may_replace_sheet(self) -> bool:
         """True when the current entry may be replaced (saved, empty, or the user agreed)."""
-        if not self.sheet.is_modified or not self._has_text():
+        if not self.has_unsaved_readings():
             return True
         answer = dialogs.ask_keep_changes(self, "The readings in the sheet are not saved. Save them before going on?")
         if answer == "save":
             return self.save_readings()
         return answer == "discard"
 
-    def _has_text(self) -> bool:
-        return any(cell.text for group in self.sheet.groups for cell in group.cells)
+    def has_unsaved_readings(self) -> bool:
+        """True when the sheet holds typed text that is not saved (a restored entry counts as unsaved)."""
+        has_text = any(cell.text for group in self.sheet.groups for cell in group.cells)
+        return has_text and (self.sheet.is_modified or self.restored_unsaved)
 
     def new_sheet(self) -> None:
         """Start an empty sheet (after asking about unsaved readings)."""
@@ -525,10 +529,12 @@ class MainWindow(QMainWindow):
         """Put opened readings into the sheet and analyse them."""
         sheet = ReadingSheet.from_reading_set(reading_set)
         sheet.mark_saved()
+        several = len(sheet.groups) >= 3
+        if several != (self.question_panel.option.question is Question.SEVERAL):
+            self.question_panel.select_option("several" if several else "differ")
         self.set_sheet(sheet, path)
         self.recovery.clear()
-        for note in reading_set.notes:
-            self.statusBar().showMessage(note, 10000)
+        self.statusBar().showMessage(f"Opened {path.name}. " + " ".join(reading_set.notes), 15000)
 
     def open_demo(self) -> bool:
         """Open the demo readings (surface roughness from two grinding wheels; invented data)."""
@@ -558,6 +564,7 @@ class MainWindow(QMainWindow):
             dialogs.show_problem(self, "Cannot save the readings", str(error))
             return False
         self.sheet.mark_saved()
+        self.restored_unsaved = False
         self.source_path = path
         remember_file(path)
         self.recovery.clear()
@@ -575,7 +582,7 @@ class MainWindow(QMainWindow):
     # -- nothing lost ----------------------------------------------------------------------------
     def save_recovery(self) -> None:
         """Write the entry to the recovery file (or remove it when there is nothing unsaved)."""
-        if not self.sheet.is_modified or not self._has_text():
+        if not self.has_unsaved_readings():
             self.recovery.clear()
             return
         try:
@@ -605,8 +612,9 @@ class MainWindow(QMainWindow):
         sheet = ReadingSheet.from_snapshot(snapshot)
         source = Path(stored["source"]) if stored.get("source") else None
         self.set_sheet(sheet, source)
-        self.sheet.set_modified() if hasattr(self.sheet, "set_modified") else None
+        self.restored_unsaved = True
         self.question_panel.from_dict(stored.get("question", {}))
+        self._update_title()
         return True
 
     def closeEvent(self, event: QCloseEvent) -> None:  # noqa: N802 - Qt API

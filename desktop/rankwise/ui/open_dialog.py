@@ -32,6 +32,9 @@ from rankwise.readings import ReadingSet, ReadingsError
 PREVIEW_ROWS = 15
 """Rows of the file shown in the preview."""
 
+PREVIEW_COLUMN_WIDTH = 240
+"""Widest a preview column gets; longer texts (title lines) show whole in their tooltip."""
+
 LAYOUTS = (("wide", "A column per group"), ("stacked", "A value column and a group column"))
 DECIMALS = (("auto", "Decide from the file"), (".", "Point (0.42)"), (",", "Comma (0,42)"))
 
@@ -77,13 +80,20 @@ class OpenReadingsDialog(QDialog):
         self.found = QLabel()
         self.found.setObjectName("openFound")
         self.found.setWordWrap(True)
+        self.found.setTextFormat(Qt.TextFormat.RichText)
         self.found.setAccessibleName("How the file was understood")
+        self.notes = QLabel()
+        self.notes.setObjectName("openNotes")
+        self.notes.setWordWrap(True)
+        self.notes.setTextFormat(Qt.TextFormat.RichText)
+        self.notes.setAccessibleName("Notes on reading the file")
         self.preview = QTableWidget()
         self.preview.setAccessibleName("The first rows of the file")
         self.preview.setEditTriggers(QAbstractItemView.EditTrigger.NoEditTriggers)
         self.groups_list = QListWidget()
         self.groups_list.setAccessibleName("Groups that will be loaded")
         self.skipped_list = QListWidget()
+        self.skipped_list.setWordWrap(True)
         self.skipped_list.setAccessibleName("Cells that will be skipped, with the reason")
         self.problem = QLabel()
         self.problem.setObjectName("dialogProblem")
@@ -108,6 +118,7 @@ class OpenReadingsDialog(QDialog):
         preview_title.setObjectName("sectionTitle")
         layout = QVBoxLayout(self)
         layout.addWidget(self.found)
+        layout.addWidget(self.notes)
         layout.addLayout(form)
         layout.addWidget(preview_title)
         layout.addWidget(self.preview, 2)
@@ -160,8 +171,9 @@ class OpenReadingsDialog(QDialog):
             details.append("separator " + {"\t": "tab", ";": "semicolon", ",": "comma", "|": "bar"}.get(source.delimiter, repr(source.delimiter)))
         if source.header_row:
             details.append(f"column titles on row {source.header_row + 1} (the rows above are a title block)")
-        notes = " ".join(reading_set.notes)
-        self.found.setText(f"<b>{self.path.name}</b>: found " + ", ".join(details) + "." + (f" {notes}" if notes else ""))
+        self.found.setText(f"<b>{_escape(self.path.name)}</b>: found " + _escape(", ".join(details)) + ".")
+        self.notes.setText("".join(f"• {_escape(note)}<br>" for note in reading_set.notes))
+        self.notes.setVisible(bool(reading_set.notes))
 
     def _show_preview(self, source) -> None:
         rows = source.preview[:PREVIEW_ROWS]
@@ -173,6 +185,7 @@ class OpenReadingsDialog(QDialog):
         for r, row in enumerate(rows):
             for c, text in enumerate(row):
                 item = QTableWidgetItem(text)
+                item.setToolTip(text)
                 if r == source.header_row:
                     font = item.font()
                     font.setBold(True)
@@ -183,6 +196,8 @@ class OpenReadingsDialog(QDialog):
                     item.setToolTip("Title block: not read as readings")
                 self.preview.setItem(r, c, item)
         self.preview.resizeColumnsToContents()
+        for column in range(width):
+            self.preview.setColumnWidth(column, min(self.preview.columnWidth(column), PREVIEW_COLUMN_WIDTH))
 
     def _show_groups(self, reading_set: ReadingSet) -> None:
         self.groups_list.clear()
@@ -239,3 +254,7 @@ class OpenReadingsDialog(QDialog):
 
         dialog = cls(parent, path, open_readings(path))
         return dialog.reading_set if dialog.exec() == QDialog.DialogCode.Accepted else None
+
+
+def _escape(text: str) -> str:
+    return text.replace("&", "&amp;").replace("<", "&lt;").replace(">", "&gt;")

@@ -49,10 +49,11 @@ class _AnalysisJob(QRunnable):
     def run(self) -> None:
         """Compute on the worker thread; report only through signals."""
         from rankwise.stats.progress import Cancelled, Monitor
-        from rankwise.stats.service import run
 
         monitor = Monitor(progress=self._report, cancelled=self.stop_requested.is_set)
         try:
+            from rankwise.stats.service import run
+
             result = run(self.analysis, monitor)
         except Cancelled:
             self.signals.cancelled.emit(self.generation)

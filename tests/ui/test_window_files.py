@@ -1,0 +1,107 @@
+"""Opening files through the open dialog, saving the readings as typed, recent files."""
+
+from __future__ import annotations
+
+import hashlib
+
+import pytest
+
+from window_support import DEMO_FILES, answers, screenshot, window  # noqa: F401 - pytest fixtures
+
+from rankwise.readings import open_readings
+from rankwise.ui.open_dialog import OpenReadingsDialog
+from rankwise.ui.recent_files import recent_files
+
+DEMO_GROUPS = {
+    "two_wheels_roughness.csv": ["Wheel A (current)", "Wheel B (new)"],
+    "push_out_force_three_presses.xlsx": ["Press 1", "Press 2", "Press 3"],
+    "coating_before_after_cure.csv": ["Before cure (µm)", "After cure (µm)"],
+    "long_export.csv": ["Line 1", "Line 2"],
+    "gauge_sheet_bore_diameter.xlsx": ["Before tool change", "After tool change"],
+}
+
+
+def _dialog_that_loads(qtbot, seen: dict, change=None):
+    """An ``ask`` that shows the real dialog, lets the test look (and change a choice), then loads."""
+
+    def ask(cls, parent, path):
+        dialog = cls(parent, path, open_readings(path))
+        qtbot.addWidget(dialog)
+        dialog.show()
+        qtbot.waitExposed(dialog)
+        if change is not None:
+            change(dialog)
+        seen["groups"] = [dialog.groups_list.item(i).text() for i in range(dialog.groups_list.count())]
+        seen["skipped"] = [dialog.skipped_list.item(i).text() for i in range(dialog.skipped_list.count())]
+        seen["found"] = dialog.found.text()
+        seen["preview_rows"] = dialog.preview.rowCount()
+        screenshot(dialog, f"open-dialog-{path.stem}")
+        dialog.accept()
+        return dialog.reading_set
+
+    return classmethod(ask)
+
+
+@pytest.mark.parametrize("name", sorted(DEMO_GROUPS))
+def test_open_each_demo_file_through_the_dialog(qtbot, window, answers, monkeypatch, name):
+    """Each demo file shows a preview, its groups and skipped cells, then lands in the grid unchanged on disk."""
+    path = DEMO_FILES / name
+    before = hashlib.sha256(path.read_bytes()).hexdigest()
+    seen: dict = {}
+    monkeypatch.setattr(OpenReadingsDialog, "ask", _dialog_that_loads(qtbot, seen))
+    answers.open_path = path
+    window.ask_and_open()
+    assert window.sheet.group_names == DEMO_GROUPS[name]
+    assert len(seen["groups"]) == len(DEMO_GROUPS[name]) and seen["preview_rows"] > 0
+    assert name in seen["found"]
+    assert window.source_path == path and not window.sheet.is_modified
+    assert path.resolve() in recent_files()
+    assert hashlib.sha256(path.read_bytes()).hexdigest() == before
+    assert answers.problems == []
+
+
+def test_scrap_cell_is_listed_with_its_reason(qtbot, window, answers, monkeypatch):
+    """The open dialog lists the 'scrap' cell of the press workbook with the reason it is skipped."""
+    seen: dict = {}
+    monkeypatch.setattr(OpenReadingsDialog, "ask", _dialog_that_loads(qtbot, seen))
+    answers.open_path = DEMO_FILES / "push_out_force_three_presses.xlsx"
+    window.ask_and_open()
+    assert any("'scrap'" in line for line in seen["skipped"])
+    assert window.question_panel.option.key == "several"
+
+
+def test_changing_the_group_column_regroups_the_readings(qtbot, window, answers, monkeypatch):
+    """In the long export, choosing the operator column as group labels gives the operators as groups."""
+    seen: dict = {}
+
+    def choose_operator(dialog):
+        dialog.group_column.setCurrentIndex(dialog.group_column.findData("Operator"))
+
+    monkeypatch.setattr(OpenReadingsDialog, "ask", _dialog_that_loads(qtbot, seen, choose_operator))
+    answers.open_path = DEMO_FILES / "long_export.csv"
+    window.ask_and_open()
+    expected = [g.name for g in open_readings(DEMO_FILES / "long_export.csv", layout="stacked",
+                                              value_column="Runout (mm)", group_column="Operator").groups]
+    assert window.sheet.group_names == expected and "Line 1" not in expected
+
+
+def test_a_file_that_is_not_readings_gives_a_plain_problem(qtbot, window, answers, tmp_path):
+    """Opening binary junk says what is wrong in words and leaves the sheet as it was."""
+    junk = tmp_path / "junk.csv"
+    junk.write_bytes(bytes(range(256)) * 4)
+    window.grid.paste_text("1\n2\n")
+    answers.keep_changes = "discard"
+    assert not window.open_path(junk)
+    assert answers.problems and answers.problems[0][0] == "Cannot open the file"
+    assert window.sheet.cell(0, 1).text == "2"
+
+
+def test_save_readings_as_typed_and_open_again(qtbot, window, answers, tmp_path):
+    """Saved readings keep the texts as typed (notes included) and open again to the same groups."""
+    window.grid.paste_text("0,41\t0,47\nscrap\t0,52\n0,40\t\n")
+    answers.save_path = tmp_path / "entry.csv"
+    assert window.save_readings()
+    assert not window.sheet.is_modified and window.source_path == answers.save_path
+    reopened = open_readings(answers.save_path)
+    assert [g.name for g in reopened.groups] == ["A", "B"]
+    assert [c.text for c in reopened.groups[0].cells if c.text] == ["0,41", "scrap", "0,40"]
