@@ -238,7 +238,7 @@ class _Composer:
         label_width, value_width = left_width * 0.58, left_width * 0.40
         for number in sorted(shown, key=lambda n: order[n.key]):
             label = self.paragraph(number.label, "small", label_width, max_lines=2)
-            value = self.paragraph(number.text, "small_bold", value_width, max_lines=2,
+            value = self.paragraph(number.text, "small_bold", value_width, max_lines=3,
                                    align=Qt.AlignmentFlag.AlignRight)
             self.put(label, x, left_y)
             self.put(value, x + left_width - value_width, left_y)
