@@ -48,6 +48,11 @@ PAIRED_DIRECTIONS = (
     ("b-less", "after reads lower"),
 )
 POWERS = ((0.8, "8 in 10"), (0.9, "9 in 10"), (0.95, "19 in 20"))
+METHODS = (
+    ("auto", "exact when affordable"),
+    ("exact", "always exact"),
+    ("normal", "normal approximation"),
+)
 
 
 @dataclass(frozen=True)
@@ -121,6 +126,10 @@ class QuestionPanel(QWidget):
         self.direction = _combo("Look for", "Same parts: look for any change, or only for one direction.")
         for value, text in PAIRED_DIRECTIONS:
             self.direction.addItem(text, value)
+        self.method = _combo("p-value found by", "Exact: from every way the ranks could fall (slow for very large groups). "
+                             "Normal approximation: fast, close for large groups.")
+        for value, text in METHODS:
+            self.method.addItem(text, value)
         self.margin = _spin("Margin", "How far apart A and B may be and still count as the same for this part.")
         self.margin_unit = _combo("Margin given as", "Give the margin in the readings' unit, or as a share of the tolerance width (USL - LSL).")
         self.planned_shift = _spin("Shift worth finding", "The smallest change of the readings that matters, in the readings' unit.")
@@ -141,6 +150,7 @@ class QuestionPanel(QWidget):
             ("b", "Group B (changed)", self.group_b),
             ("reference", "Compare", self.reference),
             ("direction", "Look for", self.direction),
+            ("method", "p-value", self.method),
             ("margin", "Margin ±", self.margin),
             ("margin_unit", "Margin given", self.margin_unit),
             ("shift", "Shift worth finding", self.planned_shift),
@@ -155,7 +165,8 @@ class QuestionPanel(QWidget):
         layout.addStretch(1)
 
         self._buttons.idToggled.connect(self._on_option_toggled)
-        for box in (self.level, self.group_a, self.group_b, self.reference, self.direction, self.margin_unit, self.power):
+        for box in (self.level, self.group_a, self.group_b, self.reference, self.direction, self.method, self.margin_unit,
+                    self.power):
             box.currentIndexChanged.connect(self._on_setting_changed)
         for spin in (self.margin, self.planned_shift, self.planned_spread):
             spin.valueChanged.connect(self._on_setting_changed)
@@ -212,7 +223,8 @@ class QuestionPanel(QWidget):
     def choice(self) -> QuestionChoice:
         """The question, its settings and the groups it concerns, as the picker shows them now."""
         option = self.option
-        settings = Settings(alpha=float(self.level.currentData()), alternative=option.alternative)
+        settings = Settings(alpha=float(self.level.currentData()), alternative=option.alternative,
+                            method=str(self.method.currentData()))
         names = self._group_names
         if option.question is Question.PLAN:
             settings = replace(
@@ -255,6 +267,7 @@ class QuestionPanel(QWidget):
             "group_b": self.group_b.currentText(),
             "reference": self.reference.currentData(),
             "direction": self.direction.currentData(),
+            "method": self.method.currentData(),
             "margin": self.margin.value(),
             "margin_unit": self.margin_unit.currentData(),
             "planned_shift": self.planned_shift.value(),
@@ -271,7 +284,7 @@ class QuestionPanel(QWidget):
                 self.select_option(state["option"])
             for box, key, by_text in (
                 (self.level, "alpha", False), (self.group_a, "group_a", True), (self.group_b, "group_b", True),
-                (self.reference, "reference", False), (self.direction, "direction", False),
+                (self.reference, "reference", False), (self.direction, "direction", False), (self.method, "method", False),
                 (self.margin_unit, "margin_unit", False), (self.power, "power", False),
             ):
                 if key in state:
@@ -298,7 +311,7 @@ class QuestionPanel(QWidget):
                 "b-greater": "b-higher", "b-less": "b-lower"}.get(settings.alternative, "differ")
         state = {
             "option": option, "alpha": settings.alpha, "direction": settings.alternative,
-            "reference": settings.reference, "margin_unit": "units",
+            "reference": settings.reference, "margin_unit": "units", "method": settings.method,
         }
         if len(names) >= 2:
             state.update(group_a=names[0], group_b=names[1])
@@ -349,6 +362,7 @@ class QuestionPanel(QWidget):
             "b": question in (Question.TWO_GROUPS, Question.PAIRED),
             "reference": question is Question.SEVERAL,
             "direction": question is Question.PAIRED,
+            "method": question is not Question.PLAN,
             "margin": self.option.wants_margin,
             "margin_unit": self.option.wants_margin,
             "shift": question is Question.PLAN,

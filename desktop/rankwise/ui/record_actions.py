@@ -163,7 +163,7 @@ class RecordActions(QObject):
 
     def check_record(self) -> None:
         """Ask for a signed result workbook and say, in plain words, whether it is unchanged."""
-        from rankwise.records import verify_record
+        from rankwise.records.verify import verify_record
 
         path = dialogs.ask_open_path(self.window, "Check a signed record", dialogs.RECORD_FILTER)
         if path is None:

@@ -1,0 +1,155 @@
+"""Window speed: from an edit to the updated verdict (2 x 200 readings), and from launch to a visible window.
+
+Run as a script (not collected by pytest):
+
+    QT_QPA_PLATFORM=offscreen .venv/bin/python tests/benchmarks/bench_window.py
+
+Prints a table; each figure is set against a reference measured in the same run:
+- edit -> verdict is compared with calling the statistics service directly on the same readings
+  (the floor: the window cannot be faster than the computation it shows);
+- launch -> visible window is compared with a bare PySide6 window started the same way.
+Aims (issue 4): edit -> verdict <= 100 ms (the 150 ms typing pause comes on top); launch <= 2 s.
+"""
+
+from __future__ import annotations
+
+import os
+import statistics
+import subprocess
+import sys
+import tempfile
+import textwrap
+import time
+
+os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+
+import numpy as np  # noqa: E402
+from PySide6.QtWidgets import QApplication  # noqa: E402
+
+REPEATS = 15
+
+
+def _readings(seed: int = 7) -> list[list[str]]:
+    """2 x 200 invented readings at 0.01 resolution (ties occur), as typed texts."""
+    generator = np.random.default_rng(seed)
+    a = np.round(generator.normal(0.42, 0.05, 200), 2)
+    b = np.round(generator.normal(0.45, 0.05, 200), 2)
+    return [[f"{x:.2f}", f"{y:.2f}"] for x, y in zip(a, b)]
+
+
+def _wait(application: QApplication, condition, timeout: float = 30.0) -> None:
+    deadline = time.perf_counter() + timeout
+    while not condition():
+        application.processEvents()
+        if time.perf_counter() > deadline:
+            raise TimeoutError("the window did not answer in time")
+
+
+def bench_edit_to_verdict(application: QApplication) -> tuple[list[float], list[float], list[float]]:
+    """Milliseconds from a typed edit to the shown verdict: without the typing pause, with it, and the service alone."""
+    from rankwise.stats.service import run
+    from rankwise.ui import dialogs
+    from rankwise.ui.main_window import MainWindow
+    from rankwise.ui.recovery import RecoveryFile
+
+    dialogs.ask_keep_changes = lambda parent, text: "discard"
+    folder = tempfile.mkdtemp(prefix="rankwise-bench-")
+    window = MainWindow(recovery=RecoveryFile(os.path.join(folder, "recovery.json")))
+    window.show()
+    window.grid.paste_text("\n".join("\t".join(row) for row in _readings()))
+    shown: list[object] = []
+    window.runner.result_ready.connect(lambda result, analysis: shown.append(result))
+    _wait(application, lambda: bool(shown) and not window.runner.busy)
+
+    at_once, with_pause, service_only = [], [], []
+    for repeat in range(REPEATS):
+        for immediate, times in ((True, at_once), (False, with_pause)):
+            shown.clear()
+            text = f"0.{40 + (repeat * 2 + immediate) % 9}"
+            start = time.perf_counter()
+            window.sheet.set_text(0, 5, text)
+            if immediate:
+                window._edit_timer.stop()
+                window._refresh_after_edit(immediately=True)
+            _wait(application, lambda: bool(shown) and not window.runner.busy)
+            application.processEvents()
+            times.append((time.perf_counter() - start) * 1000.0)
+        analysis, _ = window.build_analysis()
+        start = time.perf_counter()
+        run(analysis)
+        service_only.append((time.perf_counter() - start) * 1000.0)
+    window.close()
+    return at_once, with_pause, service_only
+
+
+_LAUNCH = """
+    import sys, time
+    started = float(sys.argv[1])
+    from PySide6.QtCore import QTimer
+    from PySide6.QtWidgets import QApplication
+    application = QApplication(sys.argv[:1])
+    def check():
+        shown = [w for w in application.topLevelWidgets() if w.isVisible() and w.isWindow() and w.objectName() == "rankwiseMainWindow"]
+        if shown:
+            print(time.time() - started)
+            application.quit()
+        else:
+            QTimer.singleShot(5, check)
+    QTimer.singleShot(0, check)
+    from rankwise.app import main
+    main([])
+"""
+
+_BARE = """
+    import sys, time
+    started = float(sys.argv[1])
+    from PySide6.QtCore import QTimer
+    from PySide6.QtWidgets import QApplication, QMainWindow
+    application = QApplication(sys.argv[:1])
+    window = QMainWindow()
+    window.setObjectName("rankwiseMainWindow")
+    window.show()
+    def check():
+        if window.isVisible():
+            print(time.time() - started)
+            application.quit()
+        else:
+            QTimer.singleShot(5, check)
+    QTimer.singleShot(0, check)
+    application.exec()
+"""
+
+
+def bench_launch(code: str, repeats: int = 5) -> list[float]:
+    """Milliseconds from starting a fresh interpreter to a visible window."""
+    environment = dict(os.environ, QT_QPA_PLATFORM="offscreen")
+    folder = tempfile.mkdtemp(prefix="rankwise-bench-home-")
+    for variable in ("XDG_CONFIG_HOME", "XDG_DATA_HOME", "XDG_STATE_HOME", "XDG_CACHE_HOME"):
+        environment[variable] = os.path.join(folder, variable.lower())
+    times = []
+    for _ in range(repeats):
+        started = time.time()
+        done = subprocess.run([sys.executable, "-c", textwrap.dedent(code), repr(started)], env=environment,
+                              capture_output=True, text=True, timeout=120, check=True)
+        times.append(float(done.stdout.strip().splitlines()[-1]) * 1000.0)
+    return times
+
+
+def main() -> None:
+    """Measure and print the table."""
+    application = QApplication.instance() or QApplication(sys.argv[:1])
+    at_once, with_pause, service_only = bench_edit_to_verdict(application)
+    launch = bench_launch(_LAUNCH)
+    bare = bench_launch(_BARE)
+    rows = [
+        ("edit -> verdict, 2 x 200 (no typing pause)", statistics.median(at_once), "statistics service alone", statistics.median(service_only), 100.0),
+        ("edit -> verdict, 2 x 200 (with 150 ms pause)", statistics.median(with_pause), "statistics service alone", statistics.median(service_only), 250.0),
+        ("launch -> visible window", statistics.median(launch), "bare PySide6 window", statistics.median(bare), 2000.0),
+    ]
+    print(f"{'measure':48} {'median ms':>10} {'reference':>26} {'ref ms':>9} {'ratio':>7} {'aim ms':>7}")
+    for name, value, reference, reference_value, aim in rows:
+        print(f"{name:48} {value:10.1f} {reference:>26} {reference_value:9.1f} {value / reference_value:7.2f} {aim:7.0f}")
+
+
+if __name__ == "__main__":
+    main()
