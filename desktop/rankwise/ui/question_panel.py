@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
-from PySide6.QtCore import Qt, Signal
+from PySide6.QtCore import Signal
 from PySide6.QtWidgets import (
     QButtonGroup,
     QComboBox,
@@ -49,9 +49,9 @@ PAIRED_DIRECTIONS = (
 )
 POWERS = ((0.8, "8 in 10"), (0.9, "9 in 10"), (0.95, "19 in 20"))
 METHODS = (
-    ("auto", "exact when affordable"),
-    ("exact", "always exact"),
-    ("normal", "normal approximation"),
+    ("auto", "automatically (exact if affordable)"),
+    ("exact", "always exactly (can be slow)"),
+    ("normal", "by the normal approximation"),
 )
 
 
@@ -142,7 +142,8 @@ class QuestionPanel(QWidget):
 
         form = QFormLayout()
         form.setFieldGrowthPolicy(QFormLayout.FieldGrowthPolicy.AllNonFixedFieldsGrow)
-        form.setLabelAlignment(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
+        form.setRowWrapPolicy(QFormLayout.RowWrapPolicy.WrapAllRows)
+        form.setVerticalSpacing(4)
         self._rows: dict[str, tuple[QLabel, QWidget]] = {}
         for key, label_text, widget in (
             ("level", "Significance level", self.level),
@@ -150,7 +151,7 @@ class QuestionPanel(QWidget):
             ("b", "Group B (changed)", self.group_b),
             ("reference", "Compare", self.reference),
             ("direction", "Look for", self.direction),
-            ("method", "p-value", self.method),
+            ("method", "p-value found", self.method),
             ("margin", "Margin ±", self.margin),
             ("margin_unit", "Margin given", self.margin_unit),
             ("shift", "Shift worth finding", self.planned_shift),
@@ -161,6 +162,10 @@ class QuestionPanel(QWidget):
             label.setBuddy(widget)
             form.addRow(label, widget)
             self._rows[key] = (label, widget)
+        settings_title = QLabel("Settings")
+        settings_title.setObjectName("sectionTitle")
+        layout.addSpacing(6)
+        layout.addWidget(settings_title)
         layout.addLayout(form)
         layout.addStretch(1)
 
