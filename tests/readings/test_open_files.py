@@ -267,3 +267,65 @@ def test_csv_sample_and_fast_reader_agree_on_a_long_file(tmp_path):
     assert rs.groups[1].values.tolist() == expected_l1
     assert [(s.row, s.text) for s in rs.groups[1].skipped] == [(4322, "0,4,2")]
     assert [c.text for c in rs.groups[0].cells if c.kind is CellKind.CENSORED] == ["<0,005"]
+
+
+# ----- big files read straight as numbers --------------------------------------------------------
+
+
+def long_numbers_file(tmp_path, rows=600):
+    """A wide file longer than the sample, only numbers and blanks: read straight as numbers."""
+    rng = np.random.default_rng(3)
+    a = np.round(rng.normal(0.42, 0.05, rows), 3)
+    b = np.round(rng.normal(0.36, 0.05, rows - 50), 3)
+    lines = ["Wheel A;Wheel B"]
+    for i in range(rows):
+        lines.append(f"{a[i]:.3f}".replace(".", ",") + ";" + (f"{b[i]:.3f}".replace(".", ",") if i < b.size else ""))
+    lines[1] = "0,420;0,400"
+    path = tmp_path / "long.csv"
+    path.write_text("\n".join(lines) + "\n")
+    return path, lines
+
+
+def test_numbers_only_columns_keep_their_texts(tmp_path):
+    path, lines = long_numbers_file(tmp_path)
+    rs = open_readings(path)
+    a, b = rs.groups
+    assert a.values.size == 600 and b.values.size == 550
+    assert a.values[0] == 0.42 and b.values[0] == 0.4
+    assert [c.text for c in a.cells] == [line.split(";")[0] for line in lines[1:]]
+    assert len(b.cells) == 550
+    assert b.cells[0].text == "0,400" and b.cells[0].decimals == 3
+    assert a.decimals == 3
+    expected = [float(line.split(";")[1].replace(",", ".")) for line in lines[1:551]]
+    assert b.values.tolist() == expected
+
+
+def test_cells_of_a_file_changed_after_opening_are_refused(tmp_path):
+    path, lines = long_numbers_file(tmp_path)
+    rs = open_readings(path)
+    lines[10] = "9,999;0,5"
+    path.write_text("\n".join(lines) + "\n")
+    with pytest.raises(ReadingsError, match="changed after it was opened"):
+        rs.groups[0].cells
+
+
+def test_infinity_is_never_a_reading(tmp_path):
+    path, lines = long_numbers_file(tmp_path)
+    lines[300] = "inf;0,5"
+    path.write_text("\n".join(lines) + "\n")
+    rs = open_readings(path)
+    assert np.isfinite(rs.groups[0].values).all()
+    assert [s.text for s in rs.groups[0].skipped] == ["inf"]
+
+
+def test_stacked_numbers_read_straight(tmp_path):
+    rng = np.random.default_rng(4)
+    lines = ["Part,Press,Force"] + [f"P{i:05d},Press {1 + i % 3},{rng.normal(18.5, 0.5):.1f}" for i in range(900)]
+    lines[500] = "P00499,Press 2,"
+    path = tmp_path / "stacked.csv"
+    path.write_text("\n".join(lines) + "\n")
+    rs = open_readings(path)
+    assert rs.group_names == ["Press 1", "Press 2", "Press 3"]
+    assert [g.values.size for g in rs.groups] == [300, 299, 300]
+    assert rs.groups[1].cells[166].kind is CellKind.EMPTY
+    assert rs.groups[0].cells[0].text == lines[1].split(",")[2]

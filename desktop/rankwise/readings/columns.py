@@ -1,20 +1,26 @@
-"""Reading a whole column of a file: a fast path for clean numbers, every other cell read one by one.
+"""Reading a whole column of a file: fast paths for clean numbers, every other cell read one by one.
 
-A column of a big export is mostly plain numbers. Those are converted all at once (Python's
-``float`` reads a plain decimal exactly as ``parse_reading`` does: the nearest binary number);
-only the cells that are not plain numbers (blanks aside) go through ``parse_reading``. Cells are
-built on demand, since a million of them take seconds and are rarely all needed.
+A column of a big export is mostly plain numbers. A text file's column that holds only numbers
+and blanks is read straight as numbers by pandas' C parser; its texts are read only when the cells
+are asked for. Other columns are converted all at once where every text is a plain number (Python's
+``float`` reads a plain decimal exactly as ``parse_reading`` does: the nearest binary number), and
+cell by cell with ``parse_reading`` otherwise. Cells are built on demand, since a million of them
+take seconds and are rarely all needed.
 """
 
 from __future__ import annotations
 
+import functools
 import re
+from collections.abc import Callable
 from dataclasses import dataclass, field
 
 import numpy as np
 
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind
+from rankwise.readings.errors import ReadingsError
 from rankwise.readings.parse import parse_reading
+from rankwise.stats.grid import find_grid
 
 _PLAIN_NUMBER = re.compile(r"[+-]?[0-9]+(?:[.,][0-9]*)?|[+-]?[.,][0-9]+")
 _PLAIN_CHARACTERS = {".": re.compile(r"[^0-9.+\-\n]"), ",": re.compile(r"[^0-9,+\-\n]")}
@@ -26,15 +32,25 @@ class RawColumn:
 
     Attributes:
         header: the column's header name.
-        texts: the cells' texts in file order ("" for a blank), as a numpy object array.
-        typed: numbers the file stored as numbers (XLSX), NaN elsewhere; None for text files.
+        texts: the cells' texts in file order ("" for a blank), as a numpy object array; None
+            when the column was read straight as numbers (then ``typed`` holds them, NaN for
+            blanks, and ``load_texts`` reads the texts when they are needed).
+        typed: numbers the file stored as numbers (XLSX) or read straight as numbers (text
+            files), NaN elsewhere; None when the texts are all there is.
         not_readings: rows the file stored as dates, times or true/false (XLSX), or None.
+        load_texts: reads the texts of a column read straight as numbers.
     """
 
     header: str
-    texts: np.ndarray
+    texts: np.ndarray | None
     typed: np.ndarray | None = None
     not_readings: np.ndarray | None = None
+    load_texts: Callable[[], np.ndarray] | None = field(default=None, repr=False, compare=False)
+
+    @functools.cached_property
+    def cell_texts(self) -> np.ndarray:
+        """The texts of every row (read from the file on first use for a column read as numbers)."""
+        return self.texts if self.texts is not None else self.load_texts()
 
 
 @dataclass(frozen=True)
@@ -43,34 +59,57 @@ class ParsedColumn:
 
     Attributes:
         values: each row's number, NaN where the row holds no reading (blank, note, unreadable, censored).
-        decimals: the most decimals written in the column, or None when it holds no number.
         odd_rows: the rows that are neither plain numbers nor blank, with their cells.
+        raw: the column as read.
+        decimal: the decimal mark the texts were read with.
+        text_decimals: the most decimals written, found from the texts (None when no number or
+            when the column was read straight as numbers).
     """
 
     values: np.ndarray
-    decimals: int | None
     odd_rows: dict[int, Cell] = field(default_factory=dict)
     raw: RawColumn | None = None
     decimal: str = "."
+    text_decimals: int | None = None
+
+    @functools.cached_property
+    def decimals(self) -> int | None:
+        """The most decimals written in the column (the gauge's resolution), or None when it holds no number.
+
+        For a column read straight as numbers this is the finest decimal the numbers need, so
+        trailing zeros typed in every reading ("0.420", "0.430") are not counted.
+        """
+        if self.raw.texts is not None:
+            return self.text_decimals
+        numbers = self.values[~np.isnan(self.values)]
+        return find_grid(numbers).decimals if numbers.size else None
 
     def cell(self, row: int) -> Cell:
         """The cell of ``row`` as read."""
         if row in self.odd_rows:
             return self.odd_rows[row]
-        text = self.raw.texts[row]
+        text = self.raw.cell_texts[row]
         if text == "":
             return EMPTY_CELL
         if self.raw.typed is not None and not np.isnan(self.raw.typed[row]):
-            return Cell(text, CellKind.NUMBER, value=float(self.raw.typed[row]), decimals=_decimals_of(text))
+            # A stored number, or a plain number checked to read as this value: no need to parse again.
+            return Cell(text, CellKind.NUMBER, value=float(self.raw.typed[row]), decimals=_decimals_of(text.strip()))
         return parse_reading(text, decimal=self.decimal)
 
-    def is_blank(self) -> np.ndarray:
-        """True for the rows that are blank."""
-        return self.raw.texts == ""
+    @property
+    def length(self) -> int:
+        """Rows up to the last one that is not blank."""
+        if self.raw.texts is None:
+            filled = np.flatnonzero(~np.isnan(self.values))
+        else:
+            filled = np.flatnonzero(self.raw.texts != "")
+        return int(filled[-1]) + 1 if filled.size else 0
 
 
 def parse_column(raw: RawColumn, decimal: str) -> ParsedColumn:
     """Read every row of ``raw`` as a reading, with ``decimal`` ("." or ",") as the decimal mark."""
+    if raw.texts is None:
+        return ParsedColumn(raw.typed, {}, raw, decimal)
     texts = raw.texts
     values = np.full(texts.shape[0], np.nan)
     decimals = -1
@@ -109,7 +148,7 @@ def parse_column(raw: RawColumn, decimal: str) -> ParsedColumn:
             odd[int(row)] = Cell(
                 text, CellKind.NOTE, reason=f"'{text}' is a date, a time or a true/false value, not a reading."
             )
-    return ParsedColumn(values, decimals if decimals >= 0 else None, odd, raw, decimal)
+    return ParsedColumn(values, odd, raw, decimal, decimals if decimals >= 0 else None)
 
 
 def _read_plain_numbers(texts: np.ndarray, joined: str, decimal: str) -> np.ndarray | None:
@@ -129,6 +168,18 @@ def _read_plain_numbers(texts: np.ndarray, joined: str, decimal: str) -> np.ndar
     except ValueError:
         return None
     return values
+
+
+def check_texts_match(header: str, texts: np.ndarray, numbers: np.ndarray, decimal: str) -> np.ndarray:
+    """Return ``texts`` if reading them gives ``numbers`` (blanks where NaN); else the file has changed."""
+    if texts.shape == numbers.shape:
+        blank = np.isnan(numbers)
+        again = parse_column(RawColumn(header, texts), decimal).values
+        if np.array_equal(again[~blank], numbers[~blank]) and (texts[blank] == "").all():
+            return texts
+    raise ReadingsError(
+        f"The file changed after it was opened (column '{header}' reads differently now); open it again."
+    )
 
 
 def _decimals_of(text: str) -> int:

@@ -18,7 +18,7 @@ import pandas as pd
 
 from rankwise.readings import open_csv, open_xlsx
 from rankwise.readings.cells import CellKind, SkippedCell
-from rankwise.readings.columns import ParsedColumn, RawColumn, parse_column
+from rankwise.readings.columns import ParsedColumn, RawColumn, check_texts_match, parse_column
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import (
     LAYOUTS, TableShape, choose_layout, find_shape, guess_decimal, is_number_text, profile_columns,
@@ -50,7 +50,8 @@ class _Table:
     numeric: list[list[bool]]
     decimal: str
     decimal_note: str
-    load: Callable[[TableShape, list[int]], list[RawColumn]]
+    load: Callable[[TableShape, list[int], list[int]], list[RawColumn]]
+    """Loads the wanted columns; the second list names the columns expected to hold readings."""
 
 
 def open_readings(
@@ -140,10 +141,27 @@ def _text_table(path: Path, head: bytes, decimal: str, encoding: str | None) -> 
         note = f"Numbers are read with a decimal {'comma' if decimal == ',' else 'point'}, as chosen."
     numeric = [[is_number_text(t) for t in row] for row in rows]
 
-    def load(shape: TableShape, wanted: list[int]) -> list[RawColumn]:
-        columns = open_csv.read_columns(path, sample, shape.first_data_row, len(shape.headers), wanted)
-        open_csv.check_cell_lengths(path, columns, shape.first_data_row)
-        return [RawColumn(shape.headers[j], columns[j]) for j in wanted]
+    def load(shape: TableShape, wanted: list[int], numeric: list[int]) -> list[RawColumn]:
+        width = len(shape.headers)
+        fast = open_csv.read_number_columns(path, sample, shape.first_data_row, width, wanted, numeric, decimal)
+        if fast is None:
+            columns = open_csv.read_columns(path, sample, shape.first_data_row, width, wanted)
+            open_csv.check_cell_lengths(path, columns, shape.first_data_row)
+            return [RawColumn(shape.headers[j], columns[j]) for j in wanted]
+        texts, numbers = fast
+        open_csv.check_cell_lengths(path, texts, shape.first_data_row)
+
+        def texts_of(j: int) -> Callable[[], np.ndarray]:
+            def load_texts() -> np.ndarray:
+                read = open_csv.read_columns(path, sample, shape.first_data_row, width, [j])[j]
+                return check_texts_match(shape.headers[j], read, numbers[j], decimal)
+            return load_texts
+
+        return [
+            RawColumn(shape.headers[j], None, numbers[j], load_texts=texts_of(j)) if j in numbers
+            else RawColumn(shape.headers[j], texts[j])
+            for j in wanted
+        ]
 
     source = {"format": "csv", "encoding": sample.encoding, "delimiter": sample.delimiter}
     return _Table(source, rows, numeric, decimal, note, load)
@@ -164,7 +182,7 @@ def _workbook_table(path: Path, sheet: str | int | None, decimal: str) -> _Table
         note = ""
     numeric = [[m or is_number_text(t) for t, m in zip(row, marks)] for row, marks in zip(texts, typed)]
 
-    def load(shape: TableShape, wanted: list[int]) -> list[RawColumn]:
+    def load(shape: TableShape, wanted: list[int], numeric: list[int]) -> list[RawColumn]:
         columns = open_xlsx.raw_columns(read.rows, shape.first_data_row, list(shape.headers))
         return [columns[j] for j in wanted]
 
@@ -213,7 +231,7 @@ def _read_groups(
     profiles = profile_columns(sample_rows, sample_marks, headers, table.decimal)
     choice = choose_layout(profiles, layout, values, group)
     wanted = sorted(set(choice.value_columns) | ({choice.group_column} if choice.group_column is not None else set()))
-    raw = dict(zip(wanted, table.load(shape, wanted)))
+    raw = dict(zip(wanted, table.load(shape, wanted, list(choice.value_columns))))
     first_row_number = shape.first_data_row + 1
     if choice.layout == "wide":
         groups = [_wide_group(raw[j], table.decimal, first_row_number) for j in choice.value_columns]
@@ -243,14 +261,13 @@ def _read_groups(
 
 def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingGroup:
     parsed = parse_column(raw, decimal)
-    filled = np.flatnonzero(raw.texts != "")
-    length = int(filled[-1]) + 1 if filled.size else 0
+    length = parsed.length
     values = parsed.values[:length]
     return ReadingGroup(
         name=raw.header,
         values=values[~np.isnan(values)],
         skipped=_skipped(parsed, raw.header, first_row_number),
-        decimals=parsed.decimals,
+        make_decimals=lambda: parsed.decimals,
         make_cells=lambda: tuple(parsed.cell(row) for row in range(length)),
     )
 
@@ -279,9 +296,9 @@ def _stacked_groups(
         rows = order[bounds[k]:bounds[k + 1]]
         if name == "":
             unlabelled = [
-                SkippedCell(value.texts[r], f"The row has no group label in column '{label.header}'.",
+                SkippedCell(parsed.cell(int(r)).text, f"The row has no group label in column '{label.header}'.",
                             int(r) + first_row_number, value.header)
-                for r in rows if value.texts[r].strip()
+                for r in rows if parsed.cell(int(r)).kind is not CellKind.EMPTY
             ]
             continue
         values = parsed.values[rows]
@@ -290,7 +307,7 @@ def _stacked_groups(
                 name=name,
                 values=values[~np.isnan(values)],
                 skipped=tuple(skipped.get(k, ())),
-                decimals=parsed.decimals,
+                make_decimals=lambda: parsed.decimals,
                 make_cells=lambda rows=rows: tuple(parsed.cell(int(r)) for r in rows),
             )
         )

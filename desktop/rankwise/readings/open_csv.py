@@ -22,7 +22,7 @@ from rankwise.readings.errors import ReadingsError
 
 SAMPLE_CHARACTERS = 1 << 20
 """How much of a text file is looked at to find its encoding, separator, header and layout."""
-SAMPLE_ROWS = 400
+SAMPLE_ROWS = 200
 MAX_CELL_CHARACTERS = 10_000
 """A cell longer than this is not part of a readings export."""
 
@@ -145,13 +145,47 @@ def read_columns(
         return {j: _column(rows, j) for j in wanted}
     try:
         frame = pd.read_csv(
-            path, sep=sample.delimiter or _NO_DELIMITER, header=None, names=list(range(width)), usecols=wanted,
-            skiprows=first_data_row, dtype=str, keep_default_na=False, na_filter=False,
-            encoding=sample.encoding, skip_blank_lines=False, engine="c", index_col=False,
+            path, dtype=str, na_filter=False, **_csv_options(sample, first_data_row, width, wanted)
         )
     except (pd.errors.ParserError, ValueError, UnicodeDecodeError):
         return _read_columns_slowly(path, sample, first_data_row, wanted)
     return {j: frame[j].to_numpy(dtype=object) for j in wanted}
+
+
+def read_number_columns(
+    path: Path, sample: TextSample, first_data_row: int, width: int, wanted: list[int], numeric: list[int],
+    decimal: str,
+) -> tuple[dict[int, np.ndarray], dict[int, np.ndarray]] | None:
+    """The ``numeric`` columns straight as numbers (NaN for blanks) and the others as texts.
+
+    None when a ``numeric`` column holds anything but plain numbers and blanks (the caller then
+    reads texts), or when the whole file is in the sample anyway.
+    """
+    if sample.complete or not numeric:
+        return None
+    try:
+        frame = pd.read_csv(
+            path,
+            dtype={j: ("float64" if j in numeric else str) for j in wanted},
+            decimal=decimal,
+            keep_default_na=False,
+            na_values={j: [""] for j in numeric},
+            **_csv_options(sample, first_data_row, width, wanted),
+        )
+    except (pd.errors.ParserError, ValueError, TypeError, UnicodeDecodeError):
+        return None
+    numbers = {j: frame[j].to_numpy(dtype=np.float64) for j in numeric}
+    if any(np.isinf(column).any() for column in numbers.values()):
+        return None
+    texts = {j: frame[j].to_numpy(dtype=object) for j in wanted if j not in numeric}
+    return texts, numbers
+
+
+def _csv_options(sample: TextSample, first_data_row: int, width: int, wanted: list[int]) -> dict:
+    return dict(
+        sep=sample.delimiter or _NO_DELIMITER, header=None, names=list(range(width)), usecols=wanted,
+        skiprows=first_data_row, encoding=sample.encoding, skip_blank_lines=False, engine="c", index_col=False,
+    )
 
 
 def _read_columns_slowly(path: Path, sample: TextSample, first_data_row: int, wanted: list[int]) -> dict[int, np.ndarray]:

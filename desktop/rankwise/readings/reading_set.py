@@ -19,16 +19,22 @@ class ReadingGroup:
         name: the group's name (the column header in a wide layout, the label in a stacked one).
         values: the numbers in file order (notes, blanks and unreadable entries left out).
         skipped: the cells with text that are not used, each with its row, column and reason.
-        decimals: the most decimals written in the group (the gauge's resolution), or None.
+        decimals: (property) the most decimals written in the group (the gauge's resolution), or None.
         cells: (property) every cell as read, blanks included, in file order.
     """
 
     name: str
     values: np.ndarray
     skipped: tuple[SkippedCell, ...] = ()
-    decimals: int | None = None
     make_cells: Callable[[], tuple[Cell, ...]] = field(default=tuple, repr=False, compare=False)
     """Builds ``cells`` on first use (a million cells take time to build and are rarely all needed)."""
+    make_decimals: Callable[[], int | None] = field(default=lambda: None, repr=False, compare=False)
+    """Finds ``decimals`` on first use."""
+
+    @functools.cached_property
+    def decimals(self) -> int | None:
+        """The most decimals written in the group (the gauge's resolution), or None."""
+        return self.make_decimals()
 
     @functools.cached_property
     def cells(self) -> tuple[Cell, ...]:
