@@ -145,6 +145,7 @@ class MainWindow(QMainWindow):
         right.addWidget(self.tabs)
         right.setStretchFactor(0, 3)
         right.setStretchFactor(1, 2)
+        right.setSizes([600, 300])
         right.setChildrenCollapsible(False)
 
         self.question_panel.setMinimumWidth(350)
@@ -534,7 +535,12 @@ class MainWindow(QMainWindow):
             self.question_panel.select_option("several" if several else "differ")
         self.set_sheet(sheet, path)
         self.recovery.clear()
-        self.statusBar().showMessage(f"Opened {path.name}. " + " ".join(reading_set.notes), 15000)
+        used = sum(len(group.values) for group in reading_set.groups)
+        skipped = sum(len(group.skipped) for group in reading_set.groups)
+        self.statusBar().showMessage(
+            f"Opened {path.name}: {used} readings in {len(reading_set.groups)} groups"
+            + (f", {skipped} cell{'s' if skipped != 1 else ''} skipped (hover over them in the sheet to see why)."
+               if skipped else "."), 15000)
 
     def open_demo(self) -> bool:
         """Open the demo readings (surface roughness from two grinding wheels; invented data)."""

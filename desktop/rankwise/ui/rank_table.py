@@ -16,6 +16,9 @@ from PySide6.QtWidgets import QLabel, QTableView, QVBoxLayout, QWidget
 from rankwise.stats.results import PairedResult, SeveralGroupsResult, TieBlock, TwoGroupResult
 from rankwise.wording.numbers import format_count, format_reading
 
+GROUP_NUMBERS = frozenset({0, 2, 3})
+PAIR_NUMBERS = frozenset({0, 1, 2, 3, 4})
+
 TIE_TINT = QColor("#e8eef7")
 """Background of alternate tie blocks; the bracket marks and the words carry the meaning too."""
 
@@ -32,8 +35,7 @@ class RankRow:
 
 
 def _tie_words(block: TieBlock) -> str:
-    return (f"tied: {block.count} readings share ranks {block.first_rank}–{block.last_rank}, "
-            f"each gets the average {format_count(block.mid_rank)}")
+    return f"{block.count} tied: ranks {block.first_rank}–{block.last_rank} share {format_count(block.mid_rank)}"
 
 
 def _bracket(position: int, count: int) -> str:
@@ -119,12 +121,14 @@ class RankTableModel(QAbstractTableModel):
         super().__init__(parent)
         self._headers: tuple[str, ...] = ()
         self._rows: list[RankRow] = []
+        self._numeric: frozenset[int] = frozenset()
 
-    def set_rows(self, headers: tuple[str, ...], rows: list[RankRow]) -> None:
-        """Replace the table's contents."""
+    def set_rows(self, headers: tuple[str, ...], rows: list[RankRow], numeric_columns: frozenset[int] = frozenset()) -> None:
+        """Replace the table's contents; ``numeric_columns`` are right-aligned."""
         self.beginResetModel()
         self._headers = (*headers, "Tie") if headers else ()
         self._rows = rows
+        self._numeric = numeric_columns
         self.endResetModel()
 
     def rowCount(self, parent: QModelIndex = QModelIndex()) -> int:  # noqa: B008, N802 - Qt API
@@ -151,7 +155,7 @@ class RankTableModel(QAbstractTableModel):
             return row.tooltip
         if role == Qt.ItemDataRole.BackgroundRole and row.block_number % 2 == 1:
             return QBrush(TIE_TINT)
-        if role == Qt.ItemDataRole.TextAlignmentRole and 0 < index.column() < last:
+        if role == Qt.ItemDataRole.TextAlignmentRole and index.column() in self._numeric:
             return int(Qt.AlignmentFlag.AlignRight | Qt.AlignmentFlag.AlignVCenter)
         if role == Qt.ItemDataRole.FontRole and row.block_number and index.column() == last:
             font = QFont()
@@ -196,7 +200,7 @@ class RankTable(QWidget):
             names = (result.name_a, result.name_b)
             rows = rows_for_groups(names, (result.values_a, result.values_b), (result.ranks_a, result.ranks_b),
                                    result.tie_blocks, decimals)
-            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows)
+            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS)
             self.sums.setText(
                 f"Rank sums: {result.name_a} {format_count(result.rank_sum_a)} (n = {result.n_a}), "
                 f"{result.name_b} {format_count(result.rank_sum_b)} (n = {result.n_b}). "
@@ -205,7 +209,7 @@ class RankTable(QWidget):
         elif isinstance(result, SeveralGroupsResult):
             names = tuple(summary.name for summary in result.summaries)
             rows = rows_for_groups(names, result.values, result.ranks, result.tie_blocks, decimals)
-            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows)
+            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS)
             parts = ", ".join(
                 f"{name} {format_count(total)} (n = {summary.n}, mean rank {mean:.2f})"
                 for name, total, mean, summary in zip(names, result.rank_sums, result.mean_ranks, result.summaries)
@@ -213,7 +217,7 @@ class RankTable(QWidget):
             self.sums.setText(f"Rank sums: {parts}.")
         elif isinstance(result, PairedResult):
             rows = rows_for_pairs(result, decimals)
-            self.model.set_rows(("Pair", result.name_a, result.name_b, "Difference", "Signed rank"), rows)
+            self.model.set_rows(("Pair", result.name_a, result.name_b, "Difference", "Signed rank"), rows, PAIR_NUMBERS)
             self.sums.setText(
                 f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus)}, "
                 f"of the negative ones (W−) {format_count(result.w_minus)}; "

@@ -31,6 +31,10 @@ def text_from_block(block: list[list[str]]) -> str:
     return "".join("\t".join(row) + "\n" for row in block)
 
 
+MAXIMUM_COLUMN_WIDTH = 260
+"""A column is never made wider than this to fit its title; the full title shows on hover."""
+
+
 class ReadingsGrid(QTableView):
     """The table view of the readings.
 
@@ -68,9 +72,9 @@ class ReadingsGrid(QTableView):
         super().setModel(model)
         model.modelAboutToBeReset.connect(self._remember_current)
         model.modelReset.connect(self._restore_current)
-        model.modelReset.connect(self._fit_spare_column)
+        model.modelReset.connect(self._fit_columns_to_titles)
         self.setCurrentIndex(model.index(0, 0))
-        self._fit_spare_column()
+        self._fit_columns_to_titles()
 
     def sheet_model(self) -> SheetModel:
         """The sheet model shown."""
@@ -88,11 +92,12 @@ class ReadingsGrid(QTableView):
         column = min(self._restore_to[1], model.columnCount() - 1)
         self.setCurrentIndex(model.index(row, column))
 
-    def _fit_spare_column(self) -> None:
-        """The spare column at the right is as wide as its title ("+ new group")."""
-        spare = self.model().columnCount() - 1
-        self.horizontalHeader().resizeSection(spare, max(self.horizontalHeader().defaultSectionSize(),
-                                                          self.horizontalHeader().sectionSizeHint(spare)))
+    def _fit_columns_to_titles(self) -> None:
+        """Each column is wide enough for its title (group name and unit), within reason."""
+        header = self.horizontalHeader()
+        for column in range(self.model().columnCount()):
+            wanted = max(header.defaultSectionSize(), header.sectionSizeHint(column))
+            header.resizeSection(column, min(wanted, MAXIMUM_COLUMN_WIDTH))
 
     def _on_header_double_clicked(self, section: int) -> None:
         if section < len(self.sheet_model().sheet.groups):

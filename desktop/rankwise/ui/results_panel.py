@@ -60,10 +60,14 @@ class ResultsPanel(QWidget):
         self.notes.setTextFormat(Qt.TextFormat.RichText)
         self.numbers_title = QLabel("Key numbers (hover over a number to see what it means)")
         self.numbers_title.setObjectName("sectionTitle")
+        self.numbers_title.setWordWrap(True)
         self._numbers_box = QWidget()
         self._numbers_grid = QGridLayout(self._numbers_box)
         self._numbers_grid.setHorizontalSpacing(18)
         self._numbers_grid.setVerticalSpacing(4)
+        for column in range(KEY_NUMBER_COLUMNS):
+            self._numbers_grid.setColumnStretch(column * 2, 3)
+            self._numbers_grid.setColumnStretch(column * 2 + 1, 2)
         self._number_labels: dict[str, QLabel] = {}
 
         body = QWidget()
@@ -74,6 +78,7 @@ class ResultsPanel(QWidget):
         body_layout.addStretch(1)
         scroll = QScrollArea()
         scroll.setWidgetResizable(True)
+        scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         scroll.setFrameShape(QFrame.Shape.NoFrame)
         scroll.setWidget(body)
 
@@ -184,14 +189,16 @@ class ResultsPanel(QWidget):
             row, pair = divmod(position, KEY_NUMBER_COLUMNS)
             name = QLabel(number.label)
             name.setObjectName("numberLabel")
+            name.setWordWrap(True)
             value = QLabel(number.text)
             value.setObjectName("numberValue")
+            value.setWordWrap(True)
             value.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
             for label in (name, value):
                 label.setToolTip(number.tooltip)
             value.setAccessibleName(number.label)
             value.setAccessibleDescription(number.tooltip)
-            self._numbers_grid.addWidget(name, row, pair * 2, Qt.AlignmentFlag.AlignLeft)
+            self._numbers_grid.addWidget(name, row, pair * 2)
             self._numbers_grid.addWidget(value, row, pair * 2 + 1, Qt.AlignmentFlag.AlignLeft)
             self._number_labels[number.key] = value
         self.numbers_title.setVisible(bool(numbers))

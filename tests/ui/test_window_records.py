@@ -1,0 +1,108 @@
+"""Records from the window: sign and save, read-only after signing, a new revision, checking a
+record, reopening it, and the one-page verdict as PDF."""
+
+from __future__ import annotations
+
+from datetime import datetime, timezone
+
+import openpyxl
+from pypdf import PdfReader
+
+from window_support import answers, wait_for_verdict, window  # noqa: F401 - pytest fixtures
+
+from rankwise.records import Signature, read_record
+from rankwise.ui.main_window import MainWindow
+from rankwise.ui.recovery import RecoveryFile
+from rankwise.ui.signoff_dialog import SignOffDialog
+
+SIGNATURE = Signature("T. Example", "process technician", "accept the change", "", datetime(2026, 3, 2, 9, 30, tzinfo=timezone.utc))
+
+
+def _sign_with(monkeypatch, signature=SIGNATURE):
+    monkeypatch.setattr(SignOffDialog, "ask", classmethod(lambda cls, parent=None, **kw: signature))
+
+
+def _signed_demo(qtbot, window, answers, monkeypatch, tmp_path):
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    _sign_with(monkeypatch)
+    answers.save_path = tmp_path / "wheels-signed.xlsx"
+    answers.confirm = False
+    assert window.records.sign_and_save()
+    return answers.save_path
+
+
+def test_sign_and_save_locks_the_analysis(qtbot, window, answers, monkeypatch, tmp_path):
+    """After signing, the workbook exists with the signature, and the sheet and question are read-only."""
+    path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    record = read_record(path)
+    assert record.signoff.prepared.name == "T. Example" and record.signoff.revision == 1
+    assert record.result.p_value == window.last_result.p_value
+    assert window.records.is_signed and window.sheet_model.read_only
+    assert not window.question_panel.level.isEnabled()
+    window.grid.paste_text("5,00\n")
+    assert window.sheet.cell(0, 0).text != "5,00"
+    assert "read-only" in window.windowTitle()
+    assert window.records.revision_action.isEnabled() and not window.records.sign_action.isEnabled()
+
+
+def test_new_revision_unlocks_a_copy_with_the_next_number(qtbot, window, answers, monkeypatch, tmp_path):
+    """'Start a new revision' unlocks the readings; the next signature is revision 2."""
+    _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    window.records.start_revision()
+    assert not window.sheet_model.read_only and window.question_panel.level.isEnabled()
+    window.grid.move_to(0, 0)
+    window.grid.paste_text("0,39\n")
+    wait_for_verdict(qtbot, window)
+    answers.save_path = tmp_path / "wheels-rev2.xlsx"
+    assert window.records.sign_and_save()
+    assert read_record(answers.save_path).signoff.revision == 2
+
+
+def test_a_signed_record_is_not_replaced_without_asking(qtbot, window, answers, monkeypatch, tmp_path):
+    """Saving over a signed record asks; saying no keeps the old file byte for byte."""
+    path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    before = path.read_bytes()
+    window.records.start_revision()
+    wait_for_verdict(qtbot, window)
+    answers.confirm = False
+    assert not window.records.sign_and_save()
+    assert path.read_bytes() == before
+
+
+def test_check_a_record_intact_then_changed(qtbot, window, answers, monkeypatch, tmp_path):
+    """Checking an untouched record says intact; after one reading is edited it lists the change."""
+    path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    answers.open_path = path
+    window.records.check_record()
+    assert answers.messages and answers.messages[-1][0] == "Record unchanged"
+    book = openpyxl.load_workbook(path)
+    readings = book[[name for name in book.sheetnames if "eading" in name][0]]
+    changed = next(cell for row in readings.iter_rows() for cell in row if isinstance(cell.value, (int, float)))
+    changed.value = changed.value + 1
+    tampered = tmp_path / "tampered.xlsx"
+    book.save(tampered)
+    answers.open_path = tampered
+    window.records.check_record()
+    assert answers.problems and answers.problems[-1][0] == "Record changed since signing"
+
+
+def test_reopening_a_signed_record_restores_the_analysis(qtbot, window, answers, monkeypatch, tmp_path):
+    """Opening the signed workbook restores the readings, the question and the signed, read-only state."""
+    path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    other = MainWindow(recovery=RecoveryFile(tmp_path / "other-recovery.json"))
+    qtbot.addWidget(other)
+    assert other.open_path(path)
+    assert other.sheet.group_names == window.sheet.group_names
+    assert other.records.is_signed and other.sheet_model.read_only
+    wait_for_verdict(qtbot, other)
+    assert other.last_result.p_value == window.last_result.p_value
+
+
+def test_verdict_saved_as_one_page_pdf(qtbot, window, answers, tmp_path):
+    """The one-page verdict of the current result is saved as a PDF of exactly one page."""
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    answers.save_path = tmp_path / "verdict.pdf"
+    assert window.records.save_pdf() == answers.save_path
+    assert len(PdfReader(str(answers.save_path)).pages) == 1
