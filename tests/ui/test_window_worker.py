@@ -1,0 +1,56 @@
+"""The worker runs the statistics off the GUI thread: debounced, newest request wins, problems in words."""
+
+from __future__ import annotations
+
+import threading
+
+from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
+from rankwise.ui.worker import AnalysisRunner
+
+
+def _paired(shift: float) -> Analysis:
+    before = tuple(10.0 + 0.1 * i for i in range(12))
+    after = tuple(value + shift + 0.01 * (i % 3) for i, value in enumerate(before))
+    return Analysis(Question.PAIRED, (GroupReadings("before", before), GroupReadings("after", after)), Settings())
+
+
+def test_only_the_newest_request_is_answered(qtbot):
+    """Three quick requests within the typing pause give one answer, for the last of them."""
+    runner = AnalysisRunner(debounce_ms=50)
+    answered = []
+    runner.result_ready.connect(lambda result, analysis: answered.append(analysis))
+    newest = _paired(0.3)
+    for analysis in (_paired(0.1), _paired(0.2), newest):
+        runner.request(analysis)
+    qtbot.waitUntil(lambda: bool(answered) and not runner.busy, timeout=10000)
+    qtbot.wait(100)
+    assert answered == [newest]
+
+
+def test_computation_runs_off_the_gui_thread(qtbot, monkeypatch):
+    """The statistics service is called on a worker thread, never on the GUI thread."""
+    import rankwise.stats.service as service
+
+    threads = []
+    real_run = service.run
+
+    def watched_run(analysis, monitor):
+        threads.append(threading.current_thread())
+        return real_run(analysis, monitor)
+
+    monkeypatch.setattr(service, "run", watched_run)
+    runner = AnalysisRunner()
+    with qtbot.waitSignal(runner.result_ready, timeout=10000):
+        runner.request_now(_paired(0.2))
+    assert threads and threads[0] is not threading.main_thread()
+
+
+def test_readings_the_statistics_refuse_come_back_as_a_problem_in_words(qtbot):
+    """A paired question with unequal numbers of readings gives the service's plain message, not a crash."""
+    runner = AnalysisRunner()
+    uneven = Analysis(Question.PAIRED, (GroupReadings("before", (1.0, 2.0, 3.0)), GroupReadings("after", (1.0, 2.0))),
+                      Settings())
+    with qtbot.waitSignal(runner.problem, timeout=10000) as signal:
+        runner.request_now(uneven)
+    assert signal.args[0] and "Traceback" not in signal.args[0]
+    assert not runner.busy
