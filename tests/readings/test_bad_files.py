@@ -1,6 +1,5 @@
 """Every bad file gets one plain sentence (a ReadingsError), never a traceback, and is never changed."""
 
-import io
 import os
 import pathlib
 import zipfile

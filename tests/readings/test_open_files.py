@@ -329,3 +329,13 @@ def test_stacked_numbers_read_straight(tmp_path):
     assert [g.values.size for g in rs.groups] == [300, 299, 300]
     assert rs.groups[1].cells[166].kind is CellKind.EMPTY
     assert rs.groups[0].cells[0].text == lines[1].split(",")[2]
+
+
+def test_press_numbers_name_the_groups(tmp_path):
+    """A "Press" column of 1, 2, 3 (each repeated) beside a column of forces groups the forces."""
+    rows = [["Press", "Force (kN)"]] + [[1 + i % 3, 18.0 + (i % 5) / 10] for i in range(12)]
+    path = write_workbook(tmp_path, "p.xlsx", rows)
+    rs = open_readings(path)
+    assert rs.source.layout == "stacked" and rs.source.group_column == "Press"
+    assert rs.group_names == ["1", "2", "3"]
+    assert [g.values.size for g in rs.groups] == [4, 4, 4]

@@ -24,7 +24,7 @@ def texts(sheet, group):
 def test_typing_parses_and_keeps_the_text():
     sheet = make_sheet([], names=["Wheel A"])
     cell = sheet.set_text(0, 2, "0,42")
-    assert cell.value == pytest.approx(0.42)
+    assert cell.value == pytest.approx(0.42) and cell.is_reading and not cell.is_skipped
     assert sheet.row_count == 3
     assert sheet.cell(0, 0).kind is CellKind.EMPTY
     assert sheet.cell(0, 99).kind is CellKind.EMPTY
@@ -56,7 +56,7 @@ def test_every_edit_undoes_and_redoes_as_one_step():
         sheet.redo()
         assert sheet.snapshot() == changed
         sheet.undo()
-        assert not sheet.can_undo
+        assert not sheet.can_undo and sheet.can_redo
 
 
 def test_a_chain_of_edits_unwinds_in_order():

@@ -208,6 +208,9 @@ def choose_layout(
         layout = "stacked" if group_column is not None else ("wide" if value_columns and len(value_columns) > 1 else "")
     if layout in ("", "stacked") and group_column is None:
         candidates = [p for p in profiles if _could_group(p, readings, value_columns)]
+        if not candidates and len(readings) > 1:
+            candidates = [p for p in profiles if _numbers_naming_groups(p)]
+            readings = [j for j in readings if j not in {p.index for p in candidates}]
         candidates.sort(key=lambda p: (not _GROUP_HEADER.search(p.header), len(p.labels), p.index))
         if candidates:
             group_column = candidates[0].index
@@ -257,6 +260,17 @@ def _could_group(profile: ColumnProfile, readings: list[int], value_columns: Seq
         return False
     distinct = len(profile.labels)
     return 2 <= distinct <= 50 and distinct <= labelled / 2
+
+
+def _numbers_naming_groups(profile: ColumnProfile) -> bool:
+    """A column of a few whole numbers, each repeated, under a header such as "Press" or "Machine"."""
+    distinct = len(set(profile.whole_numbers))
+    return (
+        bool(_GROUP_HEADER.search(profile.header))
+        and len(profile.whole_numbers) == profile.numbers >= 0.8 * profile.rows
+        and 2 <= distinct <= 20
+        and distinct <= profile.numbers / 2
+    )
 
 
 def _quoted(names) -> str:

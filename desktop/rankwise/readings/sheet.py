@@ -24,6 +24,7 @@ if TYPE_CHECKING:
 
 _UNSET = object()
 CHANGE_KINDS = ("cells", "rows-inserted", "rows-removed", "groups", "reset")
+"""The kinds of ``SheetChange``."""
 
 
 @dataclass
@@ -70,6 +71,10 @@ class SheetChange:
     first_row: int = -1
     last_row: int = -1
     before: bool = False
+
+    def __post_init__(self) -> None:
+        if self.kind not in CHANGE_KINDS:
+            raise ValueError(f"kind must be one of {', '.join(CHANGE_KINDS)}; got {self.kind!r}.")
 
 
 @dataclass
