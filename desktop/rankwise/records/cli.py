@@ -1,0 +1,145 @@
+"""Scripted commands: ``rankwise report`` writes a signed result workbook, ``rankwise verify`` checks one.
+
+No Qt here: the one-page PDF is drawn by a ``render_pdf(path, record)`` callable that the
+application passes in from the window's printing module.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from collections.abc import Callable
+from datetime import datetime
+from pathlib import Path
+
+from rankwise.readings import ReadingSheet, ReadingsError, open_readings
+from rankwise.records.errors import RecordError
+from rankwise.records.record import ResultRecord, fingerprint
+from rankwise.records.signoff import SignOff, Signature
+from rankwise.records.verify import verify_record
+from rankwise.records.workbook import write_record
+from rankwise.stats.analysis import ALTERNATIVES, Question, Settings
+from rankwise.stats.service import run
+from rankwise.wording import CAUTION_SHORT, describe
+
+EXIT_DONE = 0
+EXIT_CHANGED = 1
+EXIT_PROBLEM = 2
+RenderPdf = Callable[[Path, ResultRecord], None]
+
+
+def add_record_commands(subparsers: argparse._SubParsersAction) -> None:
+    """Add ``report`` and ``verify`` to an argparse parser's sub-commands."""
+    report = subparsers.add_parser(
+        "report",
+        help="compare two groups of a readings file and write a signed result workbook",
+        description=("Open a readings file (CSV or XLSX export), compare its first two groups (or the two "
+                     "named with --groups) with the Mann-Whitney U test, and write a signed result "
+                     "workbook, and optionally the one-page verdict as a PDF."),
+        epilog="Exit code 0 when the record was written; 2 with a plain message when something is wrong.",
+    )
+    report.add_argument("input", type=Path, metavar="INPUT", help="the readings file to open (CSV or XLSX)")
+    report.add_argument("--out", type=Path, required=True, metavar="RESULT.xlsx",
+                        help="where to write the signed result workbook")
+    report.add_argument("--pdf", type=Path, metavar="VERDICT.pdf", help="also save the one-page verdict as a PDF here")
+    report.add_argument("--signed-by", required=True, metavar="NAME", help="the printed name of the person signing")
+    report.add_argument("--role", required=True, metavar="ROLE", help="their role, e.g. 'process technician'")
+    report.add_argument("--decision", default="", metavar="TEXT",
+                        help="the decision in plain words, e.g. 'accept the change'")
+    report.add_argument("--comment", default="", metavar="TEXT", help="a comment to keep with the signature")
+    report.add_argument("--alpha", type=float, default=0.05, metavar="A",
+                        help="significance level: the accepted chance of a false alarm (default 0.05)")
+    report.add_argument("--alternative", choices=ALTERNATIVES, default="two-sided",
+                        help="two-sided: does B differ from A?  b-greater: does B read higher?  "
+                             "b-less: does B read lower? (default two-sided)")
+    report.add_argument("--groups", nargs=2, metavar=("NAME_A", "NAME_B"),
+                        help="the reference group A (e.g. the current process) and the changed group B; "
+                             "default: the file's first two groups")
+    report.add_argument("--force", action="store_true",
+                        help="replace RESULT.xlsx even when it is already a signed record")
+
+    verify = subparsers.add_parser(
+        "verify",
+        help="check that a signed result workbook is unchanged",
+        description=("Recompute a signed result workbook's fingerprint and results from its readings and "
+                     "compare every shown value with what was signed."),
+        epilog="Exit code 0: intact; 1: changed since it was written (the differences are listed); "
+               "2: not a Rankwise record, or unreadable.",
+    )
+    verify.add_argument("file", type=Path, metavar="FILE", help="the result workbook (.xlsx) to check")
+
+
+def _problem(message: str) -> int:
+    print(f"rankwise: {message}", file=sys.stderr)
+    return EXIT_PROBLEM
+
+
+def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) -> int:
+    """Write the signed workbook (and the PDF) for ``args`` from ``report``; returns the exit code."""
+    if args.pdf is not None and render_pdf is None:
+        return _problem("the PDF cannot be drawn here (the window's printing module is not available); "
+                        "leave out --pdf.")
+    if not 0.0 < args.alpha < 0.5:
+        return _problem(f"--alpha must lie between 0 and 0.5, e.g. 0.05; got {args.alpha}.")
+    if not args.signed_by.strip() or not args.role.strip():
+        return _problem("--signed-by and --role need a name and a role; they cannot be blank.")
+    try:
+        reading_set = open_readings(args.input)
+        sheet = ReadingSheet.from_reading_set(reading_set)
+        chosen = _chosen_groups(sheet.group_names, args.groups)
+        settings = Settings(alpha=args.alpha, alternative=args.alternative)
+        analysis = sheet.to_analysis(Question.TWO_GROUPS, settings, groups=chosen)
+        result = run(analysis)
+    except (ReadingsError, ValueError) as error:
+        return _problem(str(error))
+    signature = Signature(name=args.signed_by.strip(), role=args.role.strip(), decision=args.decision.strip(),
+                          comment=args.comment.strip(), signed_at=datetime.now().astimezone())
+    record = ResultRecord.now(analysis, sheet.snapshot(), result, SignOff(prepared=signature))
+    try:
+        write_record(args.out, record, overwrite_signed=args.force)
+    except RecordError as error:
+        return _problem(f"{error}" + (" Use --force to replace it." if "signed record" in str(error) else ""))
+    if args.pdf is not None:
+        try:
+            render_pdf(args.pdf, record)
+        except OSError as error:
+            return _problem(f"the workbook was written, but the PDF could not be saved to '{args.pdf}': {error}")
+    verdict = describe(result, analysis)
+    print(verdict.headline)
+    for sentence in verdict.sentences:
+        print(f"  {sentence}")
+    print(f"Caution: {CAUTION_SHORT}")
+    print(f"Signed record written to {args.out} (fingerprint {fingerprint(record)}).")
+    if args.pdf is not None:
+        print(f"One-page verdict written to {args.pdf}.")
+    return EXIT_DONE
+
+
+def _chosen_groups(names: list[str], asked: list[str] | None) -> list[int]:
+    """Indices of the two groups to compare; ``ValueError`` in plain words when they are not there."""
+    if asked is None:
+        if len(names) < 2:
+            raise ValueError(f"the file holds {len(names)} group(s); two are needed to compare.")
+        return [0, 1]
+    if asked[0] == asked[1]:
+        raise ValueError("--groups needs two different groups.")
+    missing = [name for name in asked if name not in names]
+    if missing:
+        raise ValueError(f"the file has no group named {', '.join(repr(m) for m in missing)}; "
+                         f"its groups are {', '.join(repr(n) for n in names)}.")
+    return [names.index(asked[0]), names.index(asked[1])]
+
+
+def run_verify(args: argparse.Namespace) -> int:
+    """Check ``args.file``; print what was found; 0 intact, 1 changed, 2 not a record or unreadable."""
+    verification = verify_record(args.file)
+    if verification.status == "not-a-record":
+        return _problem(verification.summary)
+    print(verification.summary)
+    for difference in verification.differences:
+        print(f"  - {difference}")
+    for note in verification.notes:
+        print(f"  Note: {note}")
+    if verification.fingerprint:
+        print(f"Fingerprint on record: {verification.fingerprint}")
+    return EXIT_DONE if verification.intact else EXIT_CHANGED

@@ -1,0 +1,144 @@
+"""Checking a result workbook: is it still exactly what was signed?"""
+
+from __future__ import annotations
+
+import os
+from dataclasses import dataclass
+from itertools import islice
+
+import rankwise
+from rankwise.readings import ReadingSheet, ReadingsError
+from rankwise.records.canonical import canonical_bytes, encode, sha256_hex
+from rankwise.records.compare import data_differences, saved_and_reloaded, sheet_differences
+from rankwise.records.errors import RecordError
+from rankwise.records.record import ResultRecord, current_library_versions, record_from_data, record_to_data
+from rankwise.records.workbook import PROGRAM_SHEET, build_workbook, load_workbook_safely, read_program_data
+from rankwise.stats.analysis import GroupReadings
+from rankwise.stats.results import Result
+from rankwise.stats.service import run
+
+STATUSES = ("intact", "changed", "not-a-record")
+MAX_LISTED = 40
+"""Most differences listed one by one; the rest are counted."""
+
+
+@dataclass(frozen=True)
+class Verification:
+    """The outcome of checking a record.
+
+    Attributes:
+        status: "intact", "changed" (edited since it was written) or "not-a-record".
+        summary: one plain sentence saying what was found.
+        differences: plain-words list of what differs (sheet, cell, value on record and now).
+        notes: remarks that do not make the record changed (e.g. a newer program recomputes a
+            last digit differently).
+        fingerprint: the fingerprint stored in the record, or "".
+        record: the record as stored, when it could be read back, else None.
+    """
+
+    status: str
+    summary: str
+    differences: tuple[str, ...] = ()
+    notes: tuple[str, ...] = ()
+    fingerprint: str = ""
+    record: ResultRecord | None = None
+
+    @property
+    def intact(self) -> bool:
+        """True when nothing was changed since the record was written."""
+        return self.status == "intact"
+
+
+def verify_record(path: str | os.PathLike[str]) -> Verification:
+    """Check a result workbook against itself.
+
+    The fingerprint is recomputed over the stored data; the readings as entered are read again
+    into the analysis and the result recomputed with ``rankwise.stats.service.run``; every visible
+    sheet is rebuilt from the stored data and compared cell by cell with the file.
+    """
+    try:
+        workbook = load_workbook_safely(path)
+        data, stored_fingerprint = read_program_data(workbook)
+    except RecordError as error:
+        return Verification("not-a-record", str(error), differences=(str(error),))
+
+    differences: list[str] = []
+    if data is None:
+        return _changed(["The program data sheet was edited: its text no longer reads as a record."],
+                        stored_fingerprint)
+    if sha256_hex(data) != stored_fingerprint:
+        differences.append(
+            "The program data were edited: the fingerprint stored with them no longer matches their contents."
+        )
+    try:
+        record = record_from_data(data)
+    except RecordError as error:
+        return _changed(differences + [f"The program data were edited so that they no longer form a record: {error}"],
+                        stored_fingerprint)
+    if canonical_bytes(record_to_data(record)) != canonical_bytes(data):
+        differences.append("The program data hold entries that do not belong to a record.")
+
+    notes: list[str] = []
+    differences.extend(_readings_differences(record))
+    recomputed = _recomputation_differences(record)
+    if recomputed and _same_software(record):
+        differences.extend(recomputed)
+    elif recomputed:
+        notes.append(
+            f"Rankwise {rankwise.__version__} with today's libraries recomputes some figures differently "
+            f"from Rankwise {record.program_version}, which wrote the record: " + "; ".join(recomputed[:5])
+        )
+
+    expected = saved_and_reloaded(build_workbook(record))
+    visible_expected = [s.title for s in expected.worksheets if s.title != PROGRAM_SHEET]
+    visible_actual = [s.title for s in workbook.worksheets if s.title != PROGRAM_SHEET]
+    if visible_expected != visible_actual:
+        differences.append(f"The sheets were changed: the record has {visible_expected}, the file has {visible_actual}.")
+    for title in visible_expected:
+        if title in workbook.sheetnames:
+            differences.extend(islice(sheet_differences(expected[title], workbook[title]), MAX_LISTED + 1))
+
+    if differences:
+        return _changed(differences, stored_fingerprint, record, notes)
+    return Verification("intact", "The record is intact: nothing was changed since it was written.",
+                        notes=tuple(notes), fingerprint=stored_fingerprint, record=record)
+
+
+def _changed(differences: list[str], fingerprint: str, record: ResultRecord | None = None,
+             notes: list[str] | None = None) -> Verification:
+    listed = differences[:MAX_LISTED]
+    if len(differences) > MAX_LISTED:
+        listed.append(f"... and more differences beyond these {MAX_LISTED}.")
+    return Verification("changed", "The record was changed after it was written.", tuple(listed),
+                        tuple(notes or ()), fingerprint, record)
+
+
+def _readings_differences(record: ResultRecord) -> list[str]:
+    """The readings as entered, read again, must give the stored analysis's groups."""
+    analysis = record.analysis
+    names = [group.name for group in record.snapshot.groups]
+    try:
+        indices = [names.index(group.name) for group in analysis.groups]
+        rebuilt = ReadingSheet.from_snapshot(record.snapshot).to_analysis(
+            analysis.question, analysis.settings, groups=indices)
+    except (ValueError, ReadingsError):
+        return ["The groups of the analysis are no longer among the readings as entered."]
+    hint = tuple[GroupReadings, ...]
+    return [f"The readings as entered no longer give the analysed readings ({difference})."
+            for difference in data_differences(encode(analysis.groups, hint), encode(rebuilt.groups, hint))]
+
+
+def _recomputation_differences(record: ResultRecord) -> list[str]:
+    """Figures of the stored result that a fresh computation from the stored analysis does not give."""
+    try:
+        fresh = run(record.analysis)
+    except (ValueError, ReadingsError) as error:
+        return [f"The stored analysis can no longer be computed: {error}"]
+    return [f"The result no longer follows from the readings: {difference}."
+            for difference in data_differences(encode(record.result, Result), encode(fresh, Result))]
+
+
+def _same_software(record: ResultRecord) -> bool:
+    """True when this program and these libraries wrote the record."""
+    return (record.program_version == rankwise.__version__
+            and record.library_versions == current_library_versions())
