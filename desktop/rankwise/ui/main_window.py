@@ -26,6 +26,7 @@ import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError, SheetSnapshot
 from rankwise.stats.analysis import Analysis, Question
 from rankwise.ui import dialogs
+from rankwise.ui.chart_tab import ChartTab
 from rankwise.ui.group_details_dialog import GroupDetails, GroupDetailsDialog
 from rankwise.ui.question_panel import QuestionPanel
 from rankwise.ui.rank_table import RankTable
@@ -108,12 +109,10 @@ class MainWindow(QMainWindow):
 
     # -- building --------------------------------------------------------------------------------
     def _build_layout(self) -> None:
-        from rankwise.ui.charts import CumulativeSharePlot, NullDistributionPlot, PowerCurvePlot, ReadingsDotPlot
-
-        self.dot_plot = ReadingsDotPlot()
-        self.cumulative_plot = CumulativeSharePlot()
-        self.null_plot = NullDistributionPlot()
-        self.power_plot = PowerCurvePlot()
+        self.dot_plot = ChartTab("ReadingsDotPlot")
+        self.cumulative_plot = ChartTab("CumulativeSharePlot")
+        self.null_plot = ChartTab("NullDistributionPlot")
+        self.power_plot = ChartTab("PowerCurvePlot")
         self.charts = (self.dot_plot, self.cumulative_plot, self.null_plot, self.power_plot)
 
         sheet_box = QWidget()
