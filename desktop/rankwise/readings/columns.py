@@ -99,11 +99,10 @@ class ParsedColumn:
     @property
     def length(self) -> int:
         """Rows up to the last one that is not blank."""
-        if self.raw.texts is None:
-            filled = np.flatnonzero(~np.isnan(self.values))
-        else:
-            filled = np.flatnonzero(self.raw.texts != "")
-        return int(filled[-1]) + 1 if filled.size else 0
+        filled = ~np.isnan(self.values) if self.raw.texts is None else self.raw.texts != ""
+        if not filled.any():
+            return 0
+        return filled.size - int(np.argmax(filled[::-1]))
 
 
 def parse_column(raw: RawColumn, decimal: str) -> ParsedColumn:

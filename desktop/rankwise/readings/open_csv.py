@@ -20,7 +20,7 @@ import pandas as pd
 
 from rankwise.readings.errors import ReadingsError
 
-SAMPLE_CHARACTERS = 1 << 20
+SAMPLE_CHARACTERS = 1 << 18
 """How much of a text file is looked at to find its encoding, separator, header and layout."""
 SAMPLE_ROWS = 200
 MAX_CELL_CHARACTERS = 10_000
@@ -31,6 +31,7 @@ DELIMITERS = (";", "\t", "|", ",")
 
 _NO_DELIMITER = "\x1f"
 """Stands in for the separator of a single-column file (the unit separator never occurs in exports)."""
+_CONTROL_CHARACTERS = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f]")
 _DECIMAL_COMMA_LINE = re.compile(r"\s*[+-]?\d*,\d+\s*")
 
 
@@ -97,10 +98,10 @@ def read_sample(path: Path, encoding: str) -> TextSample:
         ) from error
     if not complete and "\n" not in text and "\r" not in text:
         raise ReadingsError(
-            f"'{path.name}' starts with a line of more than a million characters, far too long for readings; "
+            f"'{path.name}' starts with a line of more than {SAMPLE_CHARACTERS:,} characters, far too long for readings; "
             "check that this is the right file."
         )
-    controls = sum(1 for ch in text[:100_000] if ch < " " and ch not in "\t\r\n")
+    controls = len(_CONTROL_CHARACTERS.findall(text, 0, 100_000))
     if controls > 0.01 * min(len(text), 100_000) or "\x00" in text:
         raise not_a_spreadsheet(path)
     lines = text.splitlines()
@@ -182,10 +183,14 @@ def read_number_columns(
 
 
 def _csv_options(sample: TextSample, first_data_row: int, width: int, wanted: list[int]) -> dict:
-    return dict(
-        sep=sample.delimiter or _NO_DELIMITER, header=None, names=list(range(width)), usecols=wanted,
+    """Options for pandas' C parser: rows from ``first_data_row``, columns named by position."""
+    options = dict(
+        sep=sample.delimiter or _NO_DELIMITER, header=None, names=list(range(width)),
         skiprows=first_data_row, encoding=sample.encoding, skip_blank_lines=False, engine="c", index_col=False,
     )
+    if len(wanted) < width:
+        options["usecols"] = wanted
+    return options
 
 
 def _read_columns_slowly(path: Path, sample: TextSample, first_data_row: int, wanted: list[int]) -> dict[int, np.ndarray]:
