@@ -1,5 +1,6 @@
 """The readings sheet: edits, one undo step per edit, change notices, flags and counts."""
 
+import dataclasses
 import json
 
 import pytest
@@ -81,6 +82,19 @@ def test_paste_extends_rows_and_groups():
     assert texts(sheet, 0) == ["1", "2", "3"]
     assert texts(sheet, 2) == ["", "", "300"]
     assert sheet.undo_label == "Undo pasting 5 cells into A"
+
+
+def test_edits_that_change_nothing_leave_no_undo_step():
+    sheet = make_sheet(["1", "2"], names=["A"])
+    sheet.paste_block(0, 0, [["1"], ["2"]])
+    sheet.set_text(0, 1, "2")
+    sheet.clear([(0, 5)])
+    sheet.insert_rows(7)
+    sheet.rename_group(0, "A")
+    sheet.move_group(0, 0)
+    sheet.set_group_details(0, lsl=None)
+    sheet.set_decimal(sheet.decimal)
+    assert not sheet.can_undo and not sheet.is_modified
 
 
 def test_columns_never_end_in_blanks():
@@ -228,3 +242,72 @@ def test_damaged_stored_readings_give_a_plain_error(damage):
     damage(data)
     with pytest.raises(ReadingsError):
         SheetSnapshot.from_dict(data)
+
+
+TEXTS = ["0,42", "1,5", "", "scrap", "<0,05", "0,4,2", "12 µm", "7"]
+
+
+def _edit_strategy():
+    from hypothesis import strategies as st
+
+    small = st.integers(0, 4)
+    return st.one_of(
+        st.tuples(st.just("set_text"), small, small, st.sampled_from(TEXTS)),
+        st.tuples(st.just("paste_block"), small, small,
+                  st.lists(st.lists(st.sampled_from(TEXTS), min_size=1, max_size=3), min_size=1, max_size=3)),
+        st.tuples(st.just("clear"), st.lists(st.tuples(small, small), max_size=4)),
+        st.tuples(st.just("insert_rows"), small, st.integers(1, 3)),
+        st.tuples(st.just("delete_rows"), small, st.integers(1, 3)),
+        st.tuples(st.just("add_group"), st.sampled_from([None, "X", "Y"]), st.sampled_from([None, 0, 1])),
+        st.tuples(st.just("rename_group"), small, st.sampled_from(["P", "Q", "A", ""])),
+        st.tuples(st.just("remove_group"), small),
+        st.tuples(st.just("move_group"), small, small),
+        st.tuples(st.just("set_group_details"), small, st.sampled_from(["", "µm"]), st.sampled_from([None, 0.1, 2.0])),
+        st.tuples(st.just("set_decimal"), st.sampled_from(["auto", ".", ","])),
+    )
+
+
+def _apply(sheet, edit):
+    name, *args = edit
+    if name == "set_group_details":
+        index, unit, lsl = args
+        sheet.set_group_details(index, unit=unit, lsl=lsl)
+    else:
+        getattr(sheet, name)(*args)
+
+
+def test_any_sequence_of_edits_undoes_and_redoes_exactly():
+    """Random edits: undoing all of them restores each earlier state in turn, redoing restores the rest."""
+    from hypothesis import given, settings
+    from hypothesis import strategies as st
+
+    @settings(max_examples=120, deadline=None)
+    @given(edits=st.lists(_edit_strategy(), max_size=12))
+    def run(edits):
+        sheet = make_sheet(["1", "2"], ["3"], names=["A", "B"])
+        notices = []
+        sheet.subscribe(notices.append, before=True)
+        states = [sheet.snapshot()]
+        for edit in edits:
+            try:
+                _apply(sheet, edit)
+            except (ValueError, ReadingsError):
+                assert sheet.snapshot() == states[-1], f"a refused edit changed the sheet: {edit}"
+                continue
+            if sheet.snapshot() != states[-1]:
+                states.append(sheet.snapshot())
+        assert [n.before for n in notices] == [True, False] * (len(notices) // 2)
+        assert all(a == dataclasses.replace(b, before=False) for b, a in zip(notices[::2], notices[1::2]))
+        for state in reversed(states[:-1]):
+            sheet.undo()
+            assert sheet.snapshot() == state
+        assert not sheet.can_undo and not sheet.is_modified
+        for state in states[1:]:
+            sheet.redo()
+            assert sheet.snapshot() == state
+        assert not sheet.can_redo
+        for group in range(len(sheet.groups)):
+            cells = sheet.groups[group].cells
+            assert not cells or cells[-1].kind is not CellKind.EMPTY
+
+    run()

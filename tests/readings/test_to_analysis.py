@@ -66,3 +66,13 @@ def test_mixed_detection_limits_ask_the_user_to_choose():
     sheet = make_sheet(["<0.05", "0.12"], ["<0.1", "0.2"])
     with pytest.raises(ReadingsError, match=r"different limits .*<0.1"):
         sheet.to_analysis(Question.TWO_GROUPS, Settings())
+
+
+def test_paired_readings_pair_up_by_row():
+    """Before/after on the same parts: a missing last 'after' reading shows as a blank in its row."""
+    sheet = make_sheet(["1.0", "2.0", "3.0"], ["1.5", "2.5"])
+    before, after = sheet.to_analysis(Question.PAIRED, Settings()).groups
+    assert len(before.values) == len(after.values) == 3
+    assert math.isnan(after.values[2])
+    independent = sheet.to_analysis(Question.TWO_GROUPS, Settings()).groups
+    assert [len(g.values) for g in independent] == [3, 2]

@@ -21,9 +21,12 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     statistics drop and count them). Censored readings with one common limit become one stand-in
     value below every measured reading (see ``rankwise.readings.censored``), with a note saying so;
     mixed limits raise ``ReadingsError``. The notes also list the entries not used, by row.
+    For the paired question every group is padded with NaN to the longest one, so that readings
+    pair up by row and a missing partner shows as a blank in its row.
     """
     question = Question(question)
     censoring = common_limit_value([(column.name, column.cells) for column in columns])
+    length = max((len(column.cells) for column in columns), default=0) if question is Question.PAIRED else 0
     notes: list[str] = []
     groups = []
     for column in columns:
@@ -38,6 +41,7 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
                 decimals = max(decimals or 0, censoring[1])
             else:
                 values.append(math.nan)
+        values.extend([math.nan] * (length - len(values)))
         groups.append(
             GroupReadings(
                 name=column.name, values=tuple(values), unit=column.unit, lsl=column.lsl, usl=column.usl,

@@ -314,7 +314,11 @@ class ReadingSheet:
             for line_number, line in enumerate(block)
             for offset, text in enumerate(line)
         }
-        operations.append(self._write_cells(writes))
+        writes = {
+            (g, r): cell for (g, r), cell in writes.items() if g >= len(self.groups) or cell != self.cell(g, r)
+        }
+        if writes:
+            operations.append(self._write_cells(writes))
         count = sum(len(line) for line in block)
         target = self.groups[index].name if index < len(self.groups) else "new groups"
         self._commit(f"pasting {count} cell{'s' if count != 1 else ''} into {target}", operations)
