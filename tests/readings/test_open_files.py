@@ -134,6 +134,8 @@ def test_explicit_decimal_and_encoding(tmp_path):
         open_readings(path, encoding="no-such-encoding")
     with pytest.raises(ValueError, match="layout"):
         open_readings(path, layout="sideways")
+    with pytest.raises(ValueError, match="group_column"):
+        open_readings(path, layout="wide", group_column="A")
 
 
 def test_wide_layout_with_blanks_notes_and_rows(tmp_path, unchanged):

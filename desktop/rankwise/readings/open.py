@@ -21,7 +21,7 @@ from rankwise.readings.cells import CellKind, SkippedCell
 from rankwise.readings.columns import ParsedColumn, RawColumn, check_texts_match, parse_column
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import (
-    LAYOUTS, TableShape, choose_layout, find_shape, guess_decimal, is_number_text, profile_columns,
+    LAYOUTS, LayoutChoice, TableShape, choose_layout, find_shape, guess_decimal, is_number_text, profile_columns,
 )
 from rankwise.readings.parse import check_decimal
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
@@ -45,7 +45,8 @@ _SIGNATURES = {
 class _Table:
     """A file's table before the layout is chosen: a sample of its rows, and a way to load columns."""
 
-    source: dict
+    source: dict[str, object]
+    """Fields of ``SourceInfo`` known from the file's kind (format, encoding, sheet names...)."""
     rows: list[list[str]]
     numeric: list[list[bool]]
     decimal: str
@@ -83,6 +84,8 @@ def open_readings(
     """
     if layout not in LAYOUTS:
         raise ValueError(f'layout must be "auto", "wide" or "stacked"; got {layout!r}.')
+    if layout == "wide" and group_column is not None:
+        raise ValueError('group_column belongs to the "stacked" layout; leave it out for "wide" or choose "stacked".')
     check_decimal(decimal)
     if encoding is not None:
         try:
@@ -322,7 +325,10 @@ def _skipped(parsed: ParsedColumn, header: str, first_row_number: int) -> tuple[
     )
 
 
-def _notes(shape: TableShape, table: _Table, choice, groups: list[ReadingGroup], unlabelled: list[SkippedCell]) -> list[str]:
+def _notes(
+    shape: TableShape, table: _Table, choice: LayoutChoice, groups: list[ReadingGroup], unlabelled: list[SkippedCell]
+) -> list[str]:
+    """Plain words on what was chosen, assumed and skipped."""
     notes = list(choice.notes)
     if shape.header_row == 1:
         notes.append("Row 1, above the header, was taken as a title and skipped.")
