@@ -116,7 +116,7 @@ def long_export(rng: np.random.Generator) -> None:
         elif number % 1499 == 700:
             text = ""
         stamp = (start + dt.timedelta(minutes=3 * number)).strftime("%Y-%m-%d %H:%M")
-        rows.append([stamp, line, text, operators[(number // 160) % 3]])
+        rows.append([stamp, line, text, operators[(number // 40) % 3]])
     write_atomically(HERE / "long_export.csv", csv_bytes(rows, ","))
 
 

@@ -99,6 +99,8 @@ class ParsedColumn:
     @property
     def length(self) -> int:
         """Rows up to the last one that is not blank."""
+        if self.raw.texts is None and self.values.size and not np.isnan(self.values[-1]):
+            return self.values.size
         filled = ~np.isnan(self.values) if self.raw.texts is None else self.raw.texts != ""
         if not filled.any():
             return 0

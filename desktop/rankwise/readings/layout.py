@@ -84,7 +84,10 @@ _NUMBER_LIKE = (CellKind.NUMBER, CellKind.CENSORED)
 
 def is_number_text(text: str) -> bool:
     """True for a text that reads as a number (or a reading below a limit) with either decimal mark."""
-    return parse_reading(text).kind in _NUMBER_LIKE or parse_reading(text, decimal=",").kind in _NUMBER_LIKE
+    kind = parse_reading(text, decimal=".").kind
+    if kind is CellKind.INVALID:
+        kind = parse_reading(text, decimal=",").kind
+    return kind in _NUMBER_LIKE
 
 
 def find_shape(rows: Sequence[Sequence[str]], numeric: Sequence[Sequence[bool]] | None = None) -> TableShape | None:

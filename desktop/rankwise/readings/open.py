@@ -28,7 +28,7 @@ from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
 
 PREVIEW_ROWS = 20
 """Rows of the file shown in the open dialog's preview."""
-SAMPLE_ROWS = 400
+SAMPLE_ROWS = open_csv.SAMPLE_ROWS
 """Rows looked at to find the header, the decimal mark and the layout."""
 
 _SIGNATURES = {
@@ -266,9 +266,10 @@ def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingG
     parsed = parse_column(raw, decimal)
     length = parsed.length
     values = parsed.values[:length]
+    blank = np.isnan(values)
     return ReadingGroup(
         name=raw.header,
-        values=values[~np.isnan(values)],
+        values=values[~blank] if blank.any() else values,
         skipped=_skipped(parsed, raw.header, first_row_number),
         make_decimals=lambda: parsed.decimals,
         make_cells=lambda: tuple(parsed.cell(row) for row in range(length)),

@@ -22,7 +22,8 @@ from rankwise.readings.errors import ReadingsError
 
 SAMPLE_CHARACTERS = 1 << 18
 """How much of a text file is looked at to find its encoding, separator, header and layout."""
-SAMPLE_ROWS = 200
+SAMPLE_ROWS = 120
+"""Rows looked at to find the header, the decimal mark and the layout."""
 MAX_CELL_CHARACTERS = 10_000
 """A cell longer than this is not part of a readings export."""
 
