@@ -37,6 +37,8 @@ _EXACT_CRITICAL_LIMIT = 400
 """Largest n for which critical_t counts the exact no-ties distribution (normal beyond)."""
 _WALSH_BRUTE_LIMIT = 1000
 """Largest n for which all Walsh averages are formed; beyond, order statistics are selected."""
+_PIVOT_SAMPLE = 8192
+"""Sums sampled per selection round to place the two pivots."""
 
 
 def compare_paired(
@@ -369,9 +371,10 @@ def _pairs_needed(n: int, alpha: float, alternative: str) -> int:
 def walsh_sum_order_statistic(sorted_values: np.ndarray, k: int, seed: int = 0) -> float:
     """The k-th smallest (1-based) of the n(n+1)/2 sums x_i + x_j, i <= j, of sorted x.
 
-    Up to n = 1000 all sums are formed; beyond, a randomised selection in the spirit of Monahan
-    (1984, ACM TOMS 10, 265-270) narrows, row by row, the range of j that can still hold the
-    answer, using O(n) memory.
+    Up to n = 1000 all sums are formed; beyond, the range of j that can still hold the answer is
+    narrowed row by row (Monahan 1984, ACM TOMS 10, 265-270), each round between two pivots taken
+    from a random sample of the remaining sums on either side of the wanted rank (the idea of
+    Floyd & Rivest 1975, CACM 18, 165-172). Memory stays O(n); the seed only fixes the path.
     """
     x = np.asarray(sorted_values, dtype=float)
     n = x.size
@@ -389,40 +392,53 @@ def walsh_sum_order_statistic(sorted_values: np.ndarray, k: int, seed: int = 0) 
     while True:
         sizes = high - low
         remaining = int(sizes.sum())
-        below = int((low - rows).sum())
-        if remaining <= 4 * n:
+        wanted = k - int((low - rows).sum())
+        if remaining <= 16 * n:
             candidates = np.concatenate([x[i] + x[low[i] : high[i]] for i in np.flatnonzero(sizes)])
-            return float(np.partition(candidates, k - below - 1)[k - below - 1])
-        pick = int(rng.integers(remaining))
-        row = int(np.searchsorted(np.cumsum(sizes), pick, side="right"))
-        column = low[row] + pick - int(np.cumsum(sizes)[row - 1] if row else 0)
-        pivot = x[row] + x[column]
-        first_not_below = _row_positions(x, pivot, strict=True)
-        first_above = _row_positions(x, pivot, strict=False)
-        if k <= int((first_not_below - rows).sum()):
-            high = np.minimum(high, first_not_below)
-        elif k > int((first_above - rows).sum()):
-            low = np.maximum(low, first_above)
+            return float(np.partition(candidates, wanted - 1)[wanted - 1])
+        ends = np.cumsum(sizes)
+        picks = rng.integers(remaining, size=_PIVOT_SAMPLE)
+        picked_rows = np.searchsorted(ends, picks, side="right")
+        picked_columns = low[picked_rows] + picks - (ends[picked_rows] - sizes[picked_rows])
+        sample = np.sort(x[picked_rows] + x[picked_columns])
+        centre = wanted / remaining * _PIVOT_SAMPLE
+        reach = 3.0 * np.sqrt(_PIVOT_SAMPLE)
+        pivot_low = sample[int(np.clip(np.floor(centre - reach), 0, _PIVOT_SAMPLE - 1))]
+        pivot_high = sample[int(np.clip(np.ceil(centre + reach), 0, _PIVOT_SAMPLE - 1))]
+        # Every branch drops at least one candidate (a pivot is itself a candidate), so this ends.
+        # Pivots are candidates, so each row's answer lies within its current range [low, high].
+        below_low = _count_below(x, pivot_low, True, low, high)
+        up_to_low = _count_below(x, pivot_low, False, low, high)
+        below_high = _count_below(x, pivot_high, True, low, high)
+        up_to_high = _count_below(x, pivot_high, False, low, high)
+        if k <= below_low[1]:
+            high = np.minimum(high, below_low[0])
+        elif k <= up_to_low[1]:
+            return float(pivot_low)
+        elif k > up_to_high[1]:
+            low = np.maximum(low, up_to_high[0])
+        elif k > below_high[1]:
+            return float(pivot_high)
         else:
-            return float(pivot)
+            low = np.maximum(low, up_to_low[0])
+            high = np.minimum(high, below_high[0])
 
 
-def _row_positions(x: np.ndarray, pivot: float, strict: bool) -> np.ndarray:
-    """Per row i, the first j >= i with x_i + x_j >= pivot (strict) or > pivot (not strict)."""
-    n = x.size
-    low = np.arange(n)
-    high = np.full(n, n)
+def _count_below(x: np.ndarray, pivot: float, strict: bool, low: np.ndarray, high: np.ndarray) -> tuple[np.ndarray, int]:
+    """Per row i, the first j >= i with x_i + x_j >= pivot (strict) or > pivot (not strict),
+    searched within [low_i, high_i]; and how many sums lie below (or up to) the pivot."""
+    low = low.copy()
+    high = high.copy()
+    rows = np.arange(x.size)
     while True:
-        active = low < high
-        if not active.any():
-            return low
-        middle = (low + high) // 2
-        sums = x[np.arange(n)] + x[np.minimum(middle, n - 1)]
+        active = np.flatnonzero(low < high)
+        if active.size == 0:
+            return low, int((low - rows).sum())
+        middle = (low[active] + high[active]) // 2
+        sums = x[active] + x[middle]
         inside = sums < pivot if strict else sums <= pivot
-        move_up = active & inside
-        move_down = active & ~inside
-        low = np.where(move_up, middle + 1, low)
-        high = np.where(move_down, middle, high)
+        low[active[inside]] = middle[inside] + 1
+        high[active[~inside]] = middle[~inside]
 
 
 def _walsh_median(sorted_counts: np.ndarray) -> float:
