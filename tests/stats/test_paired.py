@@ -127,9 +127,11 @@ def test_equivalence_uses_the_ninety_percent_interval():
     assert compare_paired(HW_X, HW_Y).equivalent is None
 
 
-def test_walsh_selection_beyond_the_brute_force_limit_matches_enumeration():
-    """n = 1200 uses selection; compared with all 720 600 sums sorted (brute-force enumeration)."""
-    x = np.sort(np.round(np.random.default_rng(4).normal(0, 1, 1200), 2))
+@pytest.mark.parametrize("decimals", [2, 1])
+def test_walsh_selection_beyond_the_brute_force_limit_matches_enumeration(decimals):
+    """n = 1200 uses selection; compared with all 720 600 sums sorted (brute-force enumeration).
+    One decimal makes long runs of equal sums, where the selection must still end."""
+    x = np.sort(np.round(np.random.default_rng(4).normal(0, 1, 1200), decimals))
     i, j = np.triu_indices(x.size)
     every = np.sort(x[i] + x[j])
     for k in (1, 2, 5000, 360300, 360301, 720600):
