@@ -190,3 +190,13 @@ def test_wrong_encoding_chosen(tmp_path):
     path = tmp_path / "utf16.csv"
     path.write_bytes("A;B\n1;2\n3;4\n5;6\n".encode("utf-16"))
     refused(path, "cannot be read as utf-8", encoding="utf-8")
+
+
+def test_zip_of_an_unsupported_version(tmp_path):
+    """A damaged header claiming a zip version the reader does not know (found by the fuzzer)."""
+    data = bytearray((DEMO / "push_out_force_three_presses.xlsx").read_bytes())
+    central = data.rfind(b"PK\x01\x02")
+    data[central + 6] = 64  # "version needed to extract" of the last central directory entry
+    path = tmp_path / "version.xlsx"
+    path.write_bytes(bytes(data))
+    refused(path, "damaged")

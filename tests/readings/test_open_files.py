@@ -217,6 +217,19 @@ def test_workbook_title_block_dates_and_sheet_choice(tmp_path, unchanged):
         open_readings(path, sheet="Nope")
 
 
+def test_workbook_with_decimal_comma_texts_writes_its_numbers_the_same_way(tmp_path):
+    """Stored numbers beside texts such as "0,45" get a comma too, so the sheet reads them all alike."""
+    path = write_workbook(tmp_path, "d.xlsx", [["A", "B"], [0.42, "0,51"], [0.45, "0,55"], ["0,41", 0.53]])
+    rs = open_readings(path)
+    assert rs.source.decimal == ","
+    sheet = ReadingSheet.from_reading_set(rs)
+    assert sheet.cell(0, 0).text == "0,42"
+    sheet.set_decimal(".")
+    sheet.set_decimal(",")
+    assert [sheet.cell(0, row).value for row in range(3)] == [0.42, 0.45, 0.41]
+    assert [sheet.cell(1, row).value for row in range(3)] == [0.51, 0.55, 0.53]
+
+
 def test_first_sheet_with_numbers_is_chosen(tmp_path):
     path = write_workbook(tmp_path, "c.xlsx", [["About this file"], ["text only"]], "About",
                           extra_sheets=[("Readings", [["A", "B"], [1, 2], [3, 4], [5, 6]])])

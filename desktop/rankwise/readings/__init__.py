@@ -1,4 +1,11 @@
-"""Readings: the Qt-free model of groups and cells, value parsing, and opening and saving CSV/XLSX files."""
+"""Readings: the Qt-free model of groups and cells, value parsing, and opening and saving CSV/XLSX files.
+
+- ``parse_reading(text, decimal=..., unit=...) -> Cell``: one typed or read value, text kept.
+- ``ReadingSheet``: groups of cells as typed; every edit one undoable step; ``subscribe`` for
+  ``SheetChange`` notices; ``snapshot()`` / ``from_snapshot``; ``to_analysis(question, settings)``.
+- ``open_readings(path, ...) -> ReadingSet`` or ``ReadingsError``; ``ReadingSheet.from_reading_set``.
+- ``save_sheet(sheet, path)``: the texts as typed, CSV or XLSX, written atomically.
+"""
 
 from rankwise.readings.cells import Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError

@@ -43,7 +43,7 @@ def check_container(path: Path) -> None:
     try:
         with zipfile.ZipFile(path) as archive:
             members = archive.infolist()
-    except (zipfile.BadZipFile, OSError, ValueError, EOFError) as error:
+    except (zipfile.BadZipFile, OSError, ValueError, EOFError, NotImplementedError, RuntimeError) as error:
         raise ReadingsError(
             f"The workbook '{path.name}' is damaged and cannot be opened; open it in a spreadsheet program "
             "and save it again, or export the sheet as CSV."
@@ -117,8 +117,8 @@ def _sheet_name(path: Path, sheet: str | int, names: tuple[str, ...]) -> str:
     )
 
 
-def value_text(value: object) -> str:
-    """The text for a stored value: numbers in their shortest exact form, dates in ISO form."""
+def value_text(value: object, decimal: str = ".") -> str:
+    """The text for a stored value: numbers in their shortest exact form with ``decimal`` as the mark, dates in ISO form."""
     if value is None:
         return ""
     if isinstance(value, bool):
@@ -128,7 +128,7 @@ def value_text(value: object) -> str:
     if isinstance(value, float):
         if value.is_integer() and abs(value) < 1e15:
             return str(int(value))
-        return repr(value)
+        return repr(value).replace(".", decimal)
     if isinstance(value, (dt.datetime, dt.date, dt.time)):
         return value.isoformat()
     if isinstance(value, dt.timedelta):
@@ -136,14 +136,17 @@ def value_text(value: object) -> str:
     return str(value)
 
 
-def raw_columns(rows: list[list[object]], first_data_row: int, headers: list[str]) -> list[RawColumn]:
-    """The data rows below the header as columns of texts, stored numbers and not-a-reading marks."""
+def raw_columns(rows: list[list[object]], first_data_row: int, headers: list[str], decimal: str) -> list[RawColumn]:
+    """The data rows below the header as columns of texts, stored numbers and not-a-reading marks.
+
+    Stored numbers are written with the workbook's decimal mark, so that the texts read back the same.
+    """
     data = rows[first_data_row:]
     columns = []
     for j, header in enumerate(headers):
         values = [row[j] if j < len(row) else None for row in data]
         texts = np.empty(len(values), dtype=object)
-        texts[:] = [value_text(v) for v in values]
+        texts[:] = [value_text(v, decimal) for v in values]
         typed = np.array(
             [float(v) if isinstance(v, (int, float)) and not isinstance(v, bool) else np.nan for v in values],
             dtype=float,
