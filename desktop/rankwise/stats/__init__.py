@@ -11,7 +11,9 @@ from rankwise.stats.analysis import (
     Question,
     Settings,
 )
+from rankwise.stats.critical import critical_u
 from rankwise.stats.progress import Cancelled, Monitor
+from rankwise.stats.ranks import midranks
 from rankwise.stats.results import (
     BrunnerMunzelResult,
     ConfidenceInterval,
@@ -28,6 +30,8 @@ from rankwise.stats.results import (
     TieBlock,
     TwoGroupResult,
 )
+from rankwise.stats.service import run
+from rankwise.stats.two_groups import compare_two
 
 __all__ = [
     "ALTERNATIVES",
@@ -52,4 +56,8 @@ __all__ = [
     "ShapeCheck",
     "TieBlock",
     "TwoGroupResult",
+    "compare_two",
+    "critical_u",
+    "midranks",
+    "run",
 ]
