@@ -11,6 +11,8 @@ from rankwise.stats.analysis import (
     Question,
     Settings,
 )
+from rankwise.stats.paired import compare_paired, critical_t
+from rankwise.stats.planning import plan_group_size, plan_paired_size, simulate_paired_power, simulate_power
 from rankwise.stats.critical import critical_u
 from rankwise.stats.progress import Cancelled, Monitor
 from rankwise.stats.ranks import midranks
@@ -32,6 +34,8 @@ from rankwise.stats.results import (
 )
 from rankwise.stats.service import run
 from rankwise.stats.two_groups import compare_two
+from rankwise.stats.several import compare_several, holm_adjust
+from rankwise.stats.shape import brunner_munzel, check_shape, mood_median
 
 __all__ = [
     "ALTERNATIVES",
@@ -60,4 +64,15 @@ __all__ = [
     "critical_u",
     "midranks",
     "run",
+    "brunner_munzel",
+    "check_shape",
+    "compare_paired",
+    "compare_several",
+    "critical_t",
+    "holm_adjust",
+    "mood_median",
+    "plan_group_size",
+    "plan_paired_size",
+    "simulate_paired_power",
+    "simulate_power",
 ]

@@ -22,6 +22,7 @@ import numpy as np
 from scipy import stats as _dist
 
 from rankwise.stats.grid import find_grid
+from rankwise.stats.hodges_lehmann import select_walsh_sums
 from rankwise.stats.inputs import check_choice, check_level
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.ranks import rank_groups
@@ -35,10 +36,6 @@ NULL_CHART_LIMIT = 200
 """Largest number of non-zero differences for which the null distribution is kept for the chart."""
 _EXACT_CRITICAL_LIMIT = 400
 """Largest n for which critical_t counts the exact no-ties distribution (normal beyond)."""
-_WALSH_BRUTE_LIMIT = 1000
-"""Largest n for which all Walsh averages are formed; beyond, order statistics are selected."""
-_PIVOT_SAMPLE = 8192
-"""Sums sampled per selection round to place the two pivots."""
 
 
 def compare_paired(
@@ -368,88 +365,13 @@ def _pairs_needed(n: int, alpha: float, alternative: str) -> int:
     return n
 
 
-def walsh_sum_order_statistic(sorted_values: np.ndarray, k: int, seed: int = 0) -> float:
-    """The k-th smallest (1-based) of the n(n+1)/2 sums x_i + x_j, i <= j, of sorted x.
-
-    Up to n = 1000 all sums are formed; beyond, the range of j that can still hold the answer is
-    narrowed row by row (Monahan 1984, ACM TOMS 10, 265-270), each round between two pivots taken
-    from a random sample of the remaining sums on either side of the wanted rank (the idea of
-    Floyd & Rivest 1975, CACM 18, 165-172). Memory stays O(n); the seed only fixes the path.
-    """
-    x = np.asarray(sorted_values, dtype=float)
-    n = x.size
-    total = n * (n + 1) // 2
-    if not 1 <= k <= total:
-        raise ValueError(f"k must lie between 1 and {total}; got {k!r}.")
-    if n <= _WALSH_BRUTE_LIMIT:
-        rows, cols = np.triu_indices(n)
-        sums = x[rows] + x[cols]
-        return float(np.partition(sums, k - 1)[k - 1])
-    rng = np.random.default_rng(seed)
-    rows = np.arange(n)
-    low = rows.copy()
-    high = np.full(n, n)
-    while True:
-        sizes = high - low
-        remaining = int(sizes.sum())
-        wanted = k - int((low - rows).sum())
-        if remaining <= 16 * n:
-            candidates = np.concatenate([x[i] + x[low[i] : high[i]] for i in np.flatnonzero(sizes)])
-            return float(np.partition(candidates, wanted - 1)[wanted - 1])
-        ends = np.cumsum(sizes)
-        picks = rng.integers(remaining, size=_PIVOT_SAMPLE)
-        picked_rows = np.searchsorted(ends, picks, side="right")
-        picked_columns = low[picked_rows] + picks - (ends[picked_rows] - sizes[picked_rows])
-        sample = np.sort(x[picked_rows] + x[picked_columns])
-        centre = wanted / remaining * _PIVOT_SAMPLE
-        reach = 3.0 * np.sqrt(_PIVOT_SAMPLE)
-        pivot_low = sample[int(np.clip(np.floor(centre - reach), 0, _PIVOT_SAMPLE - 1))]
-        pivot_high = sample[int(np.clip(np.ceil(centre + reach), 0, _PIVOT_SAMPLE - 1))]
-        # Every branch drops at least one candidate (a pivot is itself a candidate), so this ends.
-        # Pivots are candidates, so each row's answer lies within its current range [low, high].
-        below_low = _count_below(x, pivot_low, True, low, high)
-        up_to_low = _count_below(x, pivot_low, False, low, high)
-        below_high = _count_below(x, pivot_high, True, low, high)
-        up_to_high = _count_below(x, pivot_high, False, low, high)
-        if k <= below_low[1]:
-            high = np.minimum(high, below_low[0])
-        elif k <= up_to_low[1]:
-            return float(pivot_low)
-        elif k > up_to_high[1]:
-            low = np.maximum(low, up_to_high[0])
-        elif k > below_high[1]:
-            return float(pivot_high)
-        else:
-            low = np.maximum(low, up_to_low[0])
-            high = np.minimum(high, below_high[0])
-
-
-def _count_below(x: np.ndarray, pivot: float, strict: bool, low: np.ndarray, high: np.ndarray) -> tuple[np.ndarray, int]:
-    """Per row i, the first j >= i with x_i + x_j >= pivot (strict) or > pivot (not strict),
-    searched within [low_i, high_i]; and how many sums lie below (or up to) the pivot."""
-    low = low.copy()
-    high = high.copy()
-    rows = np.arange(x.size)
-    while True:
-        active = np.flatnonzero(low < high)
-        if active.size == 0:
-            return low, int((low - rows).sum())
-        middle = (low[active] + high[active]) // 2
-        sums = x[active] + x[middle]
-        inside = sums < pivot if strict else sums <= pivot
-        low[active[inside]] = middle[inside] + 1
-        high[active[~inside]] = middle[~inside]
-
-
 def _walsh_median(sorted_counts: np.ndarray) -> float:
-    """Median of the Walsh sums d_i + d_j (i <= j), i.e. twice the pseudo-median."""
+    """Median of the Walsh sums d_i + d_j (i <= j), i.e. twice the pseudo-median.
+
+    The sums are selected, never all formed (``rankwise.stats.hodges_lehmann.select_walsh_sums``).
+    """
     total = sorted_counts.size * (sorted_counts.size + 1) // 2
-    if total % 2:
-        return walsh_sum_order_statistic(sorted_counts, (total + 1) // 2)
-    return (
-        walsh_sum_order_statistic(sorted_counts, total // 2)
-        + walsh_sum_order_statistic(sorted_counts, total // 2 + 1)
-    ) / 2.0
+    return float(np.mean(select_walsh_sums(sorted_counts, [(total + 1) // 2, total // 2 + 1])))
 
 
 def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, method: str) -> ConfidenceInterval | None:
@@ -463,8 +385,7 @@ def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, method: str) 
     if c is None:
         return None
     total = n * (n + 1) // 2
-    low = walsh_sum_order_statistic(sorted_counts, c + 1)
-    high = walsh_sum_order_statistic(sorted_counts, total - c)
+    low, high = select_walsh_sums(sorted_counts, [c + 1, total - c])
     attained = 1.0 - 2.0 * _no_ties_tail(n, c)
     return ConfidenceInterval(
         low=float(grid.to_readings(low)) / 2.0,
