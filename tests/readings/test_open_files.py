@@ -354,3 +354,13 @@ def test_press_numbers_name_the_groups(tmp_path):
     assert rs.source.layout == "stacked" and rs.source.group_column == "Press"
     assert rs.group_names == ["1", "2", "3"]
     assert [g.values.size for g in rs.groups] == [4, 4, 4]
+
+
+def test_unknown_single_byte_text_falls_back_and_only_line_ends_split_rows(tmp_path):
+    """Bytes that neither UTF-8 nor cp1252 define are read as Latin-1; a stray NEL (0x85) is no line end."""
+    path = tmp_path / "odd.csv"
+    path.write_bytes(b"Gauge\x81\x85 A;B\r\n1,5;2,5\r\n1,25;2,75\r\n1,0;3,0\r\n")
+    rs = open_readings(path)
+    assert rs.source.encoding == "latin-1"
+    assert rs.group_names == ["Gauge\x81\x85 A", "B"]
+    assert rs.groups[0].values.tolist() == [1.5, 1.25, 1.0]

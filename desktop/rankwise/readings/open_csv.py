@@ -32,6 +32,8 @@ DELIMITERS = (";", "\t", "|", ",")
 
 _NO_DELIMITER = "\x1f"
 """Stands in for the separator of a single-column file (the unit separator never occurs in exports)."""
+_LINE_BREAK = re.compile(r"\r\n|\r|\n")
+"""Line ends as CSV readers see them (not the other breaks ``str.splitlines`` knows)."""
 _CONTROL_CHARACTERS = re.compile(r"[\x00-\x08\x0b\x0c\x0e-\x1f]")
 _DECIMAL_COMMA_LINE = re.compile(r"\s*[+-]?\d*,\d+\s*")
 
@@ -105,7 +107,9 @@ def read_sample(path: Path, encoding: str) -> TextSample:
     controls = len(_CONTROL_CHARACTERS.findall(text, 0, 100_000))
     if controls > 0.01 * min(len(text), 100_000) or "\x00" in text:
         raise not_a_spreadsheet(path)
-    lines = text.splitlines()
+    lines = _LINE_BREAK.split(text)
+    if lines and lines[-1] == "":
+        lines.pop()
     if not complete and lines:
         lines.pop()
     lines = lines[:SAMPLE_ROWS]
@@ -198,7 +202,9 @@ def _read_columns_slowly(path: Path, sample: TextSample, first_data_row: int, wa
     """Row by row, for files the fast parser refuses (ragged rows, mixed line ends, late encoding slips)."""
     try:
         with open(path, encoding=sample.encoding, errors="strict", newline="") as stream:
-            lines = stream.read().splitlines()
+            lines = _LINE_BREAK.split(stream.read())
+        if lines and lines[-1] == "":
+            lines.pop()
     except UnicodeDecodeError as error:
         raise ReadingsError(
             f"'{path.name}' is not {sample.encoding} text throughout; choose the file's encoding "
