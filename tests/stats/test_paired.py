@@ -210,3 +210,23 @@ def test_pseudo_median_and_interval_of_many_pairs_match_all_walsh_averages():
     c = int(np.floor(n * (n + 1) / 4 - 0.5 - stats.norm.isf(0.025) * np.sqrt(n * (n + 1) * (2 * n + 1) / 24)))
     assert critical_t(n, 0.05) == c
     assert (result.shift_ci.low, result.shift_ci.high) == pytest.approx((walsh[c], walsh[walsh.size - c - 1]), abs=1e-12)
+
+
+def test_the_window_front_door_answers_the_paired_question():
+    """run(analysis) on the H&W (1999) p. 39 pairs, padded with a blank row as the sheet pads a
+    shorter column: exact two-sided p = 0.0390625, the blank row dropped and named."""
+    from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
+    from rankwise.stats.service import run
+
+    analysis = Analysis(
+        question=Question.PAIRED,
+        groups=(
+            GroupReadings("Before cure", tuple(HW_X) + (1.5,)),
+            GroupReadings("After cure", tuple(HW_Y) + (float("nan"),)),
+        ),
+        settings=Settings(zero_method="pratt"),
+    )
+    result = run(analysis)
+    assert result.p_value == pytest.approx(0.0390625, abs=1e-12)
+    assert (result.name_a, result.name_b, result.zero_method, result.n_dropped) == ("Before cure", "After cure", "pratt", 1)
+    assert any("Row(s) 10" in w for w in result.warnings)

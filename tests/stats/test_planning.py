@@ -117,3 +117,13 @@ def test_the_plan_lists_its_assumptions():
     result = plan_group_size(0.5, 1.0)
     assert any("same bell-like shape" in a for a in result.assumptions)
     assert any("independently" in a for a in result.assumptions)
+
+
+def test_the_window_front_door_answers_the_planning_question():
+    """run(analysis) with Noether's (1987) example settings: 44 per group, checked by simulation."""
+    from rankwise.stats.analysis import Analysis, Question, Settings
+    from rankwise.stats.service import PLAN_SIMULATIONS, run
+
+    result = run(Analysis(question=Question.PLAN, groups=(), settings=Settings(planned_prob_b_greater=0.7, power=0.9)))
+    assert (result.n_a, result.n_b) == (44, 44)
+    assert abs(result.simulated_power - 0.90) < 4 * math.sqrt(0.9 * 0.1 / PLAN_SIMULATIONS)

@@ -175,3 +175,21 @@ def test_p_values_are_probabilities_and_h_matches_scipy(raw_groups):
         assert 0.0 <= pair.p_value <= pair.p_adjusted <= 1.0
     if result.tie_correction > 0:
         assert result.h == pytest.approx(stats.kruskal(*[np.array(g, float) for g in raw_groups]).statistic, abs=1e-9)
+
+
+def test_the_window_front_door_answers_the_several_groups_question():
+    """run(analysis) on Zar's ponds: H = 11.9435 (checks.md), each pond against pond 1."""
+    from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
+    from rankwise.stats.service import run
+
+    analysis = Analysis(
+        question=Question.SEVERAL,
+        groups=tuple(GroupReadings(f"Pond {name}", tuple(values)) for name, values in ZAR_PONDS.items()),
+        settings=Settings(comparison="against-reference", reference="Pond 1"),
+    )
+    result = run(analysis)
+    assert result.h == pytest.approx(11.9435, abs=5e-5)
+    assert [p.group_b for p in result.pairs] == ["Pond 2", "Pond 3", "Pond 4"]
+    twins = Analysis(question=Question.SEVERAL, groups=(GroupReadings("A", (1.0, 2.0)), GroupReadings("A", (3.0, 4.0))))
+    with pytest.raises(ValueError, match="own name"):
+        run(twins)
