@@ -211,6 +211,7 @@ def _column_index(name: str | int, headers: Sequence[str], argument: str) -> int
 def _read_groups(
     path: Path, table: _Table, layout: str, value_column: object, group_column: str | int | None
 ) -> ReadingSet:
+    """Find the table's shape and layout in the sample, load the columns needed, and build the groups."""
     shape = find_shape(table.rows, table.numeric)
     if shape is None:
         width = max((len(row) for row in table.rows), default=0)
