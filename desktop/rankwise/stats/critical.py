@@ -22,6 +22,10 @@ EXACT_WORK_LIMIT = 100_000_000
 """Largest (smaller size) x (truncation point) counted exactly (about 0.3 s; e.g. 580 + 580)."""
 
 
+_RELATIVE_TOLERANCE = 1e-10
+"""A tail equal to the level up to rounding counts as equal (e.g. 7/70 at 10 % for 4 + 4)."""
+
+
 @dataclass(frozen=True)
 class CriticalValue:
     """The critical U for given sizes and level, and how it was found.
@@ -109,7 +113,7 @@ def critical_value(n_a: int, n_b: int, alpha: float = 0.05, alternative: str = "
         return CriticalValue(u=edgeworth_critical_u(n_a, n_b, tail), attained_alpha=None, exact=False)
     while True:
         cumulative = np.cumsum(lower_tail_probabilities(n_a, n_b, u_max))
-        allowed = np.flatnonzero(cumulative <= tail)
+        allowed = np.flatnonzero(cumulative <= tail * (1.0 + _RELATIVE_TOLERANCE))
         if allowed[-1] < u_max or u_max >= half:
             u = int(allowed[-1])
             return CriticalValue(u=u, attained_alpha=float(min(1.0, tails * cumulative[u])), exact=True)
