@@ -98,7 +98,7 @@ class MainWindow(QMainWindow):
         self._build_menus()
         self._wire()
         self._progress_timer = QTimer(self, singleShot=True, interval=PROGRESS_DELAY_MS)
-        self._progress_timer.timeout.connect(lambda: self.results_panel.show_busy(True, self._progress))
+        self._progress_timer.timeout.connect(lambda: self.results_panel.show_working(self._progress))
         self._progress = 0.0
         self._edit_timer = QTimer(self, singleShot=True, interval=0)
         self._edit_timer.timeout.connect(lambda: self._refresh_after_edit(immediately=False))

@@ -134,6 +134,16 @@ class ResultsPanel(QWidget):
         )
         self._clear_details()
 
+    def show_working(self, fraction: float = 0.0) -> None:
+        """A calculation takes a while: say so (an earlier verdict no longer fits the readings)."""
+        self._set_headline("Working out the verdict…", "waiting")
+        self.sentences.setText(
+            "The calculation runs in the background; you can keep typing. "
+            "Press Esc or the stop button to stop it."
+        )
+        self._clear_details()
+        self.show_busy(True, fraction)
+
     def show_busy(self, busy: bool, fraction: float = 0.0) -> None:
         """Show or hide the progress strip with its stop button."""
         self.busy_strip.setVisible(busy)
