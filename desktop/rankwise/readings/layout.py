@@ -80,10 +80,13 @@ class LayoutChoice:
 
 
 _NUMBER_LIKE = (CellKind.NUMBER, CellKind.CENSORED)
+_PLAIN_NUMBER = re.compile(r"[+-]?[0-9]{1,15}(?:[.,][0-9]{1,15})?")
 
 
 def is_number_text(text: str) -> bool:
     """True for a text that reads as a number (or a reading below a limit) with either decimal mark."""
+    if _PLAIN_NUMBER.fullmatch(text):
+        return True
     kind = parse_reading(text, decimal=".").kind
     if kind is CellKind.INVALID:
         kind = parse_reading(text, decimal=",").kind
