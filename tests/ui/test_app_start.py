@@ -101,3 +101,14 @@ def test_report_help_comes_from_the_records_layer(capsys):
     assert stopped.value.code == 0
     shown = capsys.readouterr().out
     assert "--signed-by" in shown and "--out" in shown
+
+
+def test_main_window_constructs_with_no_arguments(qtbot):
+    """`rankwise.ui.MainWindow()` gives a window with an empty sheet and the cautions note."""
+    from rankwise.ui import MainWindow
+    from rankwise.wording import CAUTION_SHORT
+
+    window = MainWindow()
+    qtbot.addWidget(window)
+    assert window.sheet.group_names == ["A", "B"] and window.sheet.row_count == 0
+    assert CAUTION_SHORT in window.results_panel.caution.text()
