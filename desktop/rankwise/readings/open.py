@@ -186,8 +186,7 @@ def _workbook_table(path: Path, sheet: str | int | None, decimal: str) -> _Table
     numeric = [[m or is_number_text(t) for t, m in zip(row, marks)] for row, marks in zip(texts, typed)]
 
     def load(shape: TableShape, wanted: list[int], numeric: list[int]) -> list[RawColumn]:
-        columns = open_xlsx.raw_columns(read.rows, shape.first_data_row, list(shape.headers), decimal)
-        return [columns[j] for j in wanted]
+        return open_xlsx.raw_columns(read.rows, shape.first_data_row, list(shape.headers), decimal, wanted)
 
     source = {"format": "xlsx", "sheet": read.name, "sheet_names": read.names}
     return _Table(source, texts, numeric, decimal, note, load)

@@ -136,14 +136,17 @@ def value_text(value: object, decimal: str = ".") -> str:
     return str(value)
 
 
-def raw_columns(rows: list[list[object]], first_data_row: int, headers: list[str], decimal: str) -> list[RawColumn]:
-    """The data rows below the header as columns of texts, stored numbers and not-a-reading marks.
+def raw_columns(
+    rows: list[list[object]], first_data_row: int, headers: list[str], decimal: str, wanted: list[int]
+) -> list[RawColumn]:
+    """The ``wanted`` columns' data rows as texts, stored numbers and not-a-reading marks.
 
     Stored numbers are written with the workbook's decimal mark, so that the texts read back the same.
     """
     data = rows[first_data_row:]
     columns = []
-    for j, header in enumerate(headers):
+    for j in wanted:
+        header = headers[j]
         values = [row[j] if j < len(row) else None for row in data]
         texts = np.empty(len(values), dtype=object)
         texts[:] = [value_text(v, decimal) for v in values]
