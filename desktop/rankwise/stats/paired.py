@@ -9,7 +9,10 @@ Methods, 2nd ed., ch. 3):
 - exact p: the sign-flip distribution of W+ given the observed mid-ranks of |d| (conditional on
   the ties), two-sided p by doubling the smaller tail;
 - normal approximation: tie-corrected variance, continuity correction 0.5 (as
-  ``scipy.stats.wilcoxon(..., method="asymptotic", correction=True)``).
+  ``scipy.stats.wilcoxon(..., method="asymptotic", correction=True)``);
+- Hodges-Lehmann pseudo-median and its interval: over every complete pair, zeros included
+  (the interval inverts the test at shifts other than the observed differences, where no
+  difference is zero); the critical value is that of n differences without ties.
 """
 
 from __future__ import annotations
@@ -59,7 +62,9 @@ def compare_paired(
     ``alternative``: "two-sided", "b-greater" (the second reading tends to be higher) or
     "b-less". ``method``: "exact", "normal" or "auto" (exact while affordable). ``margin``: the
     pseudo-median's (1 - 2 alpha) interval must lie strictly inside (-margin, +margin) for
-    ``equivalent`` (two one-sided tests). Raises ValueError for unequal lengths, non-numbers,
+    ``equivalent`` (two one-sided tests). ``critical_t`` is that of the non-zero differences
+    ranked 1..n without ties; None under Pratt's convention with zeros (the ranks then start
+    above the zeros' block, so no table applies). Raises ValueError for unequal lengths, non-numbers,
     infinite readings, no complete pair, or a wrong argument.
     """
     check_choice("alternative", alternative, ("two-sided", "b-greater", "b-less"))
@@ -138,7 +143,7 @@ def compare_paired(
 
     sorted_d = np.sort(d_counts)
     shift = float(grid.to_readings(_walsh_median(sorted_d)) / 2.0)
-    shift_ci = _walsh_interval(sorted_d, grid, confidence, "Walsh averages, exact no-ties critical value")
+    shift_ci = _walsh_interval(sorted_d, grid, confidence, "")
     if shift_ci is None:
         warnings.append(
             f"Too few pairs for a {confidence:.0%} distribution-free interval of the pseudo-median."
@@ -147,7 +152,7 @@ def compare_paired(
     equivalence_ci = None
     if margin is not None:
         equivalence_ci = _walsh_interval(
-            sorted_d, grid, 1.0 - 2.0 * alpha, "Walsh averages, exact no-ties critical value (two one-sided tests)"
+            sorted_d, grid, 1.0 - 2.0 * alpha, " (two one-sided tests)"
         )
         if equivalence_ci is None:
             warnings.append("Too few pairs to show equivalence at this significance level.")
@@ -374,11 +379,13 @@ def _walsh_median(sorted_counts: np.ndarray) -> float:
     return float(np.mean(select_walsh_sums(sorted_counts, [(total + 1) // 2, total // 2 + 1])))
 
 
-def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, method: str) -> ConfidenceInterval | None:
+def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, purpose: str) -> ConfidenceInterval | None:
     """Distribution-free interval [W_(C+1), W_(M-C)] of the pseudo-median, or None if too few pairs.
 
     C is the two-sided critical T at 1 - level for n differences without ties (Hollander & Wolfe
-    1999, section 3.3); W are the sorted Walsh averages; zeros count as differences.
+    1999, section 3.3); W are the sorted Walsh averages; zeros count as differences. With tied
+    differences the coverage is close to, not exactly, the attained level. ``purpose`` is added
+    to the method's description.
     """
     n = sorted_counts.size
     c = critical_t(n, 1.0 - level, "two-sided")
@@ -391,6 +398,7 @@ def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, method: str) 
         low=float(grid.to_readings(low)) / 2.0,
         high=float(grid.to_readings(high)) / 2.0,
         level=float(level),
-        method=method,
+        method=f"Walsh averages, {'exact' if n <= _EXACT_CRITICAL_LIMIT else 'normal-approximation'} "
+        f"no-ties critical value{purpose}",
         attained_level=attained if abs(attained - level) > 1e-12 else None,
     )
