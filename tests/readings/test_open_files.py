@@ -364,3 +364,21 @@ def test_unknown_single_byte_text_falls_back_and_only_line_ends_split_rows(tmp_p
     assert rs.source.encoding == "latin-1"
     assert rs.group_names == ["Gauge\x81\x85 A", "B"]
     assert rs.groups[0].values.tolist() == [1.5, 1.25, 1.0]
+
+
+@pytest.mark.parametrize(
+    ("title", "unit"),
+    [("Push-out force (kN)", "kN"), ("Ra [µm]", "µm"), ("Runout (mm)", "mm"), ("Wheel A (current)", ""), ("Force", ""), ("T (°C) ", "°C")],
+)
+def test_unit_from_the_column_title(title, unit):
+    """Units in brackets at the end of a title are recognised; other bracketed words are not units."""
+    from rankwise.readings.layout import unit_in_header
+
+    assert unit_in_header(title) == unit
+
+
+def test_units_reach_the_sheet():
+    sheet = ReadingSheet.from_reading_set(open_readings(DEMO / "push_out_force_three_presses.xlsx"))
+    assert [g.unit for g in sheet.groups] == ["kN"] * 3
+    wheels = ReadingSheet.from_reading_set(open_readings(DEMO / "two_wheels_roughness.csv"))
+    assert [g.unit for g in wheels.groups] == ["", ""]

@@ -31,6 +31,20 @@ _GROUP_HEADER = re.compile(
 )
 
 
+_UNITS = frozenset(
+    "nm µm um μm mm cm m in inch mil N kN mN Nm N·m bar mbar Pa kPa MPa psi °C °F K % ppm g kg mg s ms min h "
+    "V mV A mA Ω Ohm HV HRC HB HRB dB rpm mm/s µm/m l/min ml/min".split()
+)
+"""Units of measured characteristics recognised in a column title (common practice, no source)."""
+_UNIT_IN_TITLE = re.compile(r".*[(\[]\s*([^()\[\]]{1,10}?)\s*[)\]]\s*")
+
+
+def unit_in_header(header: str) -> str:
+    """The unit written in brackets at the end of a column title ("Force (kN)" gives "kN"), or ""."""
+    match = _UNIT_IN_TITLE.fullmatch(header)
+    return match[1] if match and match[1] in _UNITS else ""
+
+
 @dataclass(frozen=True)
 class TableShape:
     """Where the table starts: the header row (or -1 for none), the first data row, the column names."""

@@ -22,6 +22,7 @@ from rankwise.readings.columns import ParsedColumn, RawColumn, check_texts_match
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import (
     LAYOUTS, LayoutChoice, TableShape, choose_layout, find_shape, guess_decimal, is_number_text, profile_columns,
+    unit_in_header,
 )
 from rankwise.readings.parse import check_decimal
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
@@ -269,6 +270,7 @@ def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingG
     blank = np.isnan(values)
     return ReadingGroup(
         name=raw.header,
+        unit=unit_in_header(raw.header),
         values=values[~blank] if blank.any() else values,
         skipped=_skipped(parsed, raw.header, first_row_number),
         make_decimals=lambda: parsed.decimals,
@@ -309,6 +311,7 @@ def _stacked_groups(
         groups.append(
             ReadingGroup(
                 name=name,
+                unit=unit_in_header(value.header),
                 values=values[~np.isnan(values)],
                 skipped=tuple(skipped.get(k, ())),
                 make_decimals=lambda: parsed.decimals,
@@ -339,6 +342,9 @@ def _notes(
         notes.append("The file has no header row; the columns are named by position.")
     if table.decimal_note:
         notes.append(table.decimal_note)
+    units = sorted({g.unit for g in groups if g.unit})
+    if units:
+        notes.append(f"Unit taken from the column title: {', '.join(units)}.")
     total = sum(g.values.size for g in groups)
     notes.append(f"{total} readings in {len(groups)} group{'s' if len(groups) != 1 else ''}.")
     skipped = [s for g in groups for s in g.skipped] + unlabelled

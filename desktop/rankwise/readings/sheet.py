@@ -122,9 +122,9 @@ class ReadingSheet:
 
     @classmethod
     def from_reading_set(cls, reading_set: ReadingSet) -> ReadingSheet:
-        """A sheet holding the groups of an opened file, cells as read, with the file's decimal mark."""
+        """A sheet holding the groups of an opened file, cells as read, with the file's decimal mark and units."""
         return cls(
-            (GroupColumn(group.name, cells=list(group.cells)) for group in reading_set.groups),
+            (GroupColumn(group.name, unit=group.unit, cells=list(group.cells)) for group in reading_set.groups),
             decimal=reading_set.source.decimal,
         )
 
