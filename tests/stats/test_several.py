@@ -1,6 +1,5 @@
 """Kruskal-Wallis with Dunn's pairs and Holm's adjustment, checked against outside sources."""
 
-import itertools
 
 import numpy as np
 import pytest
