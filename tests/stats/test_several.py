@@ -1,6 +1,5 @@
 """Kruskal-Wallis with Dunn's pairs and Holm's adjustment, checked against outside sources."""
 
-
 import numpy as np
 import pytest
 from hypothesis import given, settings
