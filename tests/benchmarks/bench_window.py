@@ -24,6 +24,7 @@ import time
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
 
 import numpy as np  # noqa: E402
+from PySide6.QtCore import QEventLoop, QTimer  # noqa: E402
 from PySide6.QtWidgets import QApplication  # noqa: E402
 
 REPEATS = 15
@@ -38,11 +39,17 @@ def _readings(seed: int = 7) -> list[list[str]]:
 
 
 def _wait(application: QApplication, condition, timeout: float = 30.0) -> None:
+    """Run the event loop (sleeping between events, as the real window does) until ``condition`` holds."""
+    loop = QEventLoop()
+    poll = QTimer(interval=1)
+    poll.timeout.connect(lambda: loop.quit() if condition() else None)
     deadline = time.perf_counter() + timeout
+    poll.start()
     while not condition():
-        application.processEvents()
+        loop.exec()
         if time.perf_counter() > deadline:
             raise TimeoutError("the window did not answer in time")
+    poll.stop()
 
 
 def bench_edit_to_verdict(application: QApplication) -> tuple[list[float], list[float], list[float]]:

@@ -131,6 +131,11 @@ class RankTableModel(QAbstractTableModel):
         self._numeric = numeric_columns
         self.endResetModel()
 
+    @property
+    def headers(self) -> tuple[str, ...]:
+        """The column titles shown."""
+        return self._headers
+
     def rowCount(self, parent: QModelIndex = QModelIndex()) -> int:  # noqa: B008, N802 - Qt API
         return 0 if parent.isValid() else len(self._rows)
 
@@ -176,7 +181,7 @@ class RankTable(QWidget):
         self.view.verticalHeader().hide()
         self.view.setAlternatingRowColors(False)
         self.view.setSelectionBehavior(QTableView.SelectionBehavior.SelectRows)
-        self.view.horizontalHeader().setResizeContentsPrecision(200)
+        self.view.horizontalHeader().setResizeContentsPrecision(100)
         self.view.horizontalHeader().setStretchLastSection(True)
         self.sums = QLabel()
         self.sums.setObjectName("rankSums")
@@ -186,6 +191,7 @@ class RankTable(QWidget):
         layout.setContentsMargins(0, 0, 0, 0)
         layout.addWidget(self.view, 1)
         layout.addWidget(self.sums)
+        self._sized_for: tuple[str, ...] = ()
         self.clear()
 
     def clear(self, message: str = "The ranks appear here once there is a verdict.") -> None:
@@ -226,7 +232,9 @@ class RankTable(QWidget):
         else:
             self.clear("The planning question uses no readings, so there is nothing to rank.")
             return
-        self.view.resizeColumnsToContents()
+        if self.model.headers != self._sized_for:
+            self._sized_for = self.model.headers
+            self.view.resizeColumnsToContents()
 
 
 def _decimals(analysis) -> int | None:

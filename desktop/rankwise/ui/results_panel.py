@@ -69,6 +69,7 @@ class ResultsPanel(QWidget):
             self._numbers_grid.setColumnStretch(column * 2, 3)
             self._numbers_grid.setColumnStretch(column * 2 + 1, 2)
         self._number_labels: dict[str, QLabel] = {}
+        self._name_labels: dict[str, QLabel] = {}
 
         body = QWidget()
         body.setObjectName("resultsBody")
@@ -190,11 +191,15 @@ class ResultsPanel(QWidget):
         self._fill_numbers(())
 
     def _fill_numbers(self, numbers: Sequence) -> None:
+        if [number.key for number in numbers] == list(self._number_labels):
+            self._update_numbers(numbers)
+            return
         while self._numbers_grid.count():
             item = self._numbers_grid.takeAt(0)
             if item.widget() is not None:
                 item.widget().deleteLater()
         self._number_labels = {}
+        self._name_labels = {}
         for position, number in enumerate(numbers):
             row, pair = divmod(position, KEY_NUMBER_COLUMNS)
             name = QLabel(number.label)
@@ -211,8 +216,20 @@ class ResultsPanel(QWidget):
             self._numbers_grid.addWidget(name, row, pair * 2)
             self._numbers_grid.addWidget(value, row, pair * 2 + 1, Qt.AlignmentFlag.AlignLeft)
             self._number_labels[number.key] = value
+            self._name_labels[number.key] = name
         self.numbers_title.setVisible(bool(numbers))
         self._numbers_box.setVisible(bool(numbers))
+
+    def _update_numbers(self, numbers: Sequence) -> None:
+        """Same key numbers as shown (typing changed their values): update the texts in place."""
+        for number in numbers:
+            name, value = self._name_labels[number.key], self._number_labels[number.key]
+            name.setText(number.label)
+            value.setText(number.text)
+            for label in (name, value):
+                label.setToolTip(number.tooltip)
+            value.setAccessibleName(number.label)
+            value.setAccessibleDescription(number.tooltip)
 
 
 def _escape(text: str) -> str:
