@@ -10,9 +10,11 @@ two independent differences:
 
     n = (z_(1-alpha/2) + z_(power))^2 / (3 (p' - 1/2)^2)
 
-Both compare the statistic's mean under the shift with its spread when nothing changed. Under a
-normal shift model with spread sigma, p = Phi(shift / (sigma sqrt 2)) and p' = Phi(shift sqrt 2 /
-sigma_d), where sigma_d is the spread of the differences.
+(the signed-rank form is quoted from memory; it follows from the mean of W+ under the shift,
+about n^2 p' / 2, against its null spread, about sqrt(n^3 / 12), and the simulation in the tests
+confirms it). Both compare the statistic's mean under the shift with its spread when nothing
+changed. Under a normal shift model with spread sigma, p = Phi(shift / (sigma sqrt 2)) and
+p' = Phi(shift sqrt 2 / sigma_d), where sigma_d is the spread of the differences.
 """
 
 from __future__ import annotations
