@@ -191,3 +191,15 @@ def test_the_window_front_door_answers_the_several_groups_question():
     twins = Analysis(question=Question.SEVERAL, groups=(GroupReadings("A", (1.0, 2.0)), GroupReadings("A", (3.0, 4.0))))
     with pytest.raises(ValueError, match="own name"):
         run(twins)
+
+
+@settings(max_examples=25, deadline=None)
+@given(st.lists(st.lists(st.integers(0, 6), min_size=2, max_size=5), min_size=3, max_size=3), st.permutations([0, 1, 2]))
+def test_the_order_of_the_groups_does_not_change_the_answer(raw_groups, order):
+    """H, its permutation p and the set of Dunn p-values do not depend on the order of the groups."""
+    groups = {f"g{i}": [v / 10 for v in g] for i, g in enumerate(raw_groups)}
+    reordered = {f"g{i}": groups[f"g{i}"] for i in order}
+    first, second = compare_several(groups), compare_several(reordered)
+    assert first.h == pytest.approx(second.h, abs=1e-9)
+    assert first.p_value == pytest.approx(second.p_value, abs=1e-12)
+    assert sorted(p.p_adjusted for p in first.pairs) == pytest.approx(sorted(p.p_adjusted for p in second.pairs), abs=1e-12)

@@ -137,3 +137,32 @@ def test_brunner_munzel_p_is_a_probability_and_swapping_groups_swaps_directions(
     assert 0.0 <= forward.p_value <= 1.0
     assert forward.p_value == pytest.approx(backward.p_value, abs=1e-12)
     assert forward.statistic == pytest.approx(-backward.statistic, abs=1e-12)
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.lists(st.integers(0, 9), min_size=1, max_size=9), min_size=2, max_size=4))
+def test_mood_median_matches_scipy_on_any_small_integer_groups(raw_groups):
+    """scipy.stats.median_test(*groups) (defaults), whenever its table has no empty row."""
+    groups = [np.array(g, float) for g in raw_groups]
+    result = mood_median(groups)
+    if result is None:
+        with pytest.raises(ValueError):
+            stats.median_test(*groups)
+        return
+    statistic, p, grand_median, _ = stats.median_test(*groups)
+    assert result.p_value == pytest.approx(p, abs=1e-9)
+    assert result.grand_median == grand_median
+
+
+@settings(max_examples=40, deadline=None)
+@given(st.lists(st.integers(0, 9), min_size=5, max_size=12), st.lists(st.integers(0, 9), min_size=5, max_size=12))
+def test_dispersion_check_matches_scipy_fligner_on_any_integer_groups(a, b):
+    """scipy.stats.fligner(a, b, center="median") on whole numbers (no floating-point noise)."""
+    a, b = np.array(a, float), np.array(b, float)
+    result = check_shape(a, b)
+    with np.errstate(all="ignore"):
+        reference = stats.fligner(a, b, center="median").pvalue
+    if np.isnan(reference):  # every distance from the median equal: no information about spread
+        assert result.dispersion_p == 1.0
+    else:
+        assert result.dispersion_p == pytest.approx(reference, abs=1e-9)
