@@ -5,7 +5,7 @@ from __future__ import annotations
 from PySide6.QtCore import Qt
 
 from rankwise.readings import GroupColumn, ReadingSheet
-from rankwise.ui.sheet_model import CELL_KIND_ROLE, INVALID_MARK, MINIMUM_ROWS, SPARE_ROWS, SheetModel
+from rankwise.ui.sheet_model import CELL_KIND_ROLE, FLAG_MARK, INVALID_MARK, MINIMUM_ROWS, SPARE_ROWS, SheetModel
 
 
 def _sheet() -> ReadingSheet:
@@ -94,3 +94,17 @@ def test_read_only_model_refuses_edits():
     assert not model.flags(model.index(0, 0)) & Qt.ItemFlag.ItemIsEditable
     assert not model.setData(model.index(0, 0), "1.0")
     assert sheet.row_count == 0
+
+
+def test_suspicious_reading_is_marked_by_a_symbol_and_explained():
+    """A reading ten times the others (a likely slipped decimal point) is used as typed but marked and explained."""
+    sheet = _sheet()
+    model = SheetModel(sheet)
+    sheet.paste_block(0, 0, [["0.42"], ["0.41"], ["0.43"], ["0.40"], ["0.44"], ["4.2"]])
+    index = model.index(5, 0)
+    assert model.data(index, CELL_KIND_ROLE) == "number"
+    assert model.data(index, Qt.ItemDataRole.DisplayRole) == "4.2" + FLAG_MARK
+    assert model.data(index, Qt.ItemDataRole.EditRole) == "4.2"
+    assert model.data(index, Qt.ItemDataRole.FontRole).underline()
+    assert model.data(index, Qt.ItemDataRole.ToolTipRole).startswith("Worth a second look (used as typed): ")
+    assert model.data(model.index(0, 0), Qt.ItemDataRole.DisplayRole) == "0.42"

@@ -311,6 +311,13 @@ class MainWindow(QMainWindow):
         marker = " •" if self.has_unsaved_readings() else ""
         signed = " (signed, read-only)" if self.sheet_model.read_only else ""
         self.setWindowTitle(f"{name}{marker}{signed} — Rankwise")
+        record = self.records.signed_record
+        if record is not None:
+            self.status_state.setText(f"Signed record, revision {record.signoff.revision}: read-only")
+        elif self.records.next_revision > 1:
+            self.status_state.setText(f"Revision {self.records.next_revision}, not signed yet")
+        else:
+            self.status_state.setText("Unsaved readings" if self.has_unsaved_readings() else "")
 
     def undo(self) -> None:
         """Undo the last edit of the sheet."""

@@ -76,6 +76,7 @@ class RecordActions(QObject):
         self.window.sheet_model.set_read_only(False)
         self.window.question_panel.set_read_only(False)
         self.update_enabled()
+        self.window._update_title()
 
     def current_record(self) -> ResultRecord | None:
         """The signed record shown, or an unsigned draft of the current verdict; None without a verdict."""
@@ -140,6 +141,7 @@ class RecordActions(QObject):
         snapshot = self.window.sheet.snapshot()
         self.window.set_sheet(ReadingSheet.from_snapshot(snapshot), None)
         self.next_revision = revision
+        self.window._update_title()
         self.window.statusBar().showMessage(f"Revision {revision}: the readings and the question can be changed again.", 10000)
 
     # -- reopening and checking ------------------------------------------------------------------
