@@ -15,6 +15,7 @@ from rankwise.stats import Analysis, GroupReadings, Question, Settings
 from rankwise.stats.paired import compare_paired
 from rankwise.stats.planning import plan_group_size
 from rankwise.stats.several import compare_several
+from rankwise.stats.two_groups import compare_two
 from rankwise.ui.charts import CumulativeSharePlot, NullDistributionPlot, PowerCurvePlot, ReadingsDotPlot
 from rankwise.ui.charts.cumulative_share import share_steps
 from rankwise.ui.charts.null_distribution import critical_mask, tail_of
@@ -123,6 +124,29 @@ def test_tails_follow_the_direction_of_each_statistic():
         critical_mask([0.5, 0.5], 0.05, "left")
 
 
+def test_region_of_rank_sum_test_matches_the_published_critical_u():
+    # Two groups of five without ties. Two-tailed 5 % critical U for (5, 5): 2 (classic table,
+    # checks.md; exact enumeration agrees), so U of A in {0, 1, 2} or {23, 24, 25} counts.
+    a, b = (1.1, 1.4, 1.9, 2.2, 2.8), (1.6, 2.5, 3.0, 3.3, 3.7)
+    result = compare_two(a, b, method="exact")
+    distribution = result.null_distribution
+    support = np.asarray(distribution.support)
+    mask = critical_mask(distribution.probabilities, 0.05, tail_of(result, distribution.statistic))
+    assert list(support[mask]) == [0, 1, 2, 23, 24, 25]
+    assert result.critical_u == 2
+
+
+def test_rank_sum_region_direction_agrees_with_the_results_own_exact_p_value():
+    a, b = (0.82, 0.85, 0.85, 0.88, 0.90, 0.91, 0.91, 0.93), (0.88, 0.92, 0.95, 0.95, 0.97, 0.99, 1.02)
+    for alternative in ("two-sided", "b-greater", "b-less"):
+        result = compare_two(a, b, alternative=alternative, method="exact")
+        distribution = result.null_distribution
+        mask = critical_mask(distribution.probabilities, result.alpha, tail_of(result, distribution.statistic))
+        observed = list(np.asarray(distribution.support)).index(distribution.observed)
+        assert bool(mask[observed]) == (result.p_exact <= result.alpha), alternative
+    assert compare_two(a, b, alternative="b-greater").significant  # the region test above is not vacuous
+
+
 # ---- widgets -----------------------------------------------------------------------------------
 
 @pytest.mark.parametrize("chart", [ReadingsDotPlot, CumulativeSharePlot, NullDistributionPlot, PowerCurvePlot],
@@ -206,6 +230,31 @@ def test_null_distribution_shows_exact_bars_or_the_curve_the_p_value_came_from(c
     result, analysis = plan_case()
     chart.show_result(result, analysis)
     assert chart.shown == "" and chart.note()
+
+
+@pytest.mark.parametrize("chart", [NullDistributionPlot], indirect=True)
+def test_observed_u_is_marked_where_the_published_example_puts_it(chart):
+    # Shier (2004), "The Mann-Whitney U test": [19, 22, 16, 29, 24] vs [20, 11, 17, 12]; U = 17 and 3.
+    a, b = (19.0, 22.0, 16.0, 29.0, 24.0), (20.0, 11.0, 17.0, 12.0)
+    analysis = Analysis(Question.TWO_GROUPS, (GroupReadings("A", a), GroupReadings("B", b)))
+    result = compare_two(a, b, method="exact")
+    chart.show_result(result, analysis)
+    save(chart, "null-exact-two-groups")
+    assert chart.shown == "exact" and chart._observed.value() == 17.0
+    assert "U of A = 17" in chart._observed.label.toPlainText()
+
+
+@pytest.mark.parametrize("chart", [ReadingsDotPlot], indirect=True)
+def test_dot_plot_of_two_groups_shows_both_groups_at_the_gauge_resolution(chart):
+    a, b = (0.82, 0.85, 0.85, 0.88, 0.90, 0.91, 0.91, 0.93), (0.88, 0.92, 0.95, 0.95, 0.97, 0.99, 1.02)
+    analysis = Analysis(Question.TWO_GROUPS, (GroupReadings("Wheel A", a, "µm", 0.6, 1.2, None, 2),
+                                              GroupReadings("Wheel B", b, "µm", 0.6, 1.2, None, 2)),
+                        Settings(characteristic="Roughness Ra"))
+    chart.show_result(compare_two(a, b, name_a="Wheel A", name_b="Wheel B"), analysis)
+    save(chart, "dots-two-groups")
+    assert [len(chart._dots[i].getData()[0]) for i in range(2)] == [8, 7]
+    assert chart._lines["lsl"].label.toPlainText() == "LSL 0.60"
+    assert chart.tick_labels() == ["1 Wheel A", "2 Wheel B"]
 
 
 @pytest.mark.parametrize("chart", [PowerCurvePlot], indirect=True)

@@ -27,6 +27,7 @@ from rankwise.stats import Question, Settings
 from rankwise.stats.paired import compare_paired
 from rankwise.stats.planning import plan_group_size
 from rankwise.stats.several import compare_several
+from rankwise.stats.two_groups import compare_two
 from rankwise.ui.printing import print_verdict, write_verdict_pdf
 from rankwise.wording import CAUTION_SHORT, describe
 
@@ -62,6 +63,18 @@ def paired_record(signoff=None, method="auto") -> ResultRecord:
     analysis = sheet.to_analysis(Question.PAIRED, Settings(characteristic="Coating thickness"))
     a, b = analysis.groups
     result = compare_paired(a.values, b.values, name_a=a.name, name_b=b.name, method=method)
+    return ResultRecord.now(analysis, sheet.snapshot(), result, signoff if signoff is not None else signed())
+
+
+def two_group_record(alternative="two-sided", margin=None, signoff=None) -> ResultRecord:
+    """Surface roughness from two grinding wheels (invented readings at 0.01 µm resolution)."""
+    sheet = sheet_of({"Wheel A (current)": "0.82 0.85 0.85 0.88 0.90 0.91 0.91 0.93 0.87 0.86".split(),
+                      "Wheel B (new supplier)": "0.88 0.92 0.95 0.95 0.97 0.99 1.02 0.91 0.94".split()},
+                     lsl=0.60, usl=1.20)
+    settings = Settings(characteristic="Roughness Ra", alternative=alternative, margin=margin)
+    analysis = sheet.to_analysis(Question.TWO_GROUPS, settings)
+    a, b = analysis.groups
+    result = compare_two(a.values, b.values, name_a=a.name, name_b=b.name, alternative=alternative, margin=margin)
     return ResultRecord.now(analysis, sheet.snapshot(), result, signoff if signoff is not None else signed())
 
 
@@ -101,6 +114,9 @@ def check_one_page(path: Path, page_size: str) -> None:
 
 
 CASES = {
+    "two-groups": lambda: two_group_record(),
+    "two-groups-b-higher": lambda: two_group_record("b-greater"),
+    "two-groups-equivalence-long-comment": lambda: two_group_record(margin=0.05, signoff=signed(LONG_COMMENT)),
     "paired": lambda: paired_record(),
     "paired-normal-unsigned-review": lambda: paired_record(signed(reviewed=False), method="normal"),
     "two-groups-of-several": lambda: several_record(2, 12),
@@ -237,7 +253,7 @@ def test_the_command_line_renders_without_a_running_application(tmp_path):
 
 
 @pytest.mark.skipif(shutil.which("pdftoppm") is None, reason="pdftoppm (poppler-utils) renders the pages to look at")
-@pytest.mark.parametrize("case", ["paired", "8-groups-80-character-names", "12-groups-long-comment", "plan"])
+@pytest.mark.parametrize("case", ["two-groups", "paired", "8-groups-80-character-names", "12-groups-long-comment", "plan"])
 def test_rendered_pages_are_saved_for_looking_at(qapp, tmp_path, case):
     SCREENSHOTS.mkdir(exist_ok=True)
     for page_size in ("A4", "Letter"):
