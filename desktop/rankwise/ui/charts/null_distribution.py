@@ -180,8 +180,11 @@ class NullDistributionPlot(ChartFrame):
 
     def _mark_observed(self, value: float, label: str, low: float, high: float) -> None:
         """The vertical line at the observed statistic, labelled on the side with more room."""
-        side = (1, 0.5) if value > (low + high) / 2 else (0, 0.5)
+        on_right = value > (low + high) / 2
+        side = (1, 0.5) if on_right else (0, 0.5)
         self._observed.label.anchors = [side, side]
+        corner = (0, 0) if on_right else (1, 0)
+        self.legend.anchor(itemPos=corner, parentPos=corner, offset=(8, 8) if on_right else (-8, 8))
         self._observed.setVisible(True)
         self._observed.setValue(value)
         self._observed.label.setFormat(f"observed: {label}".replace("{", "{{").replace("}", "}}"))
