@@ -33,7 +33,7 @@ from rankwise.stats.results import ConfidenceInterval, NullDistribution, PairedR
 from rankwise.stats.summary import summarize
 
 ZERO_METHODS = ("wilcox", "pratt")
-EXACT_BUDGET = 1.5e8
+EXACT_BUDGET = 4e7
 """Largest (non-zero differences) x (reduced rank total) for which "auto" uses the exact p."""
 NULL_CHART_LIMIT = 200
 """Largest number of non-zero differences for which the null distribution is kept for the chart."""
