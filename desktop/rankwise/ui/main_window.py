@@ -164,7 +164,8 @@ class MainWindow(QMainWindow):
         self.statusBar().addWidget(self.status_counts, 1)
         self.statusBar().addPermanentWidget(self.status_state)
 
-    def _action(self, text: str, handler, shortcut=None, tip: str = "") -> QAction:
+    def make_action(self, text: str, handler, shortcut=None, tip: str = "") -> QAction:
+        """A menu action calling ``handler()``, with an optional shortcut and a plain-words tip."""
         action = QAction(text, self)
         if shortcut is not None:
             action.setShortcut(QKeySequence(shortcut))
@@ -177,13 +178,13 @@ class MainWindow(QMainWindow):
     def _build_menus(self) -> None:
         bar = self.menuBar()
         file_menu = bar.addMenu("&File")
-        self.new_action = self._action("&New sheet", self.new_sheet, QKeySequence.StandardKey.New, "Start an empty sheet.")
-        self.open_action = self._action("&Open readings…", self.ask_and_open, QKeySequence.StandardKey.Open,
+        self.new_action = self.make_action("&New sheet", self.new_sheet, QKeySequence.StandardKey.New, "Start an empty sheet.")
+        self.open_action = self.make_action("&Open readings…", self.ask_and_open, QKeySequence.StandardKey.Open,
                                         "Open a CSV or XLSX export, or a signed result workbook.")
         self.recent_menu = file_menu.addMenu("Open &recent")
-        self.save_action = self._action("&Save readings as typed…", self.save_readings, QKeySequence.StandardKey.Save,
+        self.save_action = self.make_action("&Save readings as typed…", self.save_readings, QKeySequence.StandardKey.Save,
                                          "Save the readings exactly as typed (CSV or XLSX), to finish later.")
-        self.quit_action = self._action("&Quit", self.close, QKeySequence.StandardKey.Quit)
+        self.quit_action = self.make_action("&Quit", self.close, QKeySequence.StandardKey.Quit)
         file_menu.insertAction(self.recent_menu.menuAction(), self.new_action)
         file_menu.insertAction(self.recent_menu.menuAction(), self.open_action)
         file_menu.addAction(self.save_action)
@@ -196,8 +197,8 @@ class MainWindow(QMainWindow):
         self.recent_menu.aboutToShow.connect(self._fill_recent_menu)
 
         edit = bar.addMenu("&Edit")
-        self.undo_action = self._action("&Undo", self.undo, QKeySequence.StandardKey.Undo)
-        self.redo_action = self._action("&Redo", self.redo, QKeySequence.StandardKey.Redo)
+        self.undo_action = self.make_action("&Undo", self.undo, QKeySequence.StandardKey.Undo)
+        self.redo_action = self.make_action("&Redo", self.redo, QKeySequence.StandardKey.Redo)
         edit.addAction(self.undo_action)
         edit.addAction(self.redo_action)
         edit.addSeparator()
@@ -209,30 +210,30 @@ class MainWindow(QMainWindow):
             ("&Insert rows above", self.grid.insert_rows_above, "Ctrl+Shift++", ""),
             ("&Delete rows", self.grid.delete_selected_rows, "Ctrl+-", ""),
         ):
-            action = self._action(text, handler, shortcut, tip)
+            action = self.make_action(text, handler, shortcut, tip)
             action.setShortcutContext(Qt.ShortcutContext.WidgetShortcut)
             self.grid.addAction(action)
             edit.addAction(action)
             if text == "C&lear cells":
                 edit.addSeparator()
         edit.addSeparator()
-        edit.addAction(self._action("&Add a group", self.add_group, "Ctrl+Shift+N"))
-        edit.addAction(self._action("Group &details (name, unit, limits)…", self.edit_group_details, "Ctrl+G"))
-        edit.addAction(self._action("Move group &left", lambda: self.move_group(-1), "Ctrl+Shift+Left"))
-        edit.addAction(self._action("Move group &right", lambda: self.move_group(+1), "Ctrl+Shift+Right"))
-        edit.addAction(self._action("Re&move group", self.remove_group))
+        edit.addAction(self.make_action("&Add a group", self.add_group, "Ctrl+Shift+N"))
+        edit.addAction(self.make_action("Group &details (name, unit, limits)…", self.edit_group_details, "Ctrl+G"))
+        edit.addAction(self.make_action("Move group &left", lambda: self.move_group(-1), "Ctrl+Shift+Left"))
+        edit.addAction(self.make_action("Move group &right", lambda: self.move_group(+1), "Ctrl+Shift+Right"))
+        edit.addAction(self.make_action("Re&move group", self.remove_group))
         decimal_menu = edit.addMenu("Decimal &separator")
         for text, separator in (("Decide from the readings", "auto"), ("Point (0.42)", "."), ("Comma (0,42)", ",")):
-            decimal_menu.addAction(self._action(text, lambda s=separator: self.set_decimal(s)))
+            decimal_menu.addAction(self.make_action(text, lambda s=separator: self.set_decimal(s)))
 
         question_menu = bar.addMenu("&Question")
         from rankwise.ui.question_panel import QUESTION_OPTIONS
 
         for number, option in enumerate(QUESTION_OPTIONS, start=1):
-            question_menu.addAction(self._action(option.text, lambda key=option.key: self.question_panel.select_option(key),
+            question_menu.addAction(self.make_action(option.text, lambda key=option.key: self.question_panel.select_option(key),
                                                  f"Ctrl+{number}"))
         question_menu.addSeparator()
-        self.stop_action = self._action("&Stop the calculation", self.runner.cancel, "Esc")
+        self.stop_action = self.make_action("&Stop the calculation", self.runner.cancel, "Esc")
         self.stop_action.setEnabled(False)
         question_menu.addAction(self.stop_action)
 
@@ -241,9 +242,9 @@ class MainWindow(QMainWindow):
             record_menu.addAction(action) if action is not None else record_menu.addSeparator()
 
         help_menu = bar.addMenu("&Help")
-        help_menu.addAction(self._action("Open the &demo readings", self.open_demo, None,
+        help_menu.addAction(self.make_action("Open the &demo readings", self.open_demo, None,
                                          "Surface roughness from two grinding wheels (invented data)."))
-        help_menu.addAction(self._action("&About Rankwise", self._show_about))
+        help_menu.addAction(self.make_action("&About Rankwise", self._show_about))
 
     def _wire(self) -> None:
         self.question_panel.changed.connect(self._on_question_changed)
@@ -269,7 +270,7 @@ class MainWindow(QMainWindow):
     def _on_sheet_replaced(self) -> None:
         self.restored_unsaved = False
         self.sheet.subscribe(self._on_sheet_changed)
-        self._update_title()
+        self.update_title()
         self._refresh_after_edit(immediately=True)
 
     def _on_sheet_changed(self, change) -> None:
@@ -284,8 +285,8 @@ class MainWindow(QMainWindow):
             [group.usl - group.lsl if group.usl is not None and group.lsl is not None else None for group in self.sheet.groups],
         )
         self._update_status()
-        self._update_undo_actions()
-        self._update_title()
+        self.update_undo_actions()
+        self.update_title()
         self.request_analysis(immediately)
 
     def _update_status(self) -> None:
@@ -300,13 +301,15 @@ class MainWindow(QMainWindow):
             parts.append(text)
         self.status_counts.setText("   ·   ".join(parts) if parts else "No readings yet: type or paste them into the sheet.")
 
-    def _update_undo_actions(self) -> None:
+    def update_undo_actions(self) -> None:
+        """Undo and redo say what they would undo or redo, and are off when there is nothing or it is signed."""
         self.undo_action.setEnabled(self.sheet.can_undo and not self.sheet_model.read_only)
         self.redo_action.setEnabled(self.sheet.can_redo and not self.sheet_model.read_only)
         self.undo_action.setText(self.sheet.undo_label if self.sheet.can_undo else "&Undo")
         self.redo_action.setText(self.sheet.redo_label if self.sheet.can_redo else "&Redo")
 
-    def _update_title(self) -> None:
+    def update_title(self) -> None:
+        """The title names the file and marks unsaved or signed work; the status line says the same in words."""
         name = self.source_path.name if self.source_path else "New sheet"
         marker = " •" if self.has_unsaved_readings() else ""
         signed = " (signed, read-only)" if self.sheet_model.read_only else ""
@@ -580,7 +583,7 @@ class MainWindow(QMainWindow):
         self.source_path = path
         remember_file(path)
         self.recovery.clear()
-        self._update_title()
+        self.update_title()
         return True
 
     def _fill_recent_menu(self) -> None:
@@ -626,7 +629,7 @@ class MainWindow(QMainWindow):
         self.set_sheet(sheet, source)
         self.restored_unsaved = True
         self.question_panel.from_dict(stored.get("question", {}))
-        self._update_title()
+        self.update_title()
         return True
 
     def closeEvent(self, event: QCloseEvent) -> None:  # noqa: N802 - Qt API

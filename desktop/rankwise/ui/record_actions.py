@@ -28,7 +28,7 @@ class RecordActions(QObject):
         self.window = window
         self.signed_record: ResultRecord | None = None
         self.next_revision = 1
-        make = window._action
+        make = window.make_action
         self.sign_action = make("&Sign and save the result…", self.sign_and_save, "Ctrl+Shift+S",
                                 "Sign the verdict and save it as a result workbook with a fingerprint.")
         self.revision_action = make("Start a &new revision", self.start_revision, None,
@@ -65,8 +65,8 @@ class RecordActions(QObject):
         self.next_revision = record.signoff.revision + 1
         self.window.sheet_model.set_read_only(True)
         self.window.question_panel.set_read_only(True)
-        self.window._update_title()
-        self.window._update_undo_actions()
+        self.window.update_title()
+        self.window.update_undo_actions()
         self.update_enabled()
 
     def forget_signature(self) -> None:
@@ -76,7 +76,7 @@ class RecordActions(QObject):
         self.window.sheet_model.set_read_only(False)
         self.window.question_panel.set_read_only(False)
         self.update_enabled()
-        self.window._update_title()
+        self.window.update_title()
 
     def current_record(self) -> ResultRecord | None:
         """The signed record shown, or an unsigned draft of the current verdict; None without a verdict."""
@@ -141,7 +141,7 @@ class RecordActions(QObject):
         snapshot = self.window.sheet.snapshot()
         self.window.set_sheet(ReadingSheet.from_snapshot(snapshot), None)
         self.next_revision = revision
-        self.window._update_title()
+        self.window.update_title()
         self.window.statusBar().showMessage(f"Revision {revision}: the readings and the question can be changed again.", 10000)
 
     # -- reopening and checking ------------------------------------------------------------------
