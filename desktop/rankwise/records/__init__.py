@@ -3,6 +3,7 @@
 from rankwise.records.errors import RecordError
 from rankwise.records.record import ResultRecord, fingerprint
 from rankwise.records.signoff import DECISIONS, SignOff, Signature
+from rankwise.records.verify import Verification, verify_record
 from rankwise.records.workbook import build_workbook, read_record, write_record
 
 __all__ = [
@@ -11,8 +12,10 @@ __all__ = [
     "ResultRecord",
     "SignOff",
     "Signature",
+    "Verification",
     "build_workbook",
     "fingerprint",
     "read_record",
+    "verify_record",
     "write_record",
 ]

@@ -54,7 +54,19 @@ def interval_phrase(interval: ConfidenceInterval, decimals: int | None, unit: st
     low = format_centre(interval.low, decimals)
     high = format_centre(interval.high, decimals)
     unit_text = f" {unit}" if unit else ""
+    attained = interval.attained_level
+    if attained is not None and attained < interval.level - 1e-9:
+        return (f"{format_level(attained)} confidence interval {low} to {high}{unit_text}; "
+                f"{format_level(interval.level)} cannot be reached with so few readings")
     return f"{format_level(interval.level)} confidence interval {low} to {high}{unit_text}"
+
+
+def method_and_p(method: str, p: float, alpha: float) -> str:
+    """ "Fligner-Killeen (median-centred), chi-square: p = 0.087" from a method name and its p-value."""
+    label = method.strip()
+    if label.endswith(" p"):
+        label = label[:-2].rstrip(" ,:")
+    return f"{label}: {p_phrase(p, alpha)}"
 
 
 def signed_reading(value: float, decimals: int | None, unit: str) -> str:

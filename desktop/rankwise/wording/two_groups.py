@@ -14,6 +14,7 @@ from rankwise.wording.phrases import (
     level_phrase,
     p_method,
     p_phrase,
+    method_and_p,
 )
 from rankwise.wording.questions import decimals_of, margin_text, unit_of, with_unit
 from rankwise.wording.verdict_types import Verdict
@@ -179,29 +180,19 @@ def _assumption_notes(result: TwoGroupResult, analysis: Analysis, b_higher: bool
     if shape is None:
         notes.append("Too few readings to compare the groups' spreads and shapes: the shift is a "
                      "move of the median only if both groups have the same shape.")
-    elif not shape.differ:
-        notes.append(
-            f"The groups' spreads and shapes look alike ({shape.dispersion_method}: "
-            f"{p_phrase(shape.dispersion_p, result.alpha)}; {shape.shape_method}: "
-            f"{p_phrase(shape.shape_p, result.alpha)}), so the shift can be read as a move of "
-            f"the median."
-        )
     else:
-        companion = []
-        if result.brunner_munzel is not None:
-            companion.append(f"the Brunner-Munzel test, which allows unequal spreads, gives "
-                             f"{p_phrase(result.brunner_munzel.p_value, result.alpha)}")
-        if result.mood_median is not None:
-            companion.append(f"Mood's median test (counts above the overall median; not Mood's "
-                             f"test of spread) gives {p_phrase(result.mood_median.p_value, result.alpha)}")
-        notes.append(
-            f"The groups' spreads or shapes differ ({shape.dispersion_method}: "
-            f"{p_phrase(shape.dispersion_p, result.alpha)}; {shape.shape_method}: "
-            f"{p_phrase(shape.shape_p, result.alpha)}): read the result as \"{b} tends to read "
-            f"{higher_or_lower(b_higher)} than {a}\", not as a move of the median"
-            + ("; " + "; ".join(companion) if companion else "") + "."
-        )
-    if (result.method == "exact" and result.attained_alpha is not None
+        tests = (f"{method_and_p(shape.dispersion_method, shape.dispersion_p, result.alpha)}; "
+                 f"{method_and_p(shape.shape_method, shape.shape_p, result.alpha)}")
+        if shape.differ:
+            notes.append(f"The groups' spreads or shapes differ ({tests}): read the result as \"{b} "
+                         f"tends to read {higher_or_lower(b_higher)} than {a}\", not as a move of the median.")
+        else:
+            notes.append(f"The groups' spreads and shapes look alike ({tests}), so the shift can be "
+                         f"read as a move of the median.")
+    if result.mood_median is not None:
+        notes.append(f"Mood's median test (counts above the overall median; not Mood's test of spread) "
+                     f"gives {p_phrase(result.mood_median.p_value, result.alpha)}.")
+    if (result.critical_u is not None and result.method == "exact" and result.attained_alpha is not None
             and result.attained_alpha < 0.8 * result.alpha):
         notes.append(
             f"With these group sizes the exact test is cautious: its true significance level is "
