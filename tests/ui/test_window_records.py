@@ -107,3 +107,19 @@ def test_verdict_saved_as_one_page_pdf(qtbot, window, answers, tmp_path):
     answers.save_path = tmp_path / "verdict.pdf"
     assert window.records.save_pdf() == answers.save_path
     assert len(PdfReader(str(answers.save_path)).pages) == 1
+
+
+def test_a_signed_plan_checks_as_intact(qtbot, window, answers, monkeypatch, tmp_path):
+    """The planning question, signed from the window, is a record that checks as unchanged."""
+    window.open_demo()
+    window.question_panel.select_option("plan")
+    window.question_panel.planned_shift.setValue(0.03)
+    window.question_panel.planned_spread.setValue(0.04)
+    qtbot.waitUntil(lambda: window.last_result is not None and window.last_analysis.question.value == "plan"
+                    and not window.runner.busy, timeout=20000)
+    _sign_with(monkeypatch)
+    answers.save_path = tmp_path / "plan-signed.xlsx"
+    assert window.records.sign_and_save()
+    answers.open_path = answers.save_path
+    window.records.check_record()
+    assert answers.messages and answers.messages[-1][0] == "Record unchanged", answers.problems

@@ -96,6 +96,8 @@ def test_each_question_gives_its_own_verdict(qtbot, window, answers, option):
     if option == "margin":
         assert analysis.settings.margin == pytest.approx(0.05) and window.last_result.equivalent is not None
     assert window.results_panel.headline.text() and window.results_panel.sentences.text()
+    if option == "plan":
+        assert "Wheel A (current)" in window.results_panel.headline.text()
     assert _caution_in_view(window) and answers.problems == []
     screenshot(window, f"window-question-{option}")
 

@@ -396,13 +396,13 @@ class MainWindow(QMainWindow):
         choice = self.question_panel.choice()
         if choice.problem:
             return None, choice.problem
-        if choice.question is Question.PLAN:
+        if choice.question is Question.PLAN and not choice.group_indices:
             return Analysis(choice.question, (), choice.settings), ""
         try:
             analysis = self.sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
         except ReadingsError as error:
             return None, str(error)
-        for group in analysis.groups:
+        for group in analysis.groups if choice.question is not Question.PLAN else ():
             if not any(math.isfinite(value) for value in group.values):
                 return None, f"{group.name or 'A group'} has no readings yet: type or paste them into its column."
         return analysis, ""

@@ -62,7 +62,8 @@ class QuestionChoice:
     Attributes:
         option: the picker entry's key (see ``QUESTION_OPTIONS``).
         question, settings: as handed to the statistics service.
-        group_indices: the sheet columns in question order (A first), () for planning.
+        group_indices: the sheet columns in question order (A first); for planning the two groups
+            the plan is for (they lend their names and unit), or () when there are none.
         problem: a plain-words reason the question cannot be asked yet, else "".
     """
 
@@ -241,7 +242,9 @@ class QuestionPanel(QWidget):
             problem = "" if self.planned_shift.value() > 0 and self.planned_spread.value() > 0 else (
                 "Give the shift worth finding and the usual spread of the readings (both above zero)."
             )
-            return QuestionChoice(option.key, option.question, settings, (), problem)
+            index_a, index_b = self.group_a.currentData(), self.group_b.currentData()
+            named = index_a is not None and index_b is not None and index_a != index_b
+            return QuestionChoice(option.key, option.question, settings, (int(index_a), int(index_b)) if named else (), problem)
         if option.question is Question.SEVERAL:
             reference = self.reference.currentData()
             if reference is not None:
@@ -363,8 +366,8 @@ class QuestionPanel(QWidget):
         question = self.option.question
         visible = {
             "level": True,
-            "a": question in (Question.TWO_GROUPS, Question.PAIRED),
-            "b": question in (Question.TWO_GROUPS, Question.PAIRED),
+            "a": question is not Question.SEVERAL,
+            "b": question is not Question.SEVERAL,
             "reference": question is Question.SEVERAL,
             "direction": question is Question.PAIRED,
             "method": question is not Question.PLAN,
