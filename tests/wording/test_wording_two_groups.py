@@ -28,7 +28,7 @@ def test_significant_shift_is_worded_with_names_units_and_interval():
     """Hollander & Wolfe (1999) Example 4.2: exact two-sided p = 0.00186; shift 410, 95 % CI [168, 690]."""
     result, analysis, verdict = compared(TREATED, CONTROL, ("Old press", "New press"), 0, "N")
     assert verdict.headline == "New press reads higher than Old press."
-    assert verdict.sentences[0] == ("New press reads higher than Old press: the shift is 410 N "
+    assert verdict.sentences[0] == ("New press reads higher than Old press: the shift is +410 N "
                                     "(95 % confidence interval 168 to 690 N, New press minus Old press).")
     assert "p = 0.00186" in verdict.sentences[1]
     assert "exact p-value (permutation distribution given the ties)" in verdict.method_note

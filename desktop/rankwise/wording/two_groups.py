@@ -15,6 +15,7 @@ from rankwise.wording.phrases import (
     p_method,
     p_phrase,
     method_and_p,
+    signed_reading,
 )
 from rankwise.wording.questions import decimals_of, margin_text, unit_of, with_unit
 from rankwise.wording.verdict_types import Verdict
@@ -114,7 +115,7 @@ def _significant_sentence(result: TwoGroupResult, stochastic: bool, b_higher: bo
         return f"{b} tends to read {direction} than {a}: {pairs}."
     if result.shift is None or result.shift_ci is None:
         return f"{b} reads {direction} than {a}: {pairs}."
-    size = with_unit(format_centre(abs(result.shift), decimals), unit)
+    size = signed_reading(result.shift, decimals, unit)
     return (f"{b} reads {direction} than {a}: the shift is {size} "
             f"({interval_phrase(result.shift_ci, decimals, unit)}, {b} minus {a}).")
 
