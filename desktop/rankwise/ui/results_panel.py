@@ -197,6 +197,8 @@ class ResultsPanel(QWidget):
         while self._numbers_grid.count():
             item = self._numbers_grid.takeAt(0)
             if item.widget() is not None:
+                # Hidden at once: a widget left for later deletion would still be drawn until then.
+                item.widget().hide()
                 item.widget().deleteLater()
         self._number_labels = {}
         self._name_labels = {}
