@@ -101,7 +101,7 @@ def _null_distribution(rows: _Rows, null: NullDistribution | None) -> None:
     table = []
     for value, probability in zip(null.support, null.probabilities):
         running += probability
-        table.append(((value, "0.0"), (probability, "0.000000"), (min(running, 1.0), "0.000000")))
+        table.append(((value, "0.0"), (probability, "General"), (min(running, 1.0), "General")))
     rows.table(("Value", "Chance of exactly this", "Chance of this or less"), table)
 
 
