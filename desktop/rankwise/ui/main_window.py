@@ -402,9 +402,12 @@ class MainWindow(QMainWindow):
             analysis = self.sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
         except ReadingsError as error:
             return None, str(error)
-        for group in analysis.groups if choice.question is not Question.PLAN else ():
-            if not any(math.isfinite(value) for value in group.values):
-                return None, f"{group.name or 'A group'} has no readings yet: type or paste them into its column."
+        empty = [group.name for group in analysis.groups if not any(math.isfinite(v) for v in group.values)]
+        if choice.question is not Question.PLAN and empty:
+            if len(empty) == len(analysis.groups):
+                return None, ("Type or paste the readings into the sheet, one column per group, "
+                              "or open a file with File > Open readings (Ctrl+O).")
+            return None, f"{empty[0]} has no readings yet: type or paste them into its column."
         return analysis, ""
 
     def request_analysis(self, immediately: bool = False) -> None:

@@ -191,7 +191,7 @@ class ResultsPanel(QWidget):
         self._fill_numbers(())
 
     def _fill_numbers(self, numbers: Sequence) -> None:
-        if [number.key for number in numbers] == list(self._number_labels):
+        if numbers and [number.key for number in numbers] == list(self._number_labels):
             self._update_numbers(numbers)
             return
         while self._numbers_grid.count():
