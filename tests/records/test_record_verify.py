@@ -162,3 +162,25 @@ def test_files_that_are_not_records_are_said_to_be_so(written, tmp_path):
         verification = verify_record(path)
         assert verification.status == "not-a-record", path
         assert verification.summary
+
+
+def test_a_change_to_any_shown_cell_is_found(written, tmp_path):
+    """A seeded sample of every kind of shown cell (numbers, texts, dates) across all visible sheets."""
+    import random
+    from datetime import datetime, timedelta
+
+    book = load_workbook(written)
+    cells = [(sheet.title, cell.coordinate) for sheet in book.worksheets if sheet.title != PROGRAM_SHEET
+             for row in sheet.iter_rows() for cell in row if cell.value is not None]
+    for title, coordinate in random.Random(5).sample(cells, 24):
+        def edit(book, title=title, coordinate=coordinate):
+            cell = book[title][coordinate]
+            if isinstance(cell.value, datetime):
+                cell.value = cell.value + timedelta(days=1)
+            elif isinstance(cell.value, str):
+                cell.value = cell.value + " "
+            else:
+                cell.value = cell.value + 1
+        verification = verify_record(edited_copy(written, tmp_path, edit))
+        assert verification.status == "changed", (title, coordinate)
+        assert any(coordinate in d for d in verification.differences), (title, coordinate)
