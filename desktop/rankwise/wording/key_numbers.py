@@ -278,9 +278,14 @@ def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
     if r.spread is not None:
         yield _number("spread", "Spread (standard deviation)", f.setting(r.spread),
                       "The usual scatter of single readings.", r.spread)
-    yield _number("prob_b_greater", "Share of pairs to detect", format_percent(r.prob_b_greater),
-                  "The share of pairs in which a part of the second group reads higher that the plan "
-                  "is built to detect.", r.prob_b_greater)
+    if r.paired:
+        yield _number("prob_b_greater", "Chance of a rise to detect", format_percent(r.prob_b_greater),
+                      "The chance that the changes of two parts, added together, come out above zero, "
+                      "that the plan is built to detect.", r.prob_b_greater)
+    else:
+        yield _number("prob_b_greater", "Share of pairs to detect", format_percent(r.prob_b_greater),
+                      "The share of pairs in which a part of the second group reads higher that the plan "
+                      "is built to detect.", r.prob_b_greater)
     if r.simulated_power is not None:
         yield _number("simulated_power", "Simulated chance of detecting", format_percent(r.simulated_power),
                       "The chance found by simulating the exact test at the planned sizes.", r.simulated_power)
