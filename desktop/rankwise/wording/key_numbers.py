@@ -111,9 +111,11 @@ def _interval(key: str, what: str, interval: ConfidenceInterval | None, formats:
 
 
 def _method(method: str, key: str = "method") -> KeyNumber:
-    text = {"exact": EXACT_METHOD, "normal": NORMAL_METHOD}.get(method, method)
+    text = {"exact": "exact, given the ties", "normal": "normal approximation"}.get(method, method)
+    tip = {"exact": EXACT_METHOD, "normal": NORMAL_METHOD}.get(method, method)
     return _number(key, "How the p-value was found", text,
-                   "Exact counting where affordable; otherwise the normal approximation.", None)
+                   f"{tip[0].upper()}{tip[1:]}. Exact counting is used where affordable; otherwise the "
+                   f"normal approximation.", None)
 
 
 def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
