@@ -112,3 +112,17 @@ def test_main_window_constructs_with_no_arguments(qtbot):
     qtbot.addWidget(window)
     assert window.sheet.group_names == ["A", "B"] and window.sheet.row_count == 0
     assert CAUTION_SHORT in window.results_panel.caution.text()
+
+
+def test_report_dispatch_writes_the_workbook_and_the_pdf(tmp_path):
+    """`python -m rankwise report` writes the signed workbook and, through the window's printing, the PDF."""
+    from pypdf import PdfReader
+
+    out, pdf = tmp_path / "wheels.xlsx", tmp_path / "wheels.pdf"
+    environment = dict(os.environ, QT_QPA_PLATFORM="offscreen")
+    done = subprocess.run(
+        [sys.executable, "-m", "rankwise", "report", str(ROOT / "demo_files" / "two_wheels_roughness.csv"),
+         "--out", str(out), "--pdf", str(pdf), "--signed-by", "T. Example", "--role", "process technician"],
+        env=environment, capture_output=True, text=True, timeout=120, check=False)
+    assert done.returncode == 0, done.stdout + done.stderr
+    assert out.is_file() and len(PdfReader(str(pdf)).pages) == 1
