@@ -57,6 +57,7 @@ def window(qtbot, tmp_path, answers) -> MainWindow:
     """A real main window, shown offscreen, with its own recovery file."""
     shown = MainWindow(recovery=RecoveryFile(tmp_path / "recovery.json"))
     qtbot.addWidget(shown)
+    shown.resize(1440, 900)  # the offscreen screen is small; pictures are taken at a desktop size
     shown.show()
     qtbot.waitExposed(shown)
     shown.activateWindow()

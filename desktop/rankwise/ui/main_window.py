@@ -78,7 +78,7 @@ class MainWindow(QMainWindow):
         self.setObjectName("rankwiseMainWindow")
         self.setWindowTitle("Rankwise")
         self.setStyleSheet(_style_sheet())
-        self.resize(1440, 900)
+        self._fit_to_screen()
         self.recovery = recovery if recovery is not None else RecoveryFile()
         self.source_path: Path | None = None
         self.restored_unsaved = False
@@ -108,6 +108,15 @@ class MainWindow(QMainWindow):
         self._on_sheet_replaced()
 
     # -- building --------------------------------------------------------------------------------
+    def _fit_to_screen(self) -> None:
+        """Open at a comfortable size, never larger than the screen (small shop-floor screens too)."""
+        screen = self.screen().availableGeometry() if self.screen() is not None else None
+        width, height = 1440, 900
+        if screen is not None and screen.width() > 0:
+            width = min(width, int(screen.width() * 0.95))
+            height = min(height, int(screen.height() * 0.92))
+        self.resize(width, height)
+
     def _build_layout(self) -> None:
         self.dot_plot = ChartTab("ReadingsDotPlot")
         self.cumulative_plot = ChartTab("CumulativeSharePlot")
