@@ -17,7 +17,6 @@ from rankwise.stats.analysis import GroupReadings
 from rankwise.stats.results import Result
 from rankwise.stats.service import run
 
-STATUSES = ("intact", "changed", "not-a-record")
 MAX_LISTED = 40
 """Most differences listed one by one; the rest are counted."""
 
