@@ -105,3 +105,13 @@ def test_save_readings_as_typed_and_open_again(qtbot, window, answers, tmp_path)
     reopened = open_readings(answers.save_path)
     assert [g.name for g in reopened.groups] == ["A", "B"]
     assert [c.text for c in reopened.groups[0].cells if c.text] == ["0,41", "scrap", "0,40"]
+
+
+def test_recent_menu_lists_opened_files_and_can_be_cleared(qtbot, window, answers):
+    """Opened files appear in File > Open recent; 'Clear this list' empties it."""
+    window.open_demo()
+    window._fill_recent_menu()
+    texts = [action.text() for action in window.recent_menu.actions()]
+    assert any(text.endswith("two_wheels_roughness.csv") for text in texts)
+    next(action for action in window.recent_menu.actions() if action.text() == "Clear this list").trigger()
+    assert recent_files() == []

@@ -31,7 +31,7 @@ from rankwise.ui.group_details_dialog import GroupDetails, GroupDetailsDialog
 from rankwise.ui.question_panel import QuestionPanel
 from rankwise.ui.rank_table import RankTable
 from rankwise.ui.readings_grid import ReadingsGrid
-from rankwise.ui.recent_files import recent_files, remember_file
+from rankwise.ui.recent_files import forget_all, recent_files, remember_file
 from rankwise.ui.record_actions import RecordActions
 from rankwise.ui.recovery import RecoveryFile
 from rankwise.ui.results_panel import ResultsPanel
@@ -605,6 +605,9 @@ class MainWindow(QMainWindow):
             self.recent_menu.addAction("(no files opened yet)").setEnabled(False)
         for path in files:
             self.recent_menu.addAction(str(path), lambda p=path: self.open_path(p, show_dialog=True))
+        if files:
+            self.recent_menu.addSeparator()
+            self.recent_menu.addAction("Clear this list", forget_all)
 
     # -- nothing lost ----------------------------------------------------------------------------
     def save_recovery(self) -> None:
