@@ -76,3 +76,17 @@ def test_removing_a_group_with_readings_asks_first(qtbot, window, answers):
     answers.confirm = True
     window.remove_group()
     assert window.sheet.group_names == ["B"]
+
+
+def test_group_details_dialog_refuses_a_limit_that_is_not_a_number(qtbot, window):
+    """Typing 'abc' as LSL keeps the dialog open with a plain message; a number is accepted (comma or point)."""
+    dialog = GroupDetailsDialog(window, GroupDetails("A", "µm", None, None, None))
+    qtbot.addWidget(dialog)
+    dialog.show()
+    dialog.lsl.setText("abc")
+    dialog._check_and_accept()
+    assert dialog.isVisible() and "LSL" in dialog.problem.text() and "abc" in dialog.problem.text()
+    screenshot(dialog, "group-details-problem")
+    dialog.lsl.setText("0,2")
+    dialog._check_and_accept()
+    assert dialog.result() == dialog.DialogCode.Accepted and dialog.details().lsl == 0.2

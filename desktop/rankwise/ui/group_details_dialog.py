@@ -34,6 +34,7 @@ class GroupDetailsDialog(QDialog):
     def __init__(self, parent: QWidget | None, details: GroupDetails) -> None:
         super().__init__(parent)
         self.setWindowTitle(f"Details of {details.name}")
+        self.setMinimumWidth(460)
         self.name = QLineEdit(details.name)
         self.unit = QLineEdit(details.unit)
         self.lsl = QLineEdit("" if details.lsl is None else f"{details.lsl:g}")
