@@ -73,3 +73,11 @@ def test_copy_gives_a_block_any_spreadsheet_takes(qtbot, window):
     QGuiApplication.clipboard().clear()
     window.grid.copy_selection()
     assert QGuiApplication.clipboard().text() == "0,41\t0,47\nscrap\t0,52\n"
+
+
+def test_typing_starts_in_the_sheet(qtbot, window):
+    """The sheet has the keyboard when the window opens, so a technician can type at once."""
+    qtbot.waitUntil(lambda: window.grid.hasFocus(), timeout=2000)
+    qtbot.keyClicks(window.grid, "7")
+    qtbot.keyClick(window.focusWidget(), Qt.Key.Key_Return)
+    qtbot.waitUntil(lambda: window.sheet.cell(0, 0).text == "7", timeout=2000)

@@ -106,6 +106,7 @@ class MainWindow(QMainWindow):
         self._recovery_timer.timeout.connect(self.save_recovery)
         self._show_tabs_for_question()
         self._on_sheet_replaced()
+        self.grid.setFocus()  # keyboard first: typing starts in the sheet
 
     # -- building --------------------------------------------------------------------------------
     def _fit_to_screen(self) -> None:
