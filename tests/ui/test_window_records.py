@@ -123,3 +123,43 @@ def test_a_signed_plan_checks_as_intact(qtbot, window, answers, monkeypatch, tmp
     answers.open_path = answers.save_path
     window.records.check_record()
     assert answers.messages and answers.messages[-1][0] == "Record unchanged", answers.problems
+
+
+def _printer_to_pdf(path):
+    """Point a chosen printer at a PDF file, as a user might in the print dialog."""
+
+    def choose(parent, printer):
+        printer.setOutputFormat(printer.OutputFormat.PdfFormat)
+        printer.setOutputFileName(str(path))
+        return True
+
+    return choose
+
+
+def test_print_sends_one_page_to_the_chosen_printer(qtbot, window, answers, monkeypatch, tmp_path):
+    """Print (after the printer is chosen) puts the verdict on exactly one page."""
+    from rankwise.ui import dialogs
+
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    printed = tmp_path / "printed.pdf"
+    monkeypatch.setattr(dialogs, "ask_printer", _printer_to_pdf(printed))
+    window.records.print_verdict()
+    assert len(PdfReader(str(printed)).pages) == 1
+
+
+def test_print_preview_draws_the_page(qtbot, window, answers, monkeypatch, tmp_path):
+    """The preview asks the printing module to draw the verdict onto the preview's printer."""
+    from rankwise.ui import dialogs
+
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    drawn = tmp_path / "preview.pdf"
+
+    def preview(parent, printer, paint):
+        _printer_to_pdf(drawn)(parent, printer)
+        paint(printer)
+
+    monkeypatch.setattr(dialogs, "show_print_preview", preview)
+    window.records.print_preview()
+    assert len(PdfReader(str(drawn)).pages) == 1

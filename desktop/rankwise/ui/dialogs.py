@@ -7,6 +7,7 @@ modal window.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from pathlib import Path
 
 from PySide6.QtWidgets import QFileDialog, QMessageBox, QWidget
@@ -65,3 +66,21 @@ def show_problem(parent: QWidget | None, title: str, text: str) -> None:
 def show_message(parent: QWidget | None, title: str, text: str) -> None:
     """Tell the user something that went well (e.g. a record was checked and is intact)."""
     QMessageBox.information(parent, title, text)
+
+
+def ask_printer(parent: QWidget | None, printer) -> bool:
+    """Let the user choose and set up ``printer`` (a QPrinter); True to print."""
+    from PySide6.QtPrintSupport import QPrintDialog
+
+    chooser = QPrintDialog(printer, parent)
+    return chooser.exec() == QPrintDialog.DialogCode.Accepted
+
+
+def show_print_preview(parent: QWidget | None, printer, paint: Callable[[object], None]) -> None:
+    """Show a print preview; ``paint(printer)`` draws the pages whenever the preview needs them."""
+    from PySide6.QtPrintSupport import QPrintPreviewDialog
+
+    preview = QPrintPreviewDialog(printer, parent)
+    preview.setWindowTitle("The one-page verdict")
+    preview.paintRequested.connect(paint)
+    preview.exec()

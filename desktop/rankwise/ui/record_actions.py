@@ -198,28 +198,24 @@ class RecordActions(QObject):
         record = self._record_or_say_why()
         if record is None:
             return
-        from PySide6.QtPrintSupport import QPrinter, QPrintPreviewDialog
+        from PySide6.QtPrintSupport import QPrinter
 
         from rankwise.ui.printing import print_verdict
 
         printer = QPrinter(QPrinter.PrinterMode.HighResolution)
-        preview = QPrintPreviewDialog(printer, self.window)
-        preview.setWindowTitle("The one-page verdict")
-        preview.paintRequested.connect(lambda target: print_verdict(target, record))
-        preview.exec()
+        dialogs.show_print_preview(self.window, printer, lambda target: print_verdict(target, record))
 
     def print_verdict(self) -> None:
         """Print the one-page verdict on a printer the user chooses."""
         record = self._record_or_say_why()
         if record is None:
             return
-        from PySide6.QtPrintSupport import QPrintDialog, QPrinter
+        from PySide6.QtPrintSupport import QPrinter
 
         from rankwise.ui.printing import print_verdict
 
         printer = QPrinter(QPrinter.PrinterMode.HighResolution)
-        chooser = QPrintDialog(printer, self.window)
-        if chooser.exec() == QPrintDialog.DialogCode.Accepted:
+        if dialogs.ask_printer(self.window, printer):
             print_verdict(printer, record)
 
     def save_pdf(self) -> Path | None:
