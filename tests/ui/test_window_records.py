@@ -45,6 +45,8 @@ def test_sign_and_save_locks_the_analysis(qtbot, window, answers, monkeypatch, t
     assert "read-only" in window.windowTitle()
     assert window.records.revision_action.isEnabled() and not window.records.sign_action.isEnabled()
     assert window.status_state.text() == "Signed record, revision 1: read-only"
+    window.choose_question("plan")
+    assert window.question_panel.option.key == "differ"
 
 
 def test_new_revision_unlocks_a_copy_with_the_next_number(qtbot, window, answers, monkeypatch, tmp_path):

@@ -240,8 +240,8 @@ class MainWindow(QMainWindow):
         from rankwise.ui.question_panel import QUESTION_OPTIONS
 
         for number, option in enumerate(QUESTION_OPTIONS, start=1):
-            question_menu.addAction(self.make_action(option.text, lambda key=option.key: self.question_panel.select_option(key),
-                                                 f"Ctrl+{number}"))
+            question_menu.addAction(self.make_action(option.text, lambda key=option.key: self.choose_question(key),
+                                                     f"Ctrl+{number}"))
         question_menu.addSeparator()
         self.stop_action = self.make_action("&Stop the calculation", self.runner.cancel, "Esc")
         self.stop_action.setEnabled(False)
@@ -395,6 +395,10 @@ class MainWindow(QMainWindow):
             self.sheet.set_group_details(index, unit=answer.unit, lsl=answer.lsl, usl=answer.usl, nominal=answer.nominal)
 
         self._guarded(apply)
+
+    def choose_question(self, key: str) -> None:
+        """Ask another question (menu and Ctrl+1..7); a signed analysis keeps its question."""
+        self._guarded(lambda: self.question_panel.select_option(key))
 
     def set_decimal(self, separator: str) -> None:
         """Read typed readings with this decimal separator ("auto", "." or ",")."""
