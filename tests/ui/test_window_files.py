@@ -115,3 +115,13 @@ def test_recent_menu_lists_opened_files_and_can_be_cleared(qtbot, window, answer
     assert any(text.endswith("two_wheels_roughness.csv") for text in texts)
     next(action for action in window.recent_menu.actions() if action.text() == "Clear this list").trigger()
     assert recent_files() == []
+
+
+def test_missing_demo_files_give_a_plain_message(qtbot, window, answers, monkeypatch, tmp_path):
+    """Installed without the demo folder, the demo entry says where it looked and what to do instead."""
+    from rankwise.ui import main_window
+
+    monkeypatch.setattr(main_window, "demo_folder", lambda: tmp_path / "no-demo-here")
+    assert not window.open_demo()
+    title, text = answers.problems[-1]
+    assert title == "Demo readings not found" and "no-demo-here" in text and "open any CSV or XLSX" in text

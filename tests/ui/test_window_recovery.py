@@ -56,3 +56,15 @@ def test_a_normal_close_without_readings_asks_nothing(qtbot, window, answers):
     answers.keep_changes = "cancel"
     assert window.close()
     assert not window.recovery.exists()
+
+
+def test_damaged_recovery_data_are_reported_not_crashed_on(qtbot, tmp_path, answers):
+    """A recovery file whose readings cannot be rebuilt is reported in words; the empty sheet stays."""
+    path = tmp_path / "recovery.json"
+    RecoveryFile(path).save({"format": 99, "groups": "not a list"}, {})
+    answers.confirm = True
+    restarted = MainWindow(recovery=RecoveryFile(path))
+    qtbot.addWidget(restarted)
+    assert not restarted.offer_recovery()
+    assert answers.problems and answers.problems[-1][0] == "Cannot restore"
+    assert restarted.sheet.group_names == ["A", "B"]
