@@ -49,7 +49,8 @@ def test_selection_equals_sorting_all_differences(monkeypatch, direct_limit):
         a = np.sort(rng.integers(0, 25, n_a).astype(float))  # heavy ties, as from a coarse gauge
         b = np.sort(rng.integers(0, 25, n_b).astype(float))
         every = np.sort((b[None, :] - a[:, None]).ravel())
-        ranks = np.r_[1, every.size, rng.integers(1, every.size + 1, 6)]
+        middle = (every.size + 1) // 2
+        ranks = np.r_[1, every.size, rng.integers(1, every.size + 1, 6), middle, min(middle + 1, every.size)]
         np.testing.assert_array_equal(select_pairwise_differences(a, b, ranks), every[ranks - 1])
 
 
@@ -61,7 +62,7 @@ def test_selection_of_off_grid_floats_equals_sorting(monkeypatch, direct_limit):
     a = np.sort(rng.normal(size=170) * 0.1)
     b = np.sort(np.round(rng.normal(size=230), 1) * 0.3)
     every = np.sort((b[None, :] - a[:, None]).ravel())
-    ranks = np.r_[1, every.size, rng.integers(1, every.size + 1, 8)]
+    ranks = np.r_[1, every.size, rng.integers(1, every.size + 1, 8), 20_000, 20_001, 20_002]
     np.testing.assert_array_equal(select_pairwise_differences(a, b, ranks), every[ranks - 1])
 
 
@@ -73,7 +74,7 @@ def test_walsh_sums_equal_brute_force(monkeypatch, direct_limit):
     for n in (1, 2, 17, 240):
         d = np.sort(rng.integers(-30, 40, n).astype(float))
         every = np.sort(np.concatenate([d[i] + d[i:] for i in range(n)]))
-        ranks = np.r_[1, every.size, rng.integers(1, every.size + 1, 5)]
+        ranks = np.r_[1, every.size, rng.integers(1, every.size + 1, 5), (every.size + 1) // 2, min((every.size + 3) // 2, every.size)]
         np.testing.assert_array_equal(select_walsh_sums(d, ranks), every[ranks - 1])
 
 

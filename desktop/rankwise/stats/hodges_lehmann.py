@@ -93,10 +93,33 @@ def _select(columns: np.ndarray, row_offsets: np.ndarray, first_column: np.ndarr
         if not 1 <= rank <= total:
             raise ValueError(f"ranks must lie between 1 and {total}; got {rank}.")
     rng = np.random.default_rng(_SEED)
-    return np.array([_select_one(columns, row_offsets, first_column, rank, rng) for rank in wanted])
+    whole = _whole_numbers(columns) and _whole_numbers(row_offsets)
+    found: dict[int, float] = {}
+    for rank in sorted(set(wanted)):
+        if rank - 1 in found:  # the next order statistic: one counting pass, not a new search
+            found[rank] = _next_order_statistic(columns, row_offsets, first_column, rank, found[rank - 1], whole)
+        else:
+            found[rank] = _select_one(columns, row_offsets, first_column, rank, rng, whole)
+    return np.array([found[rank] for rank in wanted])
 
 
-def _select_one(columns: np.ndarray, offsets: np.ndarray, first: np.ndarray, rank: int, rng: np.random.Generator) -> float:
+def _whole_numbers(values: np.ndarray) -> bool:
+    """True when every value is a whole number small enough for exact float arithmetic."""
+    return bool(np.all(values == np.rint(values)) and np.abs(values).max(initial=0.0) < 2.0**51)
+
+
+def _next_order_statistic(columns, offsets, first, rank, previous, whole) -> float:
+    """The rank-th entry given the (rank - 1)-th: the same value if it repeats, else the smallest larger entry."""
+    right = np.full(offsets.size, columns.size, dtype=np.int64)
+    up_to = _count_in_rows(columns, offsets, previous, first, right, strictly_below=False, whole=whole)
+    if int((up_to - first).sum()) >= rank:
+        return previous
+    rows = np.flatnonzero(up_to < columns.size)
+    return float((columns[up_to[rows]] - offsets[rows]).min())
+
+
+def _select_one(columns: np.ndarray, offsets: np.ndarray, first: np.ndarray, rank: int,
+                rng: np.random.Generator, whole: bool) -> float:
     """The rank-th smallest entry; candidates in row i are its columns left[i] .. right[i] - 1."""
     left = first.copy()
     right = np.full(offsets.size, columns.size, dtype=np.int64)
@@ -114,8 +137,8 @@ def _select_one(columns: np.ndarray, offsets: np.ndarray, first: np.ndarray, ran
         centre = share * sample.size
         low_pivot = sample[min(last, max(0, int(np.floor(centre - reach))))]
         high_pivot = sample[min(last, max(0, int(np.ceil(centre + reach))))] if reach else low_pivot
-        under_low = _count_in_rows(columns, offsets, low_pivot, left, right, strictly_below=True)
-        up_to_high = _count_in_rows(columns, offsets, high_pivot, left, right, strictly_below=False)
+        under_low = _count_in_rows(columns, offsets, low_pivot, left, right, strictly_below=True, whole=whole)
+        up_to_high = _count_in_rows(columns, offsets, high_pivot, left, right, strictly_below=False, whole=whole)
         smaller = below + int((under_low - left).sum())
         not_larger = below + int((up_to_high - left).sum())
         if rank <= smaller:
@@ -133,16 +156,18 @@ def _select_one(columns: np.ndarray, offsets: np.ndarray, first: np.ndarray, ran
         spread = 0.0 if (right - left).sum() > 0.5 * remaining else 3.0
 
 
-def _count_in_rows(columns, offsets, pivot, left, right, *, strictly_below: bool) -> np.ndarray:
+def _count_in_rows(columns, offsets, pivot, left, right, *, strictly_below: bool, whole: bool) -> np.ndarray:
     """Per row, the first column whose difference is >= pivot (strictly_below) or > pivot.
 
-    A binary search for offsets + pivot finds it; for readings off any decimal grid the float
+    A binary search for offsets + pivot finds it; for values that are not whole numbers the float
     sum can round differently from the difference columns - offsets, so the boundary is then
     moved, a whole run of equal columns at a time, until it agrees with the differences
     themselves (rounding is monotone, so the differences along a row stay sorted).
     """
     side = "left" if strictly_below else "right"
     position = np.clip(np.searchsorted(columns, offsets + pivot, side=side), left, right)
+    if whole:  # whole numbers: offsets + pivot is exact, the search already agrees
+        return position
 
     def beyond(diff):  # the difference lies past the boundary
         return diff >= pivot if strictly_below else diff > pivot
