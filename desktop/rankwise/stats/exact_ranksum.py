@@ -8,8 +8,8 @@ Software Newsletter 12, 10-17), on doubled mid-ranks so that every rank is a who
 
 Probabilities, not counts, are carried: after i readings, a cell holds the chance that the first
 i readings contain k of the tracked group with a given partial sum. Every entry stays in [0, 1], so
-nothing overflows at large N (counts such as C(400, 200) would). Each step is one vectorised
-update over all k at once.
+nothing overflows at large N (counts such as C(1200, 600) would). Each reading costs a few
+vectorised updates: the rows k are taken in about a dozen bands, each over its own columns.
 """
 
 from __future__ import annotations
@@ -100,7 +100,7 @@ def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Moni
     The ranks are divided by their common divisor and centred on a whole number near their mean;
     a cell (k, c) holds the chance that the readings seen so far include k tracked ones whose
     centred values add up to c. Taking reading i moves mass from (k, c) to (k + 1, c + delta_i):
-    the same shift for every k, so each reading costs one array update.
+    the same shift for every k, so a band of rows moves in one array update.
     """
     n_total = doubled.size
     divisor = int(np.gcd.reduce(doubled))

@@ -111,7 +111,8 @@ def compare_two(
     p_value = exact.p_value if use_exact else normal.p_value
     significant = p_value <= alpha + _P_TOLERANCE
 
-    sorted_a, sorted_b = np.sort(counts_a), np.sort(counts_b)
+    if estimate_shift or margin is not None:
+        sorted_a, sorted_b = np.sort(counts_a), np.sort(counts_b)
     shift = shift_ci = None
     if estimate_shift:
         shift = float(grid.to_readings(hodges_lehmann_shift(sorted_a, sorted_b)))
@@ -300,7 +301,7 @@ def _shift_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, grid: Grid, leve
     if ties:
         method += " (readings tie: no-ties critical value, conservative)"
     if critical.u is None:
-        attained = 1.0 - 2.0 * float(rank_sum_extreme_probability(n_a, n_b))
+        attained = 1.0 - 2.0 * float(_extreme_split_probability(n_a, n_b))
     elif critical.attained_alpha is not None:
         attained = 1.0 - critical.attained_alpha
     else:
@@ -314,7 +315,7 @@ def _shift_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, grid: Grid, leve
     )
 
 
-def rank_sum_extreme_probability(n_a: int, n_b: int) -> float:
+def _extreme_split_probability(n_a: int, n_b: int) -> float:
     """1 / C(N, n_a): the chance of the most extreme split with no ties."""
     return 1.0 / comb(n_a + n_b, n_a)
 
