@@ -52,7 +52,7 @@ def two_wheels_roughness(rng: np.random.Generator) -> None:
         [f"Surface roughness Ra (µm) after finish grinding, shaft seat - {INVENTED}", ""],
         ["Gauge: stylus instrument, resolution 0,01 µm", ""],
         ["", ""],
-        ["Wheel A (current)", "Wheel B (new)"],
+        ["Wheel A (current) [µm]", "Wheel B (new) [µm]"],
     ]
     for row in range(max(wheel_a.size, wheel_b.size)):
         rows.append([comma(wheel_a[row]) if row < wheel_a.size else "", comma(wheel_b[row]) if row < wheel_b.size else ""])

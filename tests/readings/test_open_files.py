@@ -42,6 +42,7 @@ def write_workbook(tmp_path, name, rows, sheet_title="Sheet1", extra_sheets=()):
 def test_two_wheels_demo(unchanged):
     rs = open_readings(unchanged(DEMO / "two_wheels_roughness.csv"))
     assert rs.group_names == ["Wheel A (current)", "Wheel B (new)"]
+    assert [g.unit for g in rs.groups] == ["µm", "µm"]
     assert [g.values.size for g in rs.groups] == [18, 16]
     assert rs.source.delimiter == ";" and rs.source.decimal == ","
     assert rs.source.encoding == "utf-8-sig"
@@ -66,7 +67,7 @@ def test_push_out_force_demo(unchanged):
 def test_coating_demo_is_paired_columns(unchanged):
     rs = open_readings(unchanged(DEMO / "coating_before_after_cure.csv"))
     assert rs.source.layout == "wide"
-    assert rs.group_names == ["Before cure (µm)", "After cure (µm)"]
+    assert rs.group_names == ["Before cure", "After cure"]
     assert [g.values.size for g in rs.groups] == [14, 14]
 
 
@@ -377,8 +378,19 @@ def test_unit_from_the_column_title(title, unit):
     assert unit_in_header(title) == unit
 
 
+@pytest.mark.parametrize(
+    ("title", "name"),
+    [("Wheel A (current) [µm]", "Wheel A (current)"), ("Force (kN)", "Force"), ("Wheel A (current)", "Wheel A (current)"), ("(mm)", "(mm)")],
+)
+def test_group_name_leaves_the_unit_out(title, name):
+    """A wide column "Wheel A [µm]" makes a group named "Wheel A" with unit µm; a bare unit stays the name."""
+    from rankwise.readings.layout import name_without_unit
+
+    assert name_without_unit(title) == name
+
+
 def test_units_reach_the_sheet():
     sheet = ReadingSheet.from_reading_set(open_readings(DEMO / "push_out_force_three_presses.xlsx"))
     assert [g.unit for g in sheet.groups] == ["kN"] * 3
     wheels = ReadingSheet.from_reading_set(open_readings(DEMO / "two_wheels_roughness.csv"))
-    assert [g.unit for g in wheels.groups] == ["", ""]
+    assert [g.unit for g in wheels.groups] == ["µm", "µm"]

@@ -15,7 +15,7 @@ from rankwise.ui.recent_files import recent_files
 DEMO_GROUPS = {
     "two_wheels_roughness.csv": ["Wheel A (current)", "Wheel B (new)"],
     "push_out_force_three_presses.xlsx": ["Press 1", "Press 2", "Press 3"],
-    "coating_before_after_cure.csv": ["Before cure (µm)", "After cure (µm)"],
+    "coating_before_after_cure.csv": ["Before cure", "After cure"],
     "long_export.csv": ["Line 1", "Line 2"],
     "gauge_sheet_bore_diameter.xlsx": ["Before tool change", "After tool change"],
 }

@@ -45,6 +45,13 @@ def unit_in_header(header: str) -> str:
     return match[1] if match and match[1] in _UNITS else ""
 
 
+def name_without_unit(header: str) -> str:
+    """A column title without its bracketed unit ("Wheel A [µm]" gives "Wheel A"); unchanged without one."""
+    if not unit_in_header(header):
+        return header
+    return header[: max(header.rfind("("), header.rfind("["))].strip() or header
+
+
 @dataclass(frozen=True)
 class TableShape:
     """Where the table starts: the header row (or -1 for none), the first data row, the column names."""

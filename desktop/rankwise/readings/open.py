@@ -22,6 +22,7 @@ from rankwise.readings.columns import ParsedColumn, RawColumn, check_texts_match
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import (
     LAYOUTS, LayoutChoice, TableShape, choose_layout, find_shape, guess_decimal, is_number_text, profile_columns,
+    name_without_unit,
     unit_in_header,
 )
 from rankwise.readings.parse import check_decimal
@@ -269,7 +270,7 @@ def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingG
     values = parsed.values[:length]
     blank = np.isnan(values)
     return ReadingGroup(
-        name=raw.header,
+        name=name_without_unit(raw.header),
         unit=unit_in_header(raw.header),
         values=values[~blank] if blank.any() else values,
         skipped=_skipped(parsed, raw.header, first_row_number),
