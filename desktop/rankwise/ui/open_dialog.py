@@ -169,7 +169,7 @@ class OpenReadingsDialog(QDialog):
                    f"decimal {'comma' if source.decimal == ',' else 'point'}"]
         if source.delimiter:
             details.append("separator " + {"\t": "tab", ";": "semicolon", ",": "comma", "|": "bar"}.get(source.delimiter, repr(source.delimiter)))
-        if source.header_row:
+        if source.header_row > 0:
             details.append(f"column titles on row {source.header_row + 1} (the rows above are a title block)")
         self.found.setText(f"<b>{_escape(self.path.name)}</b>: found " + _escape(", ".join(details)) + ".")
         self.notes.setText("".join(f"• {_escape(note)}<br>" for note in reading_set.notes))
