@@ -29,7 +29,7 @@ def test_p_values_lie_in_zero_one_and_significance_follows_p(a, b, alternative, 
     result = compare_two(a, b, alternative=alternative, method=method, estimate_shift=False)
     for p in (result.p_value, result.p_normal, result.p_exact, result.mid_p):
         assert 0.0 <= p <= 1.0
-    assert result.significant == (result.p_value <= result.alpha)
+    assert result.significant == (result.p_value <= result.alpha + 1e-12)  # rounding of exact sums
     assert result.mid_p <= result.p_exact
 
 
