@@ -69,6 +69,8 @@ class Settings:
         planned_prob_b_greater: planning only: P(B > A) to detect, instead of shift and spread.
         power: planning only: the chance of detecting the planned shift.
         ratio: planning only: parts in B per part in A.
+        plan_paired: planning only: plan for the same parts measured twice (signed-rank test)
+            instead of two independent groups.
         characteristic: what is measured ("Ra after grinding"), for titles and records.
     """
 
@@ -85,6 +87,7 @@ class Settings:
     planned_prob_b_greater: float | None = None
     power: float = 0.8
     ratio: float = 1.0
+    plan_paired: bool = False
     characteristic: str = ""
 
 
@@ -95,10 +98,13 @@ class Analysis:
     For the two-group and paired questions, ``groups[0]`` is A (the reference, e.g. the current
     process or "before") and ``groups[1]`` is B (the changed process, or "after").
     ``notes`` carries plain-words remarks from the readings layer (e.g. censored readings) that
-    belong in the record beside the result.
+    belong in the record beside the result. ``decimal_mark`` is how numbers are written for people
+    ("." or ","), taken from the readings sheet, so that the verdict, the workbook's texts and the
+    printout write numbers the way the technician typed them; it never changes a computation.
     """
 
     question: Question
     groups: tuple[GroupReadings, ...]
     settings: Settings = field(default_factory=Settings)
     notes: tuple[str, ...] = ()
+    decimal_mark: str = "."
