@@ -5,33 +5,60 @@
   ``SheetChange`` notices; ``snapshot()`` / ``from_snapshot``; ``to_analysis(question, settings)``.
 - ``open_readings(path, ...) -> ReadingSet`` or ``ReadingsError``; ``ReadingSheet.from_reading_set``.
 - ``save_sheet(sheet, path)``: the texts as typed, CSV or XLSX, written atomically.
+
+Every public name loads its module on first use (PEP 562), so the window starts without the file
+readers (pandas) until a file is opened.
 """
 
-from rankwise.readings.cells import Cell, CellKind, GroupCounts, SkippedCell
-from rankwise.readings.errors import ReadingsError
-from rankwise.readings.open import open_readings
-from rankwise.readings.parse import machine_decimal, parse_reading
-from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
-from rankwise.readings.save import save_sheet
-from rankwise.readings.sheet import GroupColumn, ReadingSheet, SheetChange
-from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
+from __future__ import annotations
 
-__all__ = [
-    "Cell",
-    "CellKind",
-    "GroupColumn",
-    "GroupCounts",
-    "GroupSnapshot",
-    "ReadingGroup",
-    "ReadingSet",
-    "ReadingSheet",
-    "ReadingsError",
-    "SheetChange",
-    "SheetSnapshot",
-    "SkippedCell",
-    "SourceInfo",
-    "machine_decimal",
-    "open_readings",
-    "parse_reading",
-    "save_sheet",
-]
+import importlib
+from typing import TYPE_CHECKING, Any
+
+_MODULE_OF = {
+    "Cell": "cells",
+    "CellKind": "cells",
+    "GroupCounts": "cells",
+    "SkippedCell": "cells",
+    "ReadingsError": "errors",
+    "open_readings": "open",
+    "machine_decimal": "parse",
+    "parse_reading": "parse",
+    "ReadingGroup": "reading_set",
+    "ReadingSet": "reading_set",
+    "SourceInfo": "reading_set",
+    "save_sheet": "save",
+    "GroupColumn": "sheet",
+    "ReadingSheet": "sheet",
+    "SheetChange": "sheet",
+    "GroupSnapshot": "snapshot",
+    "SheetSnapshot": "snapshot",
+}
+"""Each public name and the module (inside this package) that defines it."""
+
+__all__ = sorted(_MODULE_OF)
+
+
+def __getattr__(name: str) -> Any:
+    """Load the module that defines ``name`` on first use and keep the name here."""
+    module_name = _MODULE_OF.get(name)
+    if module_name is None:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(importlib.import_module(f"{__name__}.{module_name}"), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(__all__))
+
+
+if TYPE_CHECKING:
+    from rankwise.readings.cells import Cell, CellKind, GroupCounts, SkippedCell
+    from rankwise.readings.errors import ReadingsError
+    from rankwise.readings.open import open_readings
+    from rankwise.readings.parse import machine_decimal, parse_reading
+    from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
+    from rankwise.readings.save import save_sheet
+    from rankwise.readings.sheet import GroupColumn, ReadingSheet, SheetChange
+    from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot

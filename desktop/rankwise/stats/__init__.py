@@ -1,78 +1,97 @@
 """The statistics service: rank-based tests on groups of readings (numpy/scipy only, no Qt).
 
 The window calls ``run(analysis)``; scripts and outside checks call the per-question functions.
+Every public name loads its module on first use (PEP 562), so importing a light piece such as
+``rankwise.stats.grid`` does not pull in scipy.stats at start-up.
 """
 
-from rankwise.stats.analysis import (
-    ALTERNATIVES,
-    METHODS,
-    Analysis,
-    GroupReadings,
-    Question,
-    Settings,
-)
-from rankwise.stats.paired import compare_paired, critical_t
-from rankwise.stats.planning import plan_group_size, plan_paired_size, simulate_paired_power, simulate_power
-from rankwise.stats.critical import critical_u
-from rankwise.stats.progress import Cancelled, Monitor
-from rankwise.stats.ranks import midranks
-from rankwise.stats.results import (
-    BrunnerMunzelResult,
-    ConfidenceInterval,
-    GroupSummary,
-    MoodMedianResult,
-    NullDistribution,
-    PairComparison,
-    PairedResult,
-    PlanResult,
-    PowerPoint,
-    Result,
-    SeveralGroupsResult,
-    ShapeCheck,
-    TieBlock,
-    TwoGroupResult,
-)
-from rankwise.stats.service import run
-from rankwise.stats.two_groups import compare_two
-from rankwise.stats.several import compare_several, holm_adjust
-from rankwise.stats.shape import brunner_munzel, check_shape, mood_median
+from __future__ import annotations
 
-__all__ = [
-    "ALTERNATIVES",
-    "METHODS",
-    "Analysis",
-    "BrunnerMunzelResult",
-    "Cancelled",
-    "ConfidenceInterval",
-    "GroupReadings",
-    "GroupSummary",
-    "Monitor",
-    "MoodMedianResult",
-    "NullDistribution",
-    "PairComparison",
-    "PairedResult",
-    "PlanResult",
-    "PowerPoint",
-    "Question",
-    "Result",
-    "SeveralGroupsResult",
-    "Settings",
-    "ShapeCheck",
-    "TieBlock",
-    "TwoGroupResult",
-    "compare_two",
-    "critical_u",
-    "midranks",
-    "run",
-    "brunner_munzel",
-    "check_shape",
-    "compare_paired",
-    "compare_several",
-    "critical_t",
-    "holm_adjust",
-    "mood_median",
-    "plan_group_size",
-    "plan_paired_size",
-    "simulate_paired_power",
-    "simulate_power",
-]
+import importlib
+from typing import TYPE_CHECKING, Any
+
+_MODULE_OF = {
+    "ALTERNATIVES": "analysis",
+    "METHODS": "analysis",
+    "Analysis": "analysis",
+    "GroupReadings": "analysis",
+    "Question": "analysis",
+    "Settings": "analysis",
+    "compare_paired": "paired",
+    "critical_t": "paired",
+    "plan_group_size": "planning",
+    "plan_paired_size": "planning",
+    "simulate_paired_power": "planning",
+    "simulate_power": "planning",
+    "critical_u": "critical",
+    "Cancelled": "progress",
+    "Monitor": "progress",
+    "midranks": "ranks",
+    "BrunnerMunzelResult": "results",
+    "ConfidenceInterval": "results",
+    "GroupSummary": "results",
+    "MoodMedianResult": "results",
+    "NullDistribution": "results",
+    "PairComparison": "results",
+    "PairedResult": "results",
+    "PlanResult": "results",
+    "PowerPoint": "results",
+    "Result": "results",
+    "SeveralGroupsResult": "results",
+    "ShapeCheck": "results",
+    "TieBlock": "results",
+    "TwoGroupResult": "results",
+    "run": "service",
+    "compare_two": "two_groups",
+    "compare_several": "several",
+    "holm_adjust": "several",
+    "brunner_munzel": "shape",
+    "check_shape": "shape",
+    "mood_median": "shape",
+}
+"""Each public name and the module (inside this package) that defines it."""
+
+__all__ = sorted(_MODULE_OF)
+
+
+def __getattr__(name: str) -> Any:
+    """Load the module that defines ``name`` on first use and keep the name here."""
+    module_name = _MODULE_OF.get(name)
+    if module_name is None:
+        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+    value = getattr(importlib.import_module(f"{__name__}.{module_name}"), name)
+    globals()[name] = value
+    return value
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(__all__))
+
+
+if TYPE_CHECKING:
+    from rankwise.stats.analysis import ALTERNATIVES, METHODS, Analysis, GroupReadings, Question, Settings
+    from rankwise.stats.critical import critical_u
+    from rankwise.stats.paired import compare_paired, critical_t
+    from rankwise.stats.planning import plan_group_size, plan_paired_size, simulate_paired_power, simulate_power
+    from rankwise.stats.progress import Cancelled, Monitor
+    from rankwise.stats.ranks import midranks
+    from rankwise.stats.results import (
+        BrunnerMunzelResult,
+        ConfidenceInterval,
+        GroupSummary,
+        MoodMedianResult,
+        NullDistribution,
+        PairComparison,
+        PairedResult,
+        PlanResult,
+        PowerPoint,
+        Result,
+        SeveralGroupsResult,
+        ShapeCheck,
+        TieBlock,
+        TwoGroupResult,
+    )
+    from rankwise.stats.service import run
+    from rankwise.stats.several import compare_several, holm_adjust
+    from rankwise.stats.shape import brunner_munzel, check_shape, mood_median
+    from rankwise.stats.two_groups import compare_two
