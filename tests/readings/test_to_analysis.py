@@ -76,3 +76,30 @@ def test_paired_readings_pair_up_by_row():
     assert math.isnan(after.values[2])
     independent = sheet.to_analysis(Question.TWO_GROUPS, Settings()).groups
     assert [len(g.values) for g in independent] == [3, 2]
+
+
+def test_the_analysis_writes_numbers_with_the_mark_the_readings_were_typed_with():
+    """A sheet left on "auto" takes the mark most readings with decimals used (common practice, no source)."""
+    comma = ReadingSheet(decimal="auto")
+    comma.add_group("A")
+    comma.paste_block(0, 0, [["0,38"], ["0,40"], ["12"], ["1.234,5"]])
+    assert comma.to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == ","
+    point = make_sheet(["0.38", "0.4", "7"])
+    assert point.to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == "."
+
+
+def test_readings_without_decimals_leave_the_mark_to_the_machine(monkeypatch):
+    from rankwise.readings import for_analysis
+
+    monkeypatch.setattr(for_analysis, "machine_decimal", lambda: ",")
+    assert make_sheet(["12", "13"]).to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == ","
+    monkeypatch.setattr(for_analysis, "machine_decimal", lambda: ".")
+    assert make_sheet(["12", "13"]).to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == "."
+
+
+def test_a_stated_sheet_mark_is_used_as_it_is():
+    from rankwise.readings.for_analysis import build_analysis
+
+    sheet = make_sheet(["0.38", "0.40"])
+    analysis = build_analysis(sheet.groups, Question.TWO_GROUPS, Settings(), decimal=",")
+    assert analysis.decimal_mark == ","

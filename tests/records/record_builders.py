@@ -24,11 +24,14 @@ def signoff(name="Ann Lee", comment="checked against the gauge sheet"):
     return SignOff(prepared=prepared, reviewed=reviewed)
 
 
-def paired_record(first_name="Before cure", second_name="After cure", signed=True):
+def paired_record(first_name="Before cure", second_name="After cure", signed=True, comma=False):
+    """The paired example; with ``comma`` typed with decimal commas on a sheet that reads them."""
+    mark = "," if comma else "."
+    typed = [[t.replace(".", mark) for t in column] for column in (FIRST, SECOND)]
     sheet = ReadingSheet([
-        GroupColumn(first_name, unit="µm", cells=[parse_reading(t) for t in FIRST]),
-        GroupColumn(second_name, unit="µm", cells=[parse_reading(t) for t in SECOND]),
-    ])
+        GroupColumn(first_name, unit="µm", cells=[parse_reading(t, decimal=mark) for t in typed[0]]),
+        GroupColumn(second_name, unit="µm", cells=[parse_reading(t, decimal=mark) for t in typed[1]]),
+    ], decimal=mark)
     analysis = sheet.to_analysis(Question.PAIRED, Settings(characteristic="coating thickness"))
     a, b = analysis.groups
     result = compare_paired(a.values[:9], b.values[:9], name_a=a.name, name_b=b.name)

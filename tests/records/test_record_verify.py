@@ -1,6 +1,7 @@
 """Checking a record: untouched is intact; any edit made with a spreadsheet library is found."""
 
 import json
+import re
 
 import pytest
 from openpyxl import load_workbook
@@ -184,3 +185,40 @@ def test_a_change_to_any_shown_cell_is_found(written, tmp_path):
         verification = verify_record(edited_copy(written, tmp_path, edit))
         assert verification.status == "changed", (title, coordinate)
         assert any(coordinate in d for d in verification.differences), (title, coordinate)
+
+
+def test_an_older_record_without_the_decimal_mark_or_paired_planning_reopens_intact(tmp_path):
+    """Records written before Analysis.decimal_mark and Settings.plan_paired existed read as "." and False."""
+    path = tmp_path / "older.xlsx"
+    write_record(path, paired_record())
+
+    def drop_later_fields(book):
+        sheet = book[PROGRAM_SHEET]
+        text = "".join(sheet.cell(row=r, column=1).value for r in range(4, 4 + sheet["A3"].value))
+        data = json.loads(text)
+        del data["analysis"]["decimal_mark"]
+        del data["analysis"]["settings"]["plan_paired"]
+        for r in range(4, 4 + sheet["A3"].value):
+            sheet.cell(row=r, column=1).value = None
+        sheet["A3"].value = 1
+        sheet["A4"].value = canonical_bytes(data).decode("utf-8")
+        sheet["A2"].value = sha256_hex(data)
+
+    verification = verify_record(edited_copy(path, tmp_path, drop_later_fields))
+    assert verification.status == "intact", verification.differences
+    assert verification.record.analysis.decimal_mark == "."
+    assert verification.record.analysis.settings.plan_paired is False
+
+
+def test_a_record_typed_with_decimal_commas_keeps_them_and_verifies(tmp_path):
+    path = tmp_path / "comma.xlsx"
+    record = paired_record(comma=True)
+    assert record.analysis.decimal_mark == ","
+    write_record(path, record)
+    verification = verify_record(path)
+    assert verification.status == "intact", verification.differences
+    assert verification.record.analysis.decimal_mark == ","
+    sentences = [c.value for row in load_workbook(path).worksheets[0].iter_rows() for c in row
+                 if isinstance(c.value, str) and "p = " in c.value]
+    assert any("p = 0,0" in text for text in sentences)  # Hollander & Wolfe p. 39: two-sided p = 0.039
+    assert not any(re.search(r"\d\.\d", text) for text in sentences)

@@ -13,6 +13,7 @@ from rankwise.wording.numbers import (
     format_percent,
     format_reading,
     format_setting,
+    write_numbers,
 )
 
 
@@ -69,3 +70,21 @@ def test_levels_percentages_and_counts():
     assert format_percent(0.784) == "78 %"
     assert format_count(17.0) == "17"
     assert format_count(17.5) == "17.5"
+
+
+def test_numbers_are_written_with_the_decimal_mark_the_technician_typed():
+    assert format_reading(0.38, 2, mark=",") == "0,38"
+    assert format_p(0.0325, mark=",") == "0,0325"
+    assert format_p(0.00001, mark=",") == "< 0,0001"
+    assert format_percent(0.125, 1, mark=",") == "12,5 %"
+    assert format_count(2.5, mark=",") == "2,5"
+    assert format_count(12, mark=",") == "12"
+    with pytest.raises(ValueError, match="mark"):
+        format_reading(0.38, 2, mark=";")
+
+
+def test_a_worded_text_changes_its_numbers_only_never_a_typed_name_or_a_full_stop():
+    text = "Die 1.5 reads 0.38 µm. Shift -0.08 (95 % interval 0.02 to 0.10)."
+    assert write_numbers(text, ",", keep=["Die 1.5", "µm"]) == (
+        "Die 1.5 reads 0,38 µm. Shift -0,08 (95 % interval 0,02 to 0,10).")
+    assert write_numbers(text, ".", keep=["Die 1.5"]) == text

@@ -7,14 +7,16 @@ from collections.abc import Sequence
 from typing import TYPE_CHECKING
 
 from rankwise.readings.censored import common_limit_value
-from rankwise.readings.cells import CellKind
+from rankwise.readings.cells import Cell, CellKind
+from rankwise.readings.parse import machine_decimal
 from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
 
 if TYPE_CHECKING:
     from rankwise.readings.sheet import GroupColumn
 
 
-def build_analysis(columns: Sequence[GroupColumn], question: Question, settings: Settings | None) -> Analysis:
+def build_analysis(columns: Sequence[GroupColumn], question: Question, settings: Settings | None,
+                   decimal: str = "auto") -> Analysis:
     """The ``Analysis`` for these groups.
 
     Each group's values follow entry order; blanks, notes and unreadable entries become NaN (the
@@ -23,6 +25,8 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     mixed limits raise ``ReadingsError``. The notes also list the entries not used, by row.
     For the paired question every group is padded with NaN to the longest one, so that readings
     pair up by row and a missing partner shows as a blank in its row.
+    ``decimal`` is the sheet's decimal setting; the analysis writes numbers for people with that
+    mark, or with "auto" the mark the readings were typed with (see ``typed_decimal_mark``).
     """
     question = Question(question)
     censoring = common_limit_value([(column.name, column.cells) for column in columns])
@@ -55,4 +59,32 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
             notes.append(f"{column.name}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}.")
     if censoring is not None:
         notes.insert(0, censoring[2])
-    return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes))
+    mark = decimal if decimal in (".", ",") else typed_decimal_mark(columns)
+    return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes),
+                    decimal_mark=mark)
+
+
+def typed_decimal_mark(columns: Sequence[GroupColumn]) -> str:
+    """The decimal mark most readings with decimals were typed with; the machine's when none tells.
+
+    A reading's decimal mark is the last point or comma before its exponent (a mark before it
+    groups thousands); readings typed without decimals say nothing, nor does a tie of counts.
+    """
+    counts = {".": 0, ",": 0}
+    for column in columns:
+        for cell in column.cells:
+            mark = _decimal_mark_of(cell)
+            if mark:
+                counts[mark] += 1
+    if counts["."] == counts[","]:
+        return machine_decimal()
+    return "." if counts["."] > counts[","] else ","
+
+
+def _decimal_mark_of(cell: Cell) -> str | None:
+    """The mark a number (or censored limit) with decimals was typed with, else None."""
+    if cell.kind not in (CellKind.NUMBER, CellKind.CENSORED) or not cell.decimals:
+        return None
+    mantissa = cell.text.lower().split("e")[0]
+    last = max(mantissa.rfind("."), mantissa.rfind(","))
+    return mantissa[last] if last >= 0 else None

@@ -98,7 +98,7 @@ def record_from_data(data: Any) -> ResultRecord:
     except (ReadingsError, KeyError, TypeError, ValueError) as error:
         raise RecordError("The readings stored in the record are damaged and cannot be read back.") from error
     return ResultRecord(
-        analysis=decode(data.get("analysis"), Analysis),
+        analysis=decode(with_later_fields(data.get("analysis")), Analysis),
         snapshot=snapshot,
         result=decode(data.get("result"), Result),
         signoff=decode(data.get("signoff"), SignOff | None),
@@ -106,6 +106,23 @@ def record_from_data(data: Any) -> ResultRecord:
         library_versions=versions,
         created_at=decode(data.get("created_at"), datetime),
     )
+
+
+_LATER_ANALYSIS_FIELDS = {"decimal_mark": "."}
+_LATER_SETTINGS_FIELDS = {"plan_paired": False}
+"""Fields added to the analysis after records were first written, with the value an older record meant."""
+
+
+def with_later_fields(analysis: Any) -> Any:
+    """The stored analysis with the fields an older record lacks filled in as it meant them (numbers
+    written with a decimal point, planning for two separate groups); the stored data stay unchanged."""
+    if not isinstance(analysis, dict):
+        return analysis
+    completed = {**_LATER_ANALYSIS_FIELDS, **analysis}
+    settings = completed.get("settings")
+    if isinstance(settings, dict):
+        completed["settings"] = {**_LATER_SETTINGS_FIELDS, **settings}
+    return completed
 
 
 def fingerprint(record: ResultRecord) -> str:

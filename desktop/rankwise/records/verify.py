@@ -11,7 +11,13 @@ from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.records.canonical import canonical_bytes, encode, sha256_hex
 from rankwise.records.compare import data_differences, saved_and_reloaded, sheet_differences
 from rankwise.records.errors import RecordError
-from rankwise.records.record import ResultRecord, current_library_versions, record_from_data, record_to_data
+from rankwise.records.record import (
+    ResultRecord,
+    current_library_versions,
+    record_from_data,
+    record_to_data,
+    with_later_fields,
+)
 from rankwise.records.workbook import PROGRAM_SHEET, build_workbook, load_workbook_safely, read_program_data
 from rankwise.stats.analysis import GroupReadings
 from rankwise.stats.results import Result
@@ -74,7 +80,8 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
     except RecordError as error:
         return _changed(differences + [f"The program data were edited so that they no longer form a record: {error}"],
                         stored_fingerprint)
-    if canonical_bytes(record_to_data(record)) != canonical_bytes(data):
+    as_read = {**data, "analysis": with_later_fields(data.get("analysis"))}
+    if canonical_bytes(record_to_data(record)) != canonical_bytes(as_read):
         differences.append("The program data hold entries that do not belong to a record.")
 
     notes: list[str] = []

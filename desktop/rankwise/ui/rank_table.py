@@ -14,7 +14,8 @@ from PySide6.QtGui import QBrush, QColor, QFont
 from PySide6.QtWidgets import QLabel, QTableView, QVBoxLayout, QWidget
 
 from rankwise.stats.results import PairedResult, SeveralGroupsResult, TieBlock, TwoGroupResult
-from rankwise.wording.numbers import format_count, format_reading
+from rankwise.wording.numbers import format_count, format_reading, with_mark
+from rankwise.wording.questions import decimals_of
 
 GROUP_NUMBERS = frozenset({0, 2, 3})
 PAIR_NUMBERS = frozenset({0, 1, 2, 3, 4})
@@ -34,8 +35,8 @@ class RankRow:
     tooltip: str
 
 
-def _tie_words(block: TieBlock) -> str:
-    return f"{block.count} tied: ranks {block.first_rank}–{block.last_rank} share {format_count(block.mid_rank)}"
+def _tie_words(block: TieBlock, mark: str) -> str:
+    return f"{block.count} tied: ranks {block.first_rank}–{block.last_rank} share {format_count(block.mid_rank, mark)}"
 
 
 def _bracket(position: int, count: int) -> str:
@@ -46,7 +47,7 @@ def _bracket(position: int, count: int) -> str:
     return "└" if position == count - 1 else "│"
 
 
-def _tie_columns(sorted_keys: list[float], blocks: dict[float, TieBlock]) -> list[tuple[str, str, int]]:
+def _tie_columns(sorted_keys: list[float], blocks: dict[float, TieBlock], mark: str) -> list[tuple[str, str, int]]:
     """For keys sorted ascending: (bracket mark, words, block number) per row; number 0 = no tie."""
     out: list[tuple[str, str, int]] = []
     position = 0
@@ -61,7 +62,7 @@ def _tie_columns(sorted_keys: list[float], blocks: dict[float, TieBlock]) -> lis
         if key != previous:
             block_number += 1
             position = 0
-        out.append((_bracket(position, block.count), _tie_words(block), block_number))
+        out.append((_bracket(position, block.count), _tie_words(block, mark), block_number))
         position += 1
         previous = key
     return out
@@ -69,45 +70,48 @@ def _tie_columns(sorted_keys: list[float], blocks: dict[float, TieBlock]) -> lis
 
 def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...],
                     ranks: tuple[tuple[float, ...], ...], tie_blocks: tuple[TieBlock, ...],
-                    decimals: int | None) -> list[RankRow]:
-    """Combined sorted readings of independent groups: position, group, reading, rank, tie."""
+                    decimals: int | None, mark: str = ".") -> list[RankRow]:
+    """Combined sorted readings of independent groups: position, group, reading, rank, tie
+    (numbers written with the decimal ``mark``)."""
     entries = sorted(
         ((rank, value, group, row) for group, (vals, rks) in enumerate(zip(values, ranks))
          for row, (value, rank) in enumerate(zip(vals, rks))),
         key=lambda entry: (entry[0], entry[2], entry[3]),
     )
     by_rank = {block.mid_rank: block for block in tie_blocks}
-    ties = _tie_columns([entry[0] for entry in entries], by_rank)
+    ties = _tie_columns([entry[0] for entry in entries], by_rank, mark)
     rows = []
-    for position, ((rank, value, group, row), (mark, words, number)) in enumerate(zip(entries, ties), start=1):
-        reading = format_reading(value, decimals)
+    for position, ((rank, value, group, row), (bracket, words, number)) in enumerate(zip(entries, ties), start=1):
+        reading = format_reading(value, decimals, mark)
+        rank_text = format_count(rank, mark)
         rows.append(RankRow(
-            cells=(str(position), names[group], reading, format_count(rank)),
-            tie_mark=mark, tie_text=words, block_number=number,
-            tooltip=f"{names[group]}, reading {row + 1} of that group: {reading}, rank {format_count(rank)}"
+            cells=(str(position), names[group], reading, rank_text),
+            tie_mark=bracket, tie_text=words, block_number=number,
+            tooltip=f"{names[group]}, reading {row + 1} of that group: {reading}, rank {rank_text}"
                     + (f"; {words}" if words else ""),
         ))
     return rows
 
 
-def rows_for_pairs(result: PairedResult, decimals: int | None) -> list[RankRow]:
-    """Differences of the same parts, ranked by size: pair, before, after, difference, signed rank."""
+def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") -> list[RankRow]:
+    """Differences of the same parts, ranked by size: pair, before, after, difference, signed rank
+    (numbers written with the decimal ``mark``)."""
     entries = sorted(
         range(len(result.differences)),
         key=lambda i: (abs(result.signed_ranks[i]) if result.signed_ranks[i] else 0.0, abs(result.differences[i]), i),
     )
     by_rank = {block.mid_rank: block for block in result.tie_blocks}
-    ties = _tie_columns([abs(result.signed_ranks[i]) for i in entries], by_rank)
+    ties = _tie_columns([abs(result.signed_ranks[i]) for i in entries], by_rank, mark)
     rows = []
-    for i, (mark, words, number) in zip(entries, ties):
+    for i, (bracket, words, number) in zip(entries, ties):
         signed = result.signed_ranks[i]
-        difference = format_reading(result.differences[i], decimals)
+        difference = format_reading(result.differences[i], decimals, mark)
         rank_text = "not ranked (no difference)" if signed == 0 else (
-            ("+" if signed > 0 else "−") + format_count(abs(signed)))
+            ("+" if signed > 0 else "−") + format_count(abs(signed), mark))
         rows.append(RankRow(
-            cells=(str(i + 1), format_reading(result.values_a[i], decimals),
-                   format_reading(result.values_b[i], decimals), difference, rank_text),
-            tie_mark=mark, tie_text=words, block_number=number,
+            cells=(str(i + 1), format_reading(result.values_a[i], decimals, mark),
+                   format_reading(result.values_b[i], decimals, mark), difference, rank_text),
+            tie_mark=bracket, tie_text=words, block_number=number,
             tooltip=f"Pair {i + 1}: {result.name_b} minus {result.name_a} = {difference}; signed rank {rank_text}"
                     + (f"; {words}" if words else ""),
         ))
@@ -201,32 +205,33 @@ class RankTable(QWidget):
 
     def show_result(self, result, analysis) -> None:
         """Fill the table from a result of the statistics service."""
-        decimals = _decimals(analysis)
+        decimals = decimals_of(analysis)
+        mark = analysis.decimal_mark
         if isinstance(result, TwoGroupResult):
             names = (result.name_a, result.name_b)
             rows = rows_for_groups(names, (result.values_a, result.values_b), (result.ranks_a, result.ranks_b),
-                                   result.tie_blocks, decimals)
+                                   result.tie_blocks, decimals, mark)
             self.model.set_rows(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS)
             self.sums.setText(
-                f"Rank sums: {result.name_a} {format_count(result.rank_sum_a)} (n = {result.n_a}), "
-                f"{result.name_b} {format_count(result.rank_sum_b)} (n = {result.n_b}). "
+                f"Rank sums: {result.name_a} {format_count(result.rank_sum_a, mark)} (n = {result.n_a}), "
+                f"{result.name_b} {format_count(result.rank_sum_b, mark)} (n = {result.n_b}). "
                 f"All ranks together add up to N(N + 1)/2 = {format_count((result.n_a + result.n_b) * (result.n_a + result.n_b + 1) / 2)}."
             )
         elif isinstance(result, SeveralGroupsResult):
             names = tuple(summary.name for summary in result.summaries)
-            rows = rows_for_groups(names, result.values, result.ranks, result.tie_blocks, decimals)
+            rows = rows_for_groups(names, result.values, result.ranks, result.tie_blocks, decimals, mark)
             self.model.set_rows(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS)
             parts = ", ".join(
-                f"{name} {format_count(total)} (n = {summary.n}, mean rank {mean:.2f})"
+                f"{name} {format_count(total, mark)} (n = {summary.n}, mean rank {with_mark(f'{mean:.2f}', mark)})"
                 for name, total, mean, summary in zip(names, result.rank_sums, result.mean_ranks, result.summaries)
             )
             self.sums.setText(f"Rank sums: {parts}.")
         elif isinstance(result, PairedResult):
-            rows = rows_for_pairs(result, decimals)
+            rows = rows_for_pairs(result, decimals, mark)
             self.model.set_rows(("Pair", result.name_a, result.name_b, "Difference", "Signed rank"), rows, PAIR_NUMBERS)
             self.sums.setText(
-                f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus)}, "
-                f"of the negative ones (W−) {format_count(result.w_minus)}; "
+                f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus, mark)}, "
+                f"of the negative ones (W−) {format_count(result.w_minus, mark)}; "
                 f"{result.n_zero} pair(s) with no difference ({result.zero_method} convention)."
             )
         else:
@@ -236,7 +241,3 @@ class RankTable(QWidget):
             self._sized_for = self.model.headers
             self.view.resizeColumnsToContents()
 
-
-def _decimals(analysis) -> int | None:
-    known = [group.decimals for group in getattr(analysis, "groups", ()) if group.decimals is not None]
-    return max(known) if known else None

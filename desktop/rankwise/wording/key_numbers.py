@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from collections.abc import Iterator
+from dataclasses import replace
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import (
@@ -26,7 +27,7 @@ from rankwise.wording.numbers import (
 )
 from rankwise.wording.planning import plan_names
 from rankwise.wording.phrases import EXACT_METHOD, NORMAL_METHOD
-from rankwise.wording.questions import decimals_of, unit_of, with_unit
+from rankwise.wording.questions import decimals_of, in_typed_mark, unit_of, with_unit
 from rankwise.wording.verdict_types import KeyNumber
 
 P_TIP = ("The chance of a result at least this far from 'no difference' if the change did nothing. "
@@ -38,16 +39,22 @@ MID_P_TIP = ("The exact p-value counting the observed result only half: a less c
 
 
 def key_numbers(result: Result, analysis: Analysis) -> tuple[KeyNumber, ...]:
-    """The key numbers of ``result`` in display order; raises ``ValueError`` for other objects."""
+    """The key numbers of ``result`` in display order, written with the analysis's decimal mark;
+    raises ``ValueError`` for other objects."""
     if isinstance(result, TwoGroupResult):
-        return tuple(_two_groups(result, analysis))
-    if isinstance(result, PairedResult):
-        return tuple(_paired(result, analysis))
-    if isinstance(result, SeveralGroupsResult):
-        return tuple(_several(result, analysis))
-    if isinstance(result, PlanResult):
-        return tuple(_plan(result, analysis))
-    raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+        numbers = _two_groups(result, analysis)
+    elif isinstance(result, PairedResult):
+        numbers = _paired(result, analysis)
+    elif isinstance(result, SeveralGroupsResult):
+        numbers = _several(result, analysis)
+    elif isinstance(result, PlanResult):
+        numbers = _plan(result, analysis)
+    else:
+        raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+    if analysis.decimal_mark == ".":
+        return tuple(numbers)
+    return tuple(replace(number, label=in_typed_mark(number.label, analysis), text=in_typed_mark(number.text, analysis),
+                         tooltip=in_typed_mark(number.tooltip, analysis)) for number in numbers)
 
 
 class _Formats:

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis, Question
-from rankwise.wording.numbers import format_level, format_setting
+from rankwise.wording.numbers import format_level, format_setting, write_numbers
 
 QUESTION_TITLES: dict[Question, str] = {
     Question.TWO_GROUPS: "Did the change move the readings? (two separate groups of parts)",
@@ -30,6 +30,19 @@ def decimals_of(analysis: Analysis) -> int | None:
     return max(known) if known else None
 
 
+def typed_texts(analysis: Analysis) -> tuple[str, ...]:
+    """The texts the technician typed that a verdict quotes (names, units, the characteristic, the
+    readings' notes): written as typed, whatever the decimal mark of the numbers around them."""
+    groups = analysis.groups
+    return (*(g.name for g in groups), *(g.unit for g in groups), *group_names(analysis),
+            analysis.settings.characteristic, analysis.settings.reference or "", *analysis.notes)
+
+
+def in_typed_mark(text: str, analysis: Analysis) -> str:
+    """``text`` with its numbers written in the analysis's decimal mark, typed names kept as typed."""
+    return write_numbers(text, analysis.decimal_mark, typed_texts(analysis))
+
+
 def with_unit(text: str, unit: str) -> str:
     """``text`` followed by the unit, if any ("0.06 µm")."""
     return f"{text} {unit}" if unit else text
@@ -42,6 +55,11 @@ def margin_text(analysis: Analysis, margin: float) -> str:
 
 def describe_question(analysis: Analysis) -> str:
     """The question asked of these readings, in one plain sentence with the groups' names."""
+    return in_typed_mark(_question(analysis), analysis)
+
+
+def _question(analysis: Analysis) -> str:
+    """The question in words, numbers written with decimal points."""
     names = group_names(analysis)
     settings = analysis.settings
     question = analysis.question

@@ -2,10 +2,13 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairedResult, PlanResult, Result, SeveralGroupsResult, TwoGroupResult
 from rankwise.wording.paired import describe_paired
 from rankwise.wording.planning import describe_plan
+from rankwise.wording.questions import in_typed_mark
 from rankwise.wording.several import describe_several
 from rankwise.wording.two_groups import describe_two_groups
 from rankwise.wording.verdict_types import Verdict
@@ -14,15 +17,26 @@ from rankwise.wording.verdict_types import Verdict
 def describe(result: Result, analysis: Analysis) -> Verdict:
     """The verdict in plain words for any result of the statistics service.
 
-    The same ``Verdict`` is shown in the window, written to the workbook and printed.
+    The same ``Verdict`` is shown in the window, written to the workbook and printed, its numbers
+    written with the decimal mark the technician typed (``Analysis.decimal_mark``).
     Raises ``ValueError`` when ``result`` is not one of the service's result types.
     """
     if isinstance(result, TwoGroupResult):
-        return describe_two_groups(result, analysis)
-    if isinstance(result, PairedResult):
-        return describe_paired(result, analysis)
-    if isinstance(result, SeveralGroupsResult):
-        return describe_several(result, analysis)
-    if isinstance(result, PlanResult):
-        return describe_plan(result, analysis)
-    raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+        verdict = describe_two_groups(result, analysis)
+    elif isinstance(result, PairedResult):
+        verdict = describe_paired(result, analysis)
+    elif isinstance(result, SeveralGroupsResult):
+        verdict = describe_several(result, analysis)
+    elif isinstance(result, PlanResult):
+        verdict = describe_plan(result, analysis)
+    else:
+        raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+    if analysis.decimal_mark == ".":
+        return verdict
+    return replace(
+        verdict,
+        headline=in_typed_mark(verdict.headline, analysis),
+        sentences=tuple(in_typed_mark(sentence, analysis) for sentence in verdict.sentences),
+        method_note=in_typed_mark(verdict.method_note, analysis),
+        assumption_notes=tuple(in_typed_mark(note, analysis) for note in verdict.assumption_notes),
+    )

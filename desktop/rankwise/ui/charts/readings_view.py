@@ -29,6 +29,7 @@ class ReadingsView:
         characteristic: what was measured, or "".
         lsl, usl, nominal: specification limits and nominal, or None.
         decimals: the gauge resolution in decimals, or None when not known.
+        decimal_mark: the decimal mark the readings were typed with ("." or ",").
     """
 
     names: tuple[str, ...]
@@ -41,10 +42,11 @@ class ReadingsView:
     usl: float | None
     nominal: float | None
     decimals: int | None
+    decimal_mark: str = "."
 
     def format(self, value: float) -> str:
-        """A reading as text at the gauge's resolution (the wording layer's one rule)."""
-        return format_reading(value, self.decimals)
+        """A reading as text at the gauge's resolution and in the typed decimal mark (the wording layer's one rule)."""
+        return format_reading(value, self.decimals, self.decimal_mark)
 
     def axis_label(self) -> str:
         """The reading axis' label: the characteristic (or "Reading") and the unit."""
@@ -87,6 +89,7 @@ def readings_view(result, analysis: Analysis) -> ReadingsView | None:
         usl=_first_set(analysis, "usl"),
         nominal=_first_set(analysis, "nominal"),
         decimals=max(decimals) if decimals else None,
+        decimal_mark=analysis.decimal_mark,
     )
 
 

@@ -10,6 +10,7 @@ from rankwise.records.signoff import SignOff
 from rankwise.stats import PairedResult, PlanResult, SeveralGroupsResult, TwoGroupResult
 from rankwise.ui.charts.readings_view import ReadingsView, readings_view
 from rankwise.wording import QUESTION_TITLES, KeyNumber, Verdict, describe, describe_question, key_numbers
+from rankwise.wording.numbers import with_mark
 
 PER_GROUP_KEY = re.compile(r"^(n|n_dropped|median|q1|q3|rank_sum|mean_rank)_(a|b|\d+)$")
 """Key numbers that the page shows in its groups table instead of the key-number list."""
