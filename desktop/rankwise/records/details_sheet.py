@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from openpyxl.worksheet.worksheet import Worksheet
 
-from rankwise.records.sheet_cells import put, reading_format
+from rankwise.records.sheet_cells import fit_row_height, put, put_paragraph, reading_format, set_print_setup
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import (
     NullDistribution,
@@ -18,7 +18,15 @@ from rankwise.wording.phrases import alternative_words
 from rankwise.wording.questions import decimals_of, group_names, unit_of
 
 SHEET_TITLE = "Details"
-P_FORMAT = "0.000000"
+P_FORMAT = '[<0.000001]"< 0.000001";0.000000'
+"""p-values to six places; one too small to show there reads "< 0.000001", never 0.000000."""
+CHANCE_FORMAT = "[>=0.001]0.000000;0.000E+00"
+"""Chances of the null distribution: six places, or three significant digits when tiny."""
+LABEL_WIDTH = 42
+VALUE_WIDTH = 20
+TABLE_WIDTH = 16
+TEXT_LAST_COLUMN = 5
+"""A text value runs from column B to this column, wrapped."""
 NULL_TABLE_LIMIT = 5000
 """Longest null distribution written value by value; longer ones are summarised."""
 
@@ -37,13 +45,18 @@ class _Rows:
         self.row += 1
 
     def line(self, label: str, value: object, number_format: str | None = None) -> None:
-        put(self.sheet, self.row, 1, label)
-        put(self.sheet, self.row, 2, value, number_format)
+        put(self.sheet, self.row, 1, label, wrap=True)
+        fit_row_height(self.sheet, self.row, label, LABEL_WIDTH)
+        if isinstance(value, str):
+            put_paragraph(self.sheet, self.row, 2, TEXT_LAST_COLUMN, value)
+        else:
+            put(self.sheet, self.row, 2, value, number_format)
         self.row += 1
 
     def table(self, headings: tuple[str, ...], rows: list[tuple[tuple[object, str | None], ...]]) -> None:
         for column, heading in enumerate(headings, start=1):
-            put(self.sheet, self.row, column, heading, bold=True)
+            put(self.sheet, self.row, column, heading, bold=True, wrap=True)
+            fit_row_height(self.sheet, self.row, heading, LABEL_WIDTH if column == 1 else TABLE_WIDTH)
         self.row += 1
         for cells in rows:
             for column, (value, number_format) in enumerate(cells, start=1):
@@ -53,10 +66,11 @@ class _Rows:
 
 def fill_details_sheet(sheet: Worksheet, result: Result, analysis: Analysis) -> None:
     """Write the settings and every figure behind the verdict for the question asked."""
-    sheet.column_dimensions["A"].width = 42
-    sheet.column_dimensions["B"].width = 20
-    for letter in "CDEFG":
-        sheet.column_dimensions[letter].width = 16
+    sheet.column_dimensions["A"].width = LABEL_WIDTH
+    sheet.column_dimensions["B"].width = VALUE_WIDTH
+    for letter in "CDEFGH":
+        sheet.column_dimensions[letter].width = TABLE_WIDTH
+    set_print_setup(sheet, landscape=isinstance(result, SeveralGroupsResult))
     rows = _Rows(sheet)
     _settings(rows, analysis)
     if isinstance(result, TwoGroupResult):
@@ -101,7 +115,7 @@ def _null_distribution(rows: _Rows, null: NullDistribution | None) -> None:
     table = []
     for value, probability in zip(null.support, null.probabilities):
         running += probability
-        table.append(((value, "0.0"), (probability, "General"), (min(running, 1.0), "General")))
+        table.append(((value, "0.0"), (probability, CHANCE_FORMAT), (min(running, 1.0), CHANCE_FORMAT)))
     rows.table(("Value", "Chance of exactly this", "Chance of this or less"), table)
 
 

@@ -6,7 +6,7 @@ from collections.abc import Sequence
 
 from openpyxl.worksheet.worksheet import Worksheet
 
-from rankwise.records.sheet_cells import put, reading_format
+from rankwise.records.sheet_cells import column_width, fit_row_height, put, put_paragraph, reading_format, set_print_setup
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import (
     PairedResult,
@@ -20,6 +20,8 @@ from rankwise.wording.numbers import format_count
 from rankwise.wording.questions import decimals_of, unit_of
 
 RANK_FORMAT = "0.0"
+HEADING_ROW = 3
+"""Row of the table's column headings, repeated at the top of every printed page."""
 
 
 def ranks_sheet_title(result: Result) -> str:
@@ -29,10 +31,9 @@ def ranks_sheet_title(result: Result) -> str:
 
 def fill_ranks_sheet(sheet: Worksheet, result: Result, analysis: Analysis) -> None:
     """Write the rank table that fits the question."""
-    sheet.column_dimensions["A"].width = 14
-    sheet.column_dimensions["B"].width = 16
-    sheet.column_dimensions["C"].width = 24
-    sheet.column_dimensions["E"].width = 40
+    for letter, width in zip("ABCDE", (10, 16, 24, 12, 64)):
+        sheet.column_dimensions[letter].width = width
+    set_print_setup(sheet, title_row=HEADING_ROW)
     if isinstance(result, TwoGroupResult):
         _combined(sheet, (result.name_a, result.name_b), (result.values_a, result.values_b),
                   (result.ranks_a, result.ranks_b), result.tie_blocks, analysis)
@@ -45,6 +46,13 @@ def fill_ranks_sheet(sheet: Worksheet, result: Result, analysis: Analysis) -> No
         _power(sheet, result)
     else:
         raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+
+
+def _headings(sheet: Worksheet, headings: Sequence[str]) -> None:
+    """The table's column headings, bold and wrapped, in the row repeated on every printed page."""
+    for column, heading in enumerate(headings, start=1):
+        put(sheet, HEADING_ROW, column, heading, bold=True, wrap=True)
+        fit_row_height(sheet, HEADING_ROW, heading, column_width(sheet, column))
 
 
 def _tie_text(rank: float, blocks: dict[float, TieBlock]) -> str:
@@ -60,11 +68,12 @@ def _combined(sheet: Worksheet, names: Sequence[str], values: Sequence[Sequence[
               ranks: Sequence[Sequence[float]], tie_blocks: Sequence[TieBlock], analysis: Analysis) -> None:
     """All readings combined and sorted, each with its group, rank and tie block; then rank sums."""
     value_format = reading_format(decimals_of(analysis), unit_of(analysis))
-    put(sheet, 1, 1, "All readings ranked together, lowest first; tied readings share the average "
-                     "of the ranks they span.", bold=True)
-    headings = ("Place", "Reading", "Group", "Rank", "Tie block")
-    for column, heading in enumerate(headings, start=1):
-        put(sheet, 3, column, heading, bold=True)
+    name_room = min(40, max(map(len, names), default=0) + 2)
+    sheet.column_dimensions["A"].width = max(10, name_room)  # also the rank sums' group column
+    sheet.column_dimensions["C"].width = max(24, name_room)
+    put_paragraph(sheet, 1, 1, 5, "All readings ranked together, lowest first; tied readings share the average "
+                                  "of the ranks they span.", bold=True)
+    _headings(sheet, ("Place", "Reading", "Group", "Rank", "Tie block"))
     rows = [(rank, group, value) for group, (group_values, group_ranks) in enumerate(zip(values, ranks))
             for value, rank in zip(group_values, group_ranks)]
     rows.sort(key=lambda item: (item[0], item[1]))
@@ -94,12 +103,12 @@ def _paired(sheet: Worksheet, result: PairedResult, analysis: Analysis) -> None:
     """Each part's two readings, its change, and the change's signed rank; then the rank sums."""
     decimals = decimals_of(analysis)
     value_format = reading_format(decimals, unit_of(analysis))
-    put(sheet, 1, 1, "Each part's change, ranked by size (ignoring its sign); the rank then takes the "
-                     "change's sign.", bold=True)
-    headings = ("Part", result.name_a, result.name_b, f"Change, {result.name_b} minus {result.name_a}",
-                "Signed rank")
-    for column, heading in enumerate(headings, start=1):
-        put(sheet, 3, column, heading, bold=True)
+    sheet.column_dimensions["D"].width = 24
+    sheet.column_dimensions["E"].width = 14
+    put_paragraph(sheet, 1, 1, 5, "Each part's change, ranked by size (ignoring its sign); the rank then takes "
+                                  "the change's sign.", bold=True)
+    _headings(sheet, ("Part", result.name_a, result.name_b, f"Change, {result.name_b} minus {result.name_a}",
+                      "Signed rank"))
     row = 4
     for part, (a, b, d, rank) in enumerate(
             zip(result.values_a, result.values_b, result.differences, result.signed_ranks), start=1):
@@ -129,10 +138,8 @@ def _paired(sheet: Worksheet, result: PairedResult, analysis: Analysis) -> None:
 
 def _power(sheet: Worksheet, result: PlanResult) -> None:
     """The planning curve: predicted chance of detecting the change against parts per group."""
-    put(sheet, 1, 1, "Predicted chance of detecting the change, by parts per group.", bold=True)
-    for column, heading in enumerate(("Parts, first group", "Parts, second group", "Chance of detecting"),
-                                     start=1):
-        put(sheet, 3, column, heading, bold=True)
+    put_paragraph(sheet, 1, 1, 5, "Predicted chance of detecting the change, by parts per group.", bold=True)
+    _headings(sheet, ("Parts, first group", "Parts, second group", "Chance of detecting"))
     for row, point in enumerate(result.power_curve, start=4):
         put(sheet, row, 1, point.n_a)
         put(sheet, row, 2, point.n_b)

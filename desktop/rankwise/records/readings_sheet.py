@@ -6,11 +6,15 @@ from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.worksheet import Worksheet
 
 from rankwise.readings import CellKind, SheetSnapshot
-from rankwise.records.sheet_cells import put, reading_format
+from rankwise.records.sheet_cells import put, put_paragraph, reading_format, set_print_setup
 
 SHEET_TITLE = "Readings as entered"
 FIRST_ENTRY_ROW = 12
 """Row of the first entry; rows above hold each group's name, unit, limits and counts."""
+REASON_WIDTH = 60
+"""Width of the column that says why an entry is not a plain reading, when it is not a group's column."""
+LANDSCAPE_FROM = 6
+"""Groups from which the sheet is printed across the page (landscape)."""
 
 _DECIMAL_WORDS = {"auto": "recognised automatically", ".": "point", ",": "comma"}
 
@@ -18,8 +22,16 @@ _DECIMAL_WORDS = {"auto": "recognised automatically", ".": "point", ",": "comma"
 def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
     """Write every group's cells in entry order: readings as numbers at their typed resolution,
     everything else as the text that was typed; then the list of entries not used and why."""
-    put(sheet, 1, 1, "Readings exactly as typed or opened; entries that are not readings keep their text.",
-        bold=True)
+    last_column = max(len(snapshot.groups) + 1, 4)
+    sheet.column_dimensions["A"].width = 24
+    for index, group in enumerate(snapshot.groups):
+        sheet.column_dimensions[get_column_letter(index + 2)].width = max(12, min(40, len(group.name) + 4))
+    if len(snapshot.groups) < 3:
+        sheet.column_dimensions["D"].width = REASON_WIDTH
+    set_print_setup(sheet, landscape=len(snapshot.groups) >= LANDSCAPE_FROM, title_row=FIRST_ENTRY_ROW - 1)
+
+    put_paragraph(sheet, 1, 1, last_column,
+                  "Readings exactly as typed or opened; entries that are not readings keep their text.", bold=True)
     put(sheet, 2, 1, "Decimal mark")
     put(sheet, 2, 2, _DECIMAL_WORDS.get(snapshot.decimal, snapshot.decimal))
     labels = ["Group", "Unit", "Lower limit (LSL)", "Upper limit (USL)", "Nominal", "Readings used",
@@ -27,7 +39,6 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
     for offset, label in enumerate(labels):
         put(sheet, 3 + offset, 1, label, bold=True)
     put(sheet, FIRST_ENTRY_ROW - 1, 1, "Entry", bold=True)
-    sheet.column_dimensions["A"].width = 24
 
     longest = max((len(group.cells) for group in snapshot.groups), default=0)
     for row in range(longest):
@@ -36,7 +47,6 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
     not_used = []
     for index, group in enumerate(snapshot.groups):
         column = index + 2
-        sheet.column_dimensions[get_column_letter(column)].width = max(12, min(40, len(group.name) + 4))
         decimals = max((c.decimals for c in group.cells if c.decimals is not None), default=None)
         limit_format = reading_format(decimals)
         put(sheet, 3, column, group.name, bold=True)
@@ -48,6 +58,7 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
         put(sheet, 8, column, kinds.count(CellKind.NUMBER))
         put(sheet, 9, column, kinds.count(CellKind.NOTE) + kinds.count(CellKind.INVALID))
         put(sheet, 10, column, kinds.count(CellKind.CENSORED))
+        put(sheet, FIRST_ENTRY_ROW - 1, column, group.name, bold=True)
         for row, cell in enumerate(group.cells):
             target = FIRST_ENTRY_ROW + row
             if cell.kind is CellKind.NUMBER:
@@ -57,17 +68,23 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
             if cell.kind in (CellKind.NOTE, CellKind.INVALID, CellKind.CENSORED):
                 not_used.append((group.name, row + 1, cell.text, cell.reason or _default_reason(cell.kind)))
 
-    table_column = len(snapshot.groups) + 3
-    put(sheet, 3, table_column, "Entries that are not plain readings", bold=True)
-    for offset, heading in enumerate(("Group", "Entry", "As typed", "Why")):
-        put(sheet, 4, table_column + offset, heading, bold=True)
-    for row, (name, entry, text, reason) in enumerate(not_used, start=5):
-        put(sheet, row, table_column, name)
-        put(sheet, row, table_column + 1, entry)
-        put(sheet, row, table_column + 2, text)
-        put(sheet, row, table_column + 3, reason)
-    sheet.column_dimensions[get_column_letter(table_column + 3)].width = 60
+    _not_used_table(sheet, FIRST_ENTRY_ROW + longest + 1, last_column, not_used)
     sheet.freeze_panes = sheet.cell(row=FIRST_ENTRY_ROW, column=2)
+
+
+def _not_used_table(sheet: Worksheet, row: int, last_column: int, entries: list[tuple[str, int, str, str]]) -> None:
+    """Below the readings: each entry that is not a plain reading, where it is, and why."""
+    put(sheet, row, 1, "Entries that are not plain readings", bold=True)
+    if not entries:
+        put(sheet, row + 1, 1, "none")
+        return
+    for column, heading in enumerate(("Group", "Entry", "As typed", "Why"), start=1):
+        put(sheet, row + 1, column, heading, bold=True)
+    for target, (name, entry, text, reason) in enumerate(entries, start=row + 2):
+        put(sheet, target, 1, name)
+        put(sheet, target, 2, entry)
+        put(sheet, target, 3, text)
+        put_paragraph(sheet, target, 4, last_column, reason)
 
 
 def _default_reason(kind: CellKind) -> str:

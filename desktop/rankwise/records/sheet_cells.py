@@ -7,6 +7,7 @@ import re
 from datetime import datetime
 
 from openpyxl.styles import Alignment, Font
+from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.worksheet import Worksheet
 
 from rankwise.wording.numbers import MISSING
@@ -18,9 +19,16 @@ FORMULA_STARTS = ("=", "+", "-", "@")
 BOLD = Font(bold=True)
 TITLE = Font(bold=True, size=14)
 WRAP = Alignment(wrap_text=True, vertical="top")
+TOP = Alignment(vertical="top")
+"""Every cell sits at the top of its row, level with a wrapped text beside it."""
 DATE_TIME_FORMAT = "yyyy-mm-dd hh:mm:ss"
+LINE_HEIGHT = 15.0
+"""Points per line of text at the default font size; wrapped cells get a row height of whole lines."""
+PAGE_FOOTER = "&A, page &P of &N"
+"""Printed at the foot of every page: the sheet's name and the page number out of the sheet's pages."""
 
-_LEADING_NUMBER = re.compile(r"^[-+]?\d+(?:\.(\d+))?")
+_LEADING_NUMBER = re.compile(r"^[-+]?\d+(?:[.,](\d+))?")
+"""A number at the start of a text, written with either decimal mark."""
 
 
 def put(sheet: Worksheet, row: int, column: int, value: object, number_format: str | None = None,
@@ -51,8 +59,51 @@ def put(sheet: Worksheet, row: int, column: int, value: object, number_format: s
             cell.number_format = number_format
     if bold:
         cell.font = BOLD
-    if wrap:
-        cell.alignment = WRAP
+    cell.alignment = WRAP if wrap else TOP
+
+
+def put_paragraph(sheet: Worksheet, row: int, first_column: int, last_column: int, text: str,
+                  *, bold: bool = False) -> None:
+    """Write a long ``text`` across columns ``first_column`` to ``last_column``, wrapped, with the
+    row made tall enough for it, so that neither screen nor printout cuts it off."""
+    put(sheet, row, first_column, text, bold=bold, wrap=True)
+    if last_column > first_column:
+        sheet.merge_cells(start_row=row, start_column=first_column, end_row=row, end_column=last_column)
+    width = sum(column_width(sheet, column) for column in range(first_column, last_column + 1))
+    fit_row_height(sheet, row, text, width)
+
+
+def column_width(sheet: Worksheet, column: int) -> float:
+    """A column's width in characters (the spreadsheet default, 8.43, when none was set)."""
+    return sheet.column_dimensions[get_column_letter(column)].width or 8.43
+
+
+def fit_row_height(sheet: Worksheet, row: int, text: str, width: float) -> None:
+    """Make ``row`` tall enough for ``text`` wrapped in ``width`` characters (never lower it).
+
+    Spreadsheet programs do not grow a row for wrapped text when a file is opened, so the height
+    is estimated here: a character of text is taken as one unit of column width (common
+    practice, no source), each line break starts a line.
+    """
+    per_line = max(1, int(width) - 1)
+    lines = sum(max(1, math.ceil(len(part) / per_line)) for part in str(text).split("\n"))
+    current = sheet.row_dimensions[row].height or LINE_HEIGHT
+    sheet.row_dimensions[row].height = max(current, LINE_HEIGHT * lines)
+
+
+def set_print_setup(sheet: Worksheet, *, landscape: bool = False, title_row: int | None = None) -> None:
+    """Print the sheet on A4 scaled to the page width (as many pages down as needed), with the
+    sheet's name and page numbers at the foot, and ``title_row`` repeated at the top of every page."""
+    sheet.page_setup.paperSize = sheet.PAPERSIZE_A4
+    sheet.page_setup.orientation = "landscape" if landscape else "portrait"
+    sheet.page_setup.fitToWidth = 1
+    sheet.page_setup.fitToHeight = 0
+    sheet.sheet_properties.pageSetUpPr.fitToPage = True
+    sheet.print_options.gridLines = False
+    sheet.page_margins.left = sheet.page_margins.right = 0.5
+    sheet.oddFooter.center.text = PAGE_FOOTER
+    if title_row is not None:
+        sheet.print_title_rows = f"{title_row}:{title_row}"
 
 
 def reading_format(decimals: int | None, unit: str = "") -> str:
@@ -70,15 +121,21 @@ def reading_format(decimals: int | None, unit: str = "") -> str:
 
 def key_number_cell(number: KeyNumber) -> tuple[object, str | None]:
     """What to store for a key number: its raw value with a format that shows it as ``text``,
-    or the text itself when the number has no value or a value a format cannot show."""
+    or the text itself when the number has no value or a value a format cannot show.
+
+    The text may be written with a decimal comma; a number format always uses a point (the
+    spreadsheet program shows it with the reader's own decimal mark), and a bound such as
+    "< 0,0001" is kept as written.
+    """
     text = number.text
     if number.value is None or not math.isfinite(number.value) or text == MISSING:
         return text, None
     if text.startswith("<"):
         bound = text[1:].strip()
-        return number.value, f'[<{bound}]"< {bound}";' + reading_format(len(bound.partition(".")[2]))
+        decimals = _decimals_of(bound)
+        return number.value, f'[<{bound.replace(",", ".")}]"< {bound}";' + reading_format(decimals)
     if text.endswith("%"):
-        digits = len(text[:-1].strip().partition(".")[2])
+        digits = _decimals_of(text[:-1].strip())
         return number.value, "0" + ("." + "0" * digits if digits else "") + "%"
     match = _LEADING_NUMBER.match(text)
     if match is None or "e" in text.lower()[match.end():match.end() + 1]:
@@ -86,3 +143,11 @@ def key_number_cell(number: KeyNumber) -> tuple[object, str | None]:
     decimals = len(match.group(1) or "")
     unit = text[match.end():].strip()
     return number.value, reading_format(decimals, unit)
+
+
+def _decimals_of(number_text: str) -> int:
+    """Digits after the decimal mark (point or comma) of a written number."""
+    for mark in ".,":
+        if mark in number_text:
+            return len(number_text.partition(mark)[2])
+    return 0

@@ -5,22 +5,33 @@ from __future__ import annotations
 from openpyxl.worksheet.worksheet import Worksheet
 
 from rankwise.records.record import ResultRecord
-from rankwise.records.sheet_cells import TITLE, key_number_cell, put
+from rankwise.records.sheet_cells import (
+    TITLE,
+    fit_row_height,
+    key_number_cell,
+    put,
+    put_paragraph,
+    set_print_setup,
+)
 from rankwise.records.signoff import Signature
 from rankwise.wording import CAUTION_SHORT, QUESTION_TITLES, describe, describe_question, key_numbers
 from rankwise.wording.questions import group_names
 
 SHEET_TITLE = "Verdict"
-NOTE_COLUMN_WIDTH = 90
+LABEL_WIDTH = 30
+VALUE_WIDTH = 20
+NOTE_COLUMN_WIDTH = 52
+"""Width of column C, which holds what each key number means; texts run across B and C."""
 
 
 def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str) -> None:
     """Write the summary: what was asked, the verdict in words, the key numbers, who signed."""
     analysis, result = record.analysis, record.result
     verdict = describe(result, analysis)
-    sheet.column_dimensions["A"].width = 38
-    sheet.column_dimensions["B"].width = 24
+    sheet.column_dimensions["A"].width = LABEL_WIDTH
+    sheet.column_dimensions["B"].width = VALUE_WIDTH
     sheet.column_dimensions["C"].width = NOTE_COLUMN_WIDTH
+    set_print_setup(sheet)
 
     put(sheet, 1, 1, "Result record", bold=True)
     sheet["A1"].font = TITLE
@@ -32,29 +43,20 @@ def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str)
         ("Groups", ", ".join(group_names(analysis))),
     ]
     for label, text in rows:
-        put(sheet, row, 1, label, bold=True)
-        put(sheet, row, 2, text)
-        row += 1
+        row = _text_line(sheet, row, label, text)
 
     row += 1
-    put(sheet, row, 1, "Verdict", bold=True)
-    put(sheet, row, 2, verdict.headline, bold=True)
-    row += 1
+    row = _text_line(sheet, row, "Verdict", verdict.headline, bold=True)
     for sentence in verdict.sentences:
-        put(sheet, row, 2, sentence)
-        row += 1
-    put(sheet, row, 1, "How it was worked out", bold=True)
-    put(sheet, row, 2, verdict.method_note)
-    row += 1
+        row = _text_line(sheet, row, "", sentence)
+    row = _text_line(sheet, row, "How it was worked out", verdict.method_note)
     put(sheet, row, 1, "Points to keep in mind", bold=True)
     for note in verdict.assumption_notes:
-        put(sheet, row, 2, note)
-        row += 1
+        row = _text_line(sheet, row, "", note)
     if not verdict.assumption_notes:
         row += 1
-    put(sheet, row, 1, "Caution", bold=True)
-    put(sheet, row, 2, CAUTION_SHORT)
-    row += 2
+    row = _text_line(sheet, row, "Caution", CAUTION_SHORT, bold=True)
+    row += 1
 
     put(sheet, row, 1, "Key number", bold=True)
     put(sheet, row, 2, "Value", bold=True)
@@ -62,40 +64,50 @@ def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str)
     row += 1
     for number in key_numbers(result, analysis):
         value, number_format = key_number_cell(number)
-        put(sheet, row, 1, number.label)
-        put(sheet, row, 2, value, number_format)
-        put(sheet, row, 3, number.tooltip)
+        put(sheet, row, 1, number.label, wrap=True)
+        put(sheet, row, 2, value, number_format, wrap=isinstance(value, str))
+        put(sheet, row, 3, number.tooltip, wrap=True)
+        fit_row_height(sheet, row, number.label, LABEL_WIDTH)
+        fit_row_height(sheet, row, str(value) if isinstance(value, str) else "", VALUE_WIDTH)
+        fit_row_height(sheet, row, number.tooltip, NOTE_COLUMN_WIDTH)
         row += 1
 
     row += 1
     row = _signoff_block(sheet, row, record)
     row += 1
-    put(sheet, row, 1, "Written by", bold=True)
-    put(sheet, row, 2, f"Rankwise {record.program_version}")
-    row += 1
+    row = _text_line(sheet, row, "Written by", f"Rankwise {record.program_version}")
     for name, version in record.library_versions:
         put(sheet, row, 1, f"{name} version")
         put(sheet, row, 2, version)
         row += 1
-    put(sheet, row, 1, "Record written at")
-    put(sheet, row, 2, record.created_at)
-    put(sheet, row, 3, _offset(record.created_at))
+    _moment(sheet, row, "Record written at", record.created_at)
     row += 2
-    put(sheet, row, 1, "Fingerprint (SHA-256)", bold=True)
-    put(sheet, row, 2, fingerprint)
-    put(sheet, row + 1, 2, "Any change to the readings, settings, results or sign-off changes this "
-                           "fingerprint; the program's check of a record recomputes it.")
+    row = _text_line(sheet, row, "Fingerprint (SHA-256)", fingerprint)
+    _text_line(sheet, row, "", "Any change to the readings, settings, results or sign-off changes this "
+                               "fingerprint; the program's check of a record recomputes it.")
+
+
+def _text_line(sheet: Worksheet, row: int, label: str, text: str, *, bold: bool = False) -> int:
+    """A bold label in column A and a text wrapped across columns B and C; returns the next row."""
+    if label:
+        put(sheet, row, 1, label, bold=True)
+    put_paragraph(sheet, row, 2, 3, text, bold=bold)
+    return row + 1
+
+
+def _moment(sheet: Worksheet, row: int, label: str, moment) -> None:
+    """A labelled date and time, with its offset from UTC beside it."""
+    put(sheet, row, 1, label)
+    put(sheet, row, 2, moment)
+    put(sheet, row, 3, _offset(moment))
 
 
 def _signoff_block(sheet: Worksheet, row: int, record: ResultRecord) -> int:
     """The sign-off block; returns the next free row."""
-    put(sheet, row, 1, "Sign-off", bold=True)
     signoff = record.signoff
     if signoff is None:
-        put(sheet, row, 2, "Not signed: a draft, not a record.")
-        return row + 1
-    put(sheet, row, 2, f"Revision {signoff.revision}")
-    row += 1
+        return _text_line(sheet, row, "Sign-off", "Not signed: a draft, not a record.")
+    row = _text_line(sheet, row, "Sign-off", f"Revision {signoff.revision}")
     row = _signature(sheet, row, "Prepared by", signoff.prepared)
     if signoff.reviewed is not None:
         row = _signature(sheet, row, "Reviewed by", signoff.reviewed)
@@ -108,11 +120,9 @@ def _signature(sheet: Worksheet, row: int, title: str, signature: Signature) -> 
              ("Comment", signature.comment)]
     for label, text in lines:
         put(sheet, row, 1, label)
-        put(sheet, row, 2, text)
+        put_paragraph(sheet, row, 2, 3, text)
         row += 1
-    put(sheet, row, 1, "Signed at")
-    put(sheet, row, 2, signature.signed_at)
-    put(sheet, row, 3, _offset(signature.signed_at))
+    _moment(sheet, row, "Signed at", signature.signed_at)
     return row + 1
 
 
