@@ -1,7 +1,10 @@
 """Every bad file gets one plain sentence (a ReadingsError), never a traceback, and is never changed."""
 
+import contextlib
 import os
 import pathlib
+import shutil
+import tempfile
 import zipfile
 
 import openpyxl
@@ -12,6 +15,8 @@ from rankwise.readings import open as open_module
 from rankwise.readings import open_xlsx
 
 DEMO = pathlib.Path(__file__).resolve().parents[2] / "demo_files"
+NOBODY = 65534
+"""The user and group id of the unprivileged user "nobody" on Linux (common practice, no source)."""
 
 
 def one_sentence(message: str) -> bool:
@@ -36,24 +41,54 @@ def test_a_folder(tmp_path):
     refused(tmp_path, "is a folder")
 
 
-def test_no_permission(tmp_path, monkeypatch):
-    """Reading refused by the system (simulated: tests may run as an all-powerful user)."""
+def test_no_permission(tmp_path, monkeypatch, unchanged):
+    """Reading refused by the system at the one call that opens the file (simulated, so that it
+    happens on every system and for every user)."""
     path = tmp_path / "locked.csv"
     path.write_text("A\n1\n")
+    unchanged(path)
 
     def refuse(*args, **kwargs):
         raise PermissionError(13, "Permission denied")
 
     monkeypatch.setattr(open_module, "open", refuse, raising=False)
-    refused(path, "permission to read 'locked.csv'")
+    message = refused(path, "permission to read 'locked.csv'")
+    assert "ask for access" in message
 
 
-@pytest.mark.skipif(os.name != "posix" or os.geteuid() == 0, reason="needs a user without access")
-def test_no_permission_for_real(tmp_path):
-    path = tmp_path / "locked.csv"
-    path.write_text("A\n1\n")
-    path.chmod(0)
-    refused(path, "permission to read")
+@contextlib.contextmanager
+def as_ordinary_user():
+    """Act as an ordinary user (nobody) for a moment when the tests run as root, who may read
+    every file; only the effective user changes, and it is changed back at once."""
+    if os.geteuid() != 0:
+        yield
+        return
+    os.setegid(NOBODY)
+    os.seteuid(NOBODY)
+    try:
+        yield
+    finally:
+        os.seteuid(0)
+        os.setegid(0)
+
+
+def test_no_permission_for_real():
+    """A file whose owner allows nobody to read it; run as root too, by acting as an ordinary user."""
+    folder = pathlib.Path(tempfile.mkdtemp(prefix="rankwise-locked-"))
+    try:
+        folder.chmod(0o755)  # the folder is open to all: only the file itself is locked
+        path = folder / "locked.csv"
+        path.write_text("A\n1\n")
+        path.chmod(0)
+        with as_ordinary_user():
+            with pytest.raises(PermissionError):
+                path.read_bytes()  # the system really refuses this user
+            message = refused(path, "You do not have permission to read 'locked.csv'")
+        assert "ask for access, or copy the file to your own folder" in message
+        path.chmod(0o600)
+        assert path.read_text() == "A\n1\n"  # refused, and left as it was
+    finally:
+        shutil.rmtree(folder)
 
 
 def test_empty_file(tmp_path, unchanged):
