@@ -45,3 +45,52 @@ def test_blank_readings_are_refused_by_the_ranking():
     """NaN must be dropped before ranking; the message says so."""
     with pytest.raises(ValueError, match="blanks"):
         midranks([1.0, np.nan])
+
+
+def _tie_blocks_by_hand(values, sizes):
+    """Brute force: for each value held by two or more readings, its readings per group and first entry."""
+    labels = np.repeat(np.arange(len(sizes)), sizes)
+    blocks = []
+    for value in sorted(set(values.tolist())):
+        members = np.flatnonzero(values == value)
+        if members.size > 1:
+            below = int(np.sum(values < value))
+            blocks.append((float(values[members[0]]), members.size, below + 1, below + members.size,
+                           tuple(int(np.sum(labels[members] == g)) for g in range(len(sizes)))))
+    return blocks
+
+
+@pytest.mark.parametrize("decimals", [0, 1, 2, None])
+def test_rank_groups_agree_with_scipy_and_enumeration_by_counting_and_by_sorting(decimals):
+    """Whole numbers in a narrow range are ranked by counting, others by sorting: both give
+    scipy.stats.rankdata(method="average") of the combined sample, and the tie blocks found by
+    going through every distinct value by hand (brute force)."""
+    rng = np.random.default_rng(11 + (decimals or 9))
+    groups = [rng.normal(5.0, 1.0, n) for n in (40, 33, 27)]
+    if decimals is not None:
+        groups = [np.rint(g * 10.0**decimals) for g in groups]  # whole numbers: the counting path
+    combined = np.concatenate(groups)
+    ranks, blocks = rank_groups(groups, groups)
+    np.testing.assert_array_equal(np.concatenate(ranks), scipy.stats.rankdata(combined, method="average"))
+    assert [(b.value, b.count, b.first_rank, b.last_rank, b.counts_by_group) for b in blocks] == \
+        _tie_blocks_by_hand(combined, [40, 33, 27])
+    assert all(b.mid_rank == (b.first_rank + b.last_rank) / 2 for b in blocks)
+
+
+def test_a_tie_block_is_labelled_by_its_first_reading_in_entry_order():
+    """Counts equal, readings a hair apart (spreadsheet noise): the block shows the first one typed."""
+    first, later = 0.3, 0.1 + 0.2
+    for counts in ([3.0, 3.0, 1.0], [3.5, 3.5, 1.0]):  # counting path, sorting path
+        _, blocks = rank_groups([np.array(counts)], [np.array([later, first, 0.1])])
+        assert blocks[0].value == later
+        _, blocks = rank_groups([np.array(counts)], [np.array([first, later, 0.1])])
+        assert blocks[0].value == first
+
+
+def test_wide_whole_numbers_are_ranked_by_sorting_with_the_same_result():
+    """A range far wider than the number of readings (counting would need a huge tally): still
+    scipy.stats.rankdata(method="average")."""
+    values = np.array([0.0, 1e12, 5.0, 1e12, -3e9])
+    (ranks,), blocks = rank_groups([values], [values])
+    np.testing.assert_array_equal(ranks, scipy.stats.rankdata(values))
+    assert [(b.value, b.count) for b in blocks] == [(1e12, 2)]

@@ -56,18 +56,54 @@ def _fits(values: np.ndarray, decimals: int) -> bool:
     allowed for values that passed through spreadsheet arithmetic.
     """
     scale = 10.0**decimals
+    for start in range(0, values.size, _CHUNK):
+        if not _chunk_fits(values[start:start + _CHUNK], scale):
+            return False
+    return True
+
+
+_CHUNK = 1 << 15
+"""Readings checked at a time: the temporaries stay in the processor's cache."""
+
+
+def _chunk_fits(values: np.ndarray, scale: float) -> bool:
+    """``_fits`` for one chunk of readings and the scale 10^decimals."""
     scaled = values * scale
-    if np.abs(scaled).max(initial=0.0) >= _EXACT_INTEGER_LIMIT:
+    if max(scaled.max(), -scaled.min()) >= _EXACT_INTEGER_LIMIT:
         return False
-    back = np.rint(scaled) / scale
-    return bool(np.all(np.abs(back - values) <= 4.0 * np.spacing(np.abs(values))))
+    off = np.rint(scaled, out=scaled)
+    off /= scale
+    off -= values
+    np.abs(off, out=off)
+    allowed = np.abs(values)
+    np.spacing(allowed, out=allowed)
+    allowed *= 4.0
+    return bool(np.all(off <= allowed))
+
+
+PREFIX_READINGS = 256
+"""The search first runs on this many readings: no set needs fewer decimals than a part of it."""
 
 
 def find_grid(*groups: np.ndarray) -> Grid:
-    """The coarsest resolution (fewest decimals) on which every reading of every group lies."""
+    """The coarsest resolution (fewest decimals) on which every reading of every group lies.
+
+    The coarsest resolution of the first ``PREFIX_READINGS`` readings is a lower bound for the
+    whole set (a set fits a resolution only if each of its parts does), so the full search starts
+    there and usually checks the whole set once; continuous data are mostly settled by the prefix.
+    """
     combined = np.concatenate([np.asarray(g, dtype=float).ravel() for g in groups]) if groups else np.array([])
-    combined = combined[np.isfinite(combined)]
-    for decimals in range(MAX_DECIMALS + 1):
-        if _fits(combined, decimals):
-            return Grid(decimals)
-    return Grid(None)
+    if not np.isfinite(combined).all():
+        combined = combined[np.isfinite(combined)]
+    start = _coarsest_fit(combined[:PREFIX_READINGS], 0)
+    if start is None:
+        return Grid(None)
+    return Grid(_coarsest_fit(combined, start))
+
+
+def _coarsest_fit(values: np.ndarray, fewest: int) -> int | None:
+    """The fewest decimals, from ``fewest`` up to ``MAX_DECIMALS``, that ``values`` fit, or None."""
+    for decimals in range(fewest, MAX_DECIMALS + 1):
+        if _fits(values, decimals):
+            return decimals
+    return None

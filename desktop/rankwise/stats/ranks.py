@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from collections.abc import Sequence
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -10,17 +11,83 @@ from rankwise.stats.grid import find_grid
 from rankwise.stats.results import TieBlock
 
 
-def _ranks_of_exact_values(values: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """Mid-ranks of values compared exactly, with the sort order and the blocks' starts and ends."""
-    order = np.argsort(values, kind="mergesort")
+COUNTING_RANGE_FACTOR = 4
+"""Whole-number readings spanning at most this many steps per reading are ranked by counting."""
+
+
+@dataclass(frozen=True)
+class _Ties:
+    """The blocks of two or more level readings, ascending (arrays of equal length).
+
+    starts, ends: 0-based positions of each block in sorted order (end exclusive);
+    first_entries: each block's first reading in entry order; by_group: readings per group.
+    """
+
+    starts: np.ndarray
+    ends: np.ndarray
+    first_entries: np.ndarray
+    by_group: np.ndarray
+
+
+def _rank_exact_values(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.ndarray, _Ties]:
+    """Mid-ranks of values compared exactly, and their tie blocks (``sizes``: the groups, in order).
+
+    Whole numbers in a narrow range (readings on a gauge's grid) are ranked by counting, in time
+    proportional to the number of readings; other values by sorting.
+    """
+    if values.size and _whole_in_narrow_range(values):
+        return _rank_by_counting(values, sizes)
+    return _rank_by_sorting(values, sizes)
+
+
+def _whole_in_narrow_range(values: np.ndarray) -> bool:
+    """True when every value is a whole number and max - min <= COUNTING_RANGE_FACTOR * count."""
+    low, high = values.min(), values.max()
+    if not high - low <= COUNTING_RANGE_FACTOR * values.size:
+        return False
+    head = values[:256]
+    if not np.array_equal(head, np.rint(head)):
+        return False
+    return bool(np.array_equal(values, np.rint(values)))
+
+
+def _rank_by_counting(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.ndarray, _Ties]:
+    """Mid-rank of value v: (readings below v) + (readings level with v + 1) / 2, from a tally."""
+    offsets = (values - values.min()).astype(np.intp)
+    span = int(offsets.max()) + 1
+    bounds = np.concatenate(([0], np.cumsum(sizes)))
+    by_value = np.stack([np.bincount(offsets[s:e], minlength=span) for s, e in zip(bounds[:-1], bounds[1:])])
+    tally = by_value.sum(axis=0)
+    ends = np.cumsum(tally)
+    ranks = (ends - (tally - 1) / 2.0)[offsets]
+    tied = np.flatnonzero(tally > 1)
+    first = np.full(span, values.size)
+    np.minimum.at(first, offsets, np.arange(values.size))
+    ties = _Ties(starts=(ends - tally)[tied], ends=ends[tied], first_entries=first[tied], by_group=by_value[:, tied].T)
+    return ranks, ties
+
+
+def _rank_by_sorting(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.ndarray, _Ties]:
+    """Mid-ranks from one sort.
+
+    The sort need not be stable: a mid-rank depends only on how many readings lie below and level
+    with a reading, not on the order inside a tie block.
+    """
+    order = np.argsort(values, kind="quicksort")
     ordered = values[order]
     boundaries = np.flatnonzero(ordered[1:] != ordered[:-1]) + 1
     starts = np.concatenate(([0], boundaries))
     ends = np.concatenate((boundaries, [values.size]))
-    mid = (starts + 1 + ends) / 2.0
     ranks = np.empty(values.size, dtype=float)
-    ranks[order] = np.repeat(mid, ends - starts)
-    return ranks, order, starts, ends
+    ranks[order] = np.repeat((starts + 1 + ends) / 2.0, ends - starts)
+    tied = ends - starts > 1
+    if not tied.any():
+        empty = np.zeros(0, dtype=np.intp)
+        return ranks, _Ties(empty, empty, empty, np.zeros((0, len(sizes)), dtype=np.intp))
+    group_of = np.searchsorted(np.cumsum(sizes), order, side="right")
+    by_group = np.stack([np.add.reduceat(group_of == g, starts)[tied] for g in range(len(sizes))], axis=1)
+    first_entries = np.minimum.reduceat(order, starts)[tied]
+    return ranks, _Ties(starts=starts[tied], ends=ends[tied], first_entries=first_entries, by_group=by_group)
 
 
 def midranks(values: Sequence[float] | np.ndarray) -> np.ndarray:
@@ -35,7 +102,7 @@ def midranks(values: Sequence[float] | np.ndarray) -> np.ndarray:
     if array.size == 0:
         return array.copy()
     counts = find_grid(array).to_counts(array)
-    return _ranks_of_exact_values(counts)[0]
+    return _rank_exact_values(counts, [counts.size])[0]
 
 
 def rank_groups(counts: Sequence[np.ndarray], values: Sequence[np.ndarray]) -> tuple[list[np.ndarray], tuple[TieBlock, ...]]:
@@ -43,28 +110,29 @@ def rank_groups(counts: Sequence[np.ndarray], values: Sequence[np.ndarray]) -> t
 
     ``counts`` are the groups on their common grid (exactly comparable), ``values`` the same
     readings in their own unit (used to label tie blocks). Returns each group's mid-ranks in entry
-    order and the tie blocks (values shared by two or more readings), ascending.
+    order and the tie blocks (values shared by two or more readings), ascending, each labelled by
+    its first reading in entry order.
     """
     sizes = [len(c) for c in counts]
     combined = np.concatenate([np.asarray(c, dtype=float) for c in counts])
-    combined_values = np.concatenate([np.asarray(v, dtype=float) for v in values])
-    labels = np.repeat(np.arange(len(sizes)), sizes)
-    ranks, order, starts, ends = _ranks_of_exact_values(combined)
-    blocks = []
-    for start, end in zip(starts[ends - starts > 1], ends[ends - starts > 1]):
-        members = labels[order[start:end]]
-        blocks.append(
+    ranks, ties = _rank_exact_values(combined, sizes)
+    split = np.cumsum(sizes)[:-1]
+    blocks = ()
+    if ties.starts.size:
+        combined_values = np.concatenate([np.asarray(v, dtype=float) for v in values])
+        blocks = tuple(
             TieBlock(
-                value=float(combined_values[order[start]]),
+                value=float(combined_values[entry]),
                 count=int(end - start),
                 first_rank=int(start + 1),
                 last_rank=int(end),
                 mid_rank=float(start + 1 + end) / 2.0,
-                counts_by_group=tuple(int(c) for c in np.bincount(members, minlength=len(sizes))),
+                counts_by_group=tuple(int(c) for c in group_counts),
             )
+            for entry, start, end, group_counts in zip(
+                ties.first_entries.tolist(), ties.starts.tolist(), ties.ends.tolist(), ties.by_group.tolist())
         )
-    split = np.cumsum(sizes)[:-1]
-    return list(np.split(ranks, split)), tuple(blocks)
+    return list(np.split(ranks, split)), blocks
 
 
 def tie_correction_sum(counts: np.ndarray) -> float:

@@ -89,7 +89,7 @@ def compare_two(
     values_a, dropped_a = clean_group(a, name_a)
     values_b, dropped_b = clean_group(b, name_b)
     n_a, n_b = values_a.size, values_b.size
-    grid = _common_grid(values_a, values_b)
+    grid = find_grid(values_a, values_b)
     counts_a, counts_b = grid.to_counts(values_a), grid.to_counts(values_b)
     (ranks_a, ranks_b), tie_blocks = rank_groups([counts_a, counts_b], [values_a, values_b])
 
@@ -191,16 +191,6 @@ def _check_margin(margin: float | None, alpha: float) -> float | None:
     if alpha >= 0.5:
         raise ValueError(f"With a margin, alpha must be below 0.5 (the interval is at 1 - 2 alpha); got {alpha!r}.")
     return margin
-
-
-def _common_grid(values_a: np.ndarray, values_b: np.ndarray) -> Grid:
-    """The readings' common grid; a short look at the first readings settles most continuous data.
-
-    If the first readings fit no grid, no set containing them does, so the full search (one pass
-    per candidate resolution) is needed only when they do.
-    """
-    first = find_grid(values_a[:256], values_b[:256])
-    return first if first.decimals is None else find_grid(values_a, values_b)
 
 
 @dataclass(frozen=True)

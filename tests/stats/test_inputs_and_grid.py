@@ -1,0 +1,55 @@
+"""Checking readings in (plain-words refusals) and finding their gauge resolution."""
+
+import numpy as np
+import pytest
+
+from rankwise.stats.grid import PREFIX_READINGS, find_grid
+from rankwise.stats.inputs import clean_group
+
+
+@pytest.mark.parametrize("values", [
+    [1.0, None, 2.0, float("nan")],
+    np.array([1.0, np.nan, 2.0, np.nan]),
+    np.array([[1.0, np.nan], [2.0, np.nan]]),
+])
+def test_blanks_are_dropped_and_counted_from_lists_and_arrays(values):
+    kept, dropped = clean_group(values, "Press 2")
+    assert kept.tolist() == [1.0, 2.0] and dropped == 2
+
+
+def test_a_whole_number_array_is_taken_as_floats():
+    kept, dropped = clean_group(np.array([3, 1, 2], dtype=np.int32), "A")
+    assert kept.dtype == float and kept.tolist() == [3.0, 1.0, 2.0] and dropped == 0
+
+
+@pytest.mark.parametrize("values, words", [
+    (np.array([1.0, np.inf]), "infinite"),
+    ([1.0, float("-inf")], "infinite"),
+    (np.array([], dtype=float), "no readings"),
+    (np.array([np.nan, np.nan]), "no readings"),
+    ([], "no readings"),
+    (["1.2", "ok"], "not a number"),
+    (np.array(["a", "b"]), "not a number"),
+])
+def test_bad_groups_are_refused_naming_the_group(values, words):
+    with pytest.raises(ValueError, match=f"Group Press 2 .*{words}|{words}.*Press 2|Press 2.*{words}"):
+        clean_group(values, "Press 2")
+
+
+def test_a_finer_reading_after_the_first_ones_still_sets_the_resolution():
+    """The first readings are whole numbers; one later reading has two decimals: the grid is 0.01
+    (the prefix only gives a lower bound; common practice, no source)."""
+    readings = np.concatenate([np.arange(PREFIX_READINGS + 10, dtype=float), [4.25]])
+    assert find_grid(readings).decimals == 2
+    assert find_grid(readings[:PREFIX_READINGS], readings[PREFIX_READINGS:]).decimals == 2
+
+
+def test_resolutions_of_typed_decimals_and_of_continuous_readings():
+    """0.42-style readings sit on 0.01; noise from sums (0.1 + 0.2) stays on 0.1; readings needing more
+    than nine decimals are continuous (None); chunks of many readings are all checked."""
+    assert find_grid(np.array([0.42, 0.40, 1.5])).decimals == 2
+    assert find_grid(np.array([0.1 + 0.2, 0.5])).decimals == 1
+    assert find_grid(np.random.default_rng(3).normal(size=50)).decimals is None
+    many = np.round(np.random.default_rng(4).normal(size=200_000), 1)
+    many[-1] = 0.123
+    assert find_grid(many).decimals == 3
