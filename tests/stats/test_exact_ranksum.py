@@ -92,3 +92,17 @@ def test_wrong_arguments_are_refused_with_the_argument_named():
         rank_sum_distribution([2.5, 4, 6], 1)
     with pytest.raises(ValueError, match="n_a and n_b"):
         no_ties_distribution(0, 3)
+
+
+def test_an_exact_count_too_big_for_memory_is_refused_in_the_window_s_words(monkeypatch):
+    """The refusal reaches the technician: it names the picker's choice ("by the normal
+    approximation"), not an argument of the code."""
+    import re
+
+    import rankwise.stats.exact_ranksum as exact_ranksum
+    from rankwise.stats import compare_two
+
+    monkeypatch.setattr(exact_ranksum, "MAX_TABLE_CELLS", 10)
+    with pytest.raises(ValueError, match="by the normal approximation") as refusal:
+        compare_two([1.0, 2.0, 3.0, 4.0], [2.5, 3.5, 5.0], method="exact")
+    assert not re.search(r"method|=|'normal'", str(refusal.value))

@@ -102,7 +102,7 @@ def test_a_very_large_shift_is_raised_to_the_fewest_parts_that_can_show_signific
     (lambda: plan_group_size(0.0, 1.0), "shift"),
     (lambda: plan_group_size(1.0, 1.0, prob_b_greater=0.7), "not both"),
     (lambda: plan_group_size(prob_b_greater=0.5), "prob_b_greater"),
-    (lambda: plan_group_size(-1.0, 1.0, alternative="b-greater"), "shift must point"),
+    (lambda: plan_group_size(-1.0, 1.0, alternative="b-greater"), r"other way from the chosen direction \(a rise only\)"),
     (lambda: plan_group_size(1.0, 1.0, ratio=0), "ratio"),
     (lambda: plan_group_size(1.0, 1.0, power=1.0), "power"),
     (lambda: plan_paired_size(prob_sum_positive=1.2), "prob_sum_positive"),
@@ -127,3 +127,28 @@ def test_the_window_front_door_answers_the_planning_question():
     result = run(Analysis(question=Question.PLAN, groups=(), settings=Settings(planned_prob_b_greater=0.7, power=0.9)))
     assert (result.n_a, result.n_b) == (44, 44)
     assert abs(result.simulated_power - 0.90) < 4 * math.sqrt(0.9 * 0.1 / PLAN_SIMULATIONS)
+
+
+def test_the_window_front_door_plans_for_the_same_parts_measured_twice():
+    """Settings.plan_paired: run(analysis) gives the signed-rank plan of plan_paired_size with the same
+    settings (n by Noether's signed-rank form, as in the test above), whose assumptions say that the
+    spread is that of the differences."""
+    from rankwise.stats.analysis import Analysis, Question, Settings
+    from rankwise.stats.service import PLAN_SIMULATIONS, run
+
+    settings = Settings(planned_shift=0.3, planned_spread=1.0, power=0.8, ratio=2.0, plan_paired=True)
+    result = run(Analysis(question=Question.PLAN, groups=(), settings=settings))
+    p_pair = stats.norm.cdf(math.sqrt(2) * 0.3)
+    expected = math.ceil((stats.norm.isf(0.025) + stats.norm.ppf(0.8)) ** 2 / (3 * (p_pair - 0.5) ** 2))
+    assert result.paired and result.n_a == result.n_b == expected and result.ratio == 1.0
+    assert result == plan_paired_size(0.3, 1.0, power=0.8, n_sim=PLAN_SIMULATIONS)
+    assert any("standard deviation of the differences" in a for a in result.assumptions)
+
+
+def test_a_paired_plan_refuses_a_two_group_chance_in_plain_words():
+    from rankwise.stats.analysis import Analysis, Question, Settings
+    from rankwise.stats.service import run
+
+    settings = Settings(planned_prob_b_greater=0.7, plan_paired=True)
+    with pytest.raises(ValueError, match="two separate groups only"):
+        run(Analysis(question=Question.PLAN, groups=(), settings=settings))

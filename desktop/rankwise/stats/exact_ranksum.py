@@ -115,8 +115,8 @@ def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Moni
     origin = room_below + pad
     if (n_tracked + 1) * width > MAX_TABLE_CELLS:
         raise ValueError(
-            f"The exact count for these {n_total} readings would need more memory than allowed; "
-            "use the normal approximation (method='normal')."
+            f"The exact p-value for these {n_total} readings would need more memory than this program "
+            "allows; choose to compute the p-value by the normal approximation instead."
         )
     table = np.zeros((n_tracked + 1, width))
     table[0, origin] = 1.0

@@ -20,6 +20,8 @@ p' = Phi(shift sqrt 2 / sigma_d), where sigma_d is the spread of the differences
 from __future__ import annotations
 
 import math
+from collections.abc import Callable
+from dataclasses import dataclass
 
 import numpy as np
 from scipy import stats as _dist
@@ -34,6 +36,9 @@ _SIMULATION_CELLS = 2_000_000
 """Readings simulated at once (rows x parts) in ``simulate_power``: bounds the memory used."""
 
 ALTERNATIVES = ("two-sided", "b-greater", "b-less")
+
+_DIRECTIONS = {"two-sided": "a change either way", "b-greater": "a rise only", "b-less": "a fall only"}
+"""Each direction in the plan's plain words."""
 
 
 def plan_group_size(
@@ -55,51 +60,24 @@ def plan_group_size(
     ``compare_two``; a one-sided plan needs the shift in its direction. With ``n_sim`` > 0 the
     plan is checked by simulating the exact test (``simulate_power``) at the planned sizes.
     """
-    check_choice("alternative", alternative, ALTERNATIVES)
-    check_level("alpha", alpha)
-    check_level("power", power)
+    _check_plan_levels(alternative, alpha, power)
     if not float(ratio) > 0.0 or not math.isfinite(ratio):
         raise ValueError(f"ratio (parts in B per part in A) must be a positive number; got {ratio!r}.")
     p, standardized = _effect("prob_b_greater", shift, spread, prob_b_greater, alternative, math.sqrt(0.5))
     share_a = 1.0 / (1.0 + ratio)
-    z_sum = _z_level(alpha, alternative) + _dist.norm.ppf(power)
-    total = z_sum**2 / (12.0 * share_a * (1.0 - share_a) * (p - 0.5) ** 2)
-    n_a = _ceil(share_a * total)
-    n_b = _ceil((1.0 - share_a) * total)
-    warnings = []
-    if critical_u(n_a, n_b, alpha, alternative) is None:
-        while critical_u(n_a, n_b, alpha, alternative) is None:
-            n_a += 1
-            n_b = max(n_b, _ceil(ratio * n_a))
-        warnings.append(
-            f"The formula asks for fewer parts than any significant result needs at the {alpha:g} "
-            f"level; raised to {n_a} and {n_b}, the fewest for which significance is possible."
-        )
-    if min(n_a, n_b) < 10:
-        warnings.append("Noether's formula is a large-sample approximation; with so few parts, check the plan by simulation.")
-    curve = tuple(
-        PowerPoint(n_a=m, n_b=_ceil(ratio * m), power=_rank_sum_power(m, _ceil(ratio * m), p, alpha, alternative))
-        for m in _curve_sizes(n_a)
-    )
-    simulated = None
-    if n_sim:
-        simulated = simulate_power(n_a, n_b, standardized, 1.0, alpha=alpha, alternative=alternative, n_sim=n_sim, seed=seed)
-    return PlanResult(
-        paired=False,
-        n_a=n_a,
-        n_b=n_b,
-        alpha=float(alpha),
-        power=float(power),
-        ratio=float(ratio),
-        alternative=alternative,
-        shift=None if shift is None else float(shift),
-        spread=None if spread is None else float(spread),
-        prob_b_greater=float(p),
-        method="Noether (1987), Wilcoxon rank-sum test",
-        assumptions=_assumptions(shift is not None, paired=False, alternative=alternative, alpha=alpha),
-        simulated_power=simulated,
-        power_curve=curve,
-        warnings=tuple(warnings),
+    total = _z_sum(alpha, power, alternative) ** 2 / (12.0 * share_a * (1.0 - share_a) * (p - 0.5) ** 2)
+    return _size_plan(
+        _SizeRule(
+            paired=False,
+            partner=lambda m: _ceil(ratio * m),
+            significance_possible=lambda n_a, n_b: critical_u(n_a, n_b, alpha, alternative) is not None,
+            power_at=lambda n_a, n_b: _rank_sum_power(n_a, n_b, p, alpha, alternative),
+            simulate=lambda n_a, n_b: simulate_power(
+                n_a, n_b, standardized, 1.0, alpha=alpha, alternative=alternative, n_sim=n_sim, seed=seed),
+            method="Noether (1987), Wilcoxon rank-sum test",
+        ),
+        (_ceil(share_a * total), _ceil((1.0 - share_a) * total)),
+        alpha=alpha, power=power, ratio=ratio, alternative=alternative, shift=shift, spread=spread, p=p, n_sim=n_sim,
     )
 
 
@@ -121,43 +99,88 @@ def plan_paired_size(
     P(d1 + d2 > 0) for two parts' differences. ``n_a`` = ``n_b`` = parts. With ``n_sim`` > 0 the
     plan is checked by simulating the exact signed-rank test (``simulate_paired_power``).
     """
-    check_choice("alternative", alternative, ALTERNATIVES)
-    check_level("alpha", alpha)
-    check_level("power", power)
+    _check_plan_levels(alternative, alpha, power)
     p, standardized = _effect("prob_sum_positive", shift, spread, prob_sum_positive, alternative, math.sqrt(2.0))
-    z_sum = _z_level(alpha, alternative) + _dist.norm.ppf(power)
-    n = _ceil(z_sum**2 / (3.0 * (p - 0.5) ** 2))
+    n = _ceil(_z_sum(alpha, power, alternative) ** 2 / (3.0 * (p - 0.5) ** 2))
+    return _size_plan(
+        _SizeRule(
+            paired=True,
+            partner=lambda m: m,
+            significance_possible=lambda m, _: critical_t(m, alpha, alternative) is not None,
+            power_at=lambda m, _: _signed_rank_power(m, p, alpha, alternative),
+            simulate=lambda m, _: simulate_paired_power(
+                m, standardized, 1.0, alpha=alpha, alternative=alternative, n_sim=n_sim, seed=seed),
+            method="Noether (1987), Wilcoxon signed-rank test",
+        ),
+        (n, n),
+        alpha=alpha, power=power, ratio=1.0, alternative=alternative, shift=shift, spread=spread, p=p, n_sim=n_sim,
+    )
+
+
+@dataclass(frozen=True)
+class _SizeRule:
+    """What differs between the two plans: the test's sizes, its critical values and its power.
+
+    partner(n_a): the size of B that goes with n_a; significance_possible(n_a, n_b): whether any
+    result can be significant at these sizes; power_at(n_a, n_b): Noether's power; simulate(n_a,
+    n_b): the simulated power of the exact test.
+    """
+
+    paired: bool
+    partner: Callable[[int], int]
+    significance_possible: Callable[[int, int], bool]
+    power_at: Callable[[int, int], float]
+    simulate: Callable[[int, int], float]
+    method: str
+
+
+def _size_plan(rule: _SizeRule, sizes: tuple[int, int], *, alpha, power, ratio, alternative, shift, spread, p,
+               n_sim) -> PlanResult:
+    """The plan from the formula's sizes: raised to the fewest that can show significance, with its curve."""
+    n_a, n_b = sizes
     warnings = []
-    if critical_t(n, alpha, alternative) is None:
-        while critical_t(n, alpha, alternative) is None:
-            n += 1
+    if not rule.significance_possible(n_a, n_b):
+        while not rule.significance_possible(n_a, n_b):
+            n_a += 1
+            n_b = max(n_b, rule.partner(n_a))
+        raised = f"{n_a}" if rule.paired else f"{n_a} and {n_b}"
         warnings.append(
             f"The formula asks for fewer parts than any significant result needs at the {alpha:g} "
-            f"level; raised to {n}, the fewest for which significance is possible."
+            f"level; raised to {raised}, the fewest for which significance is possible."
         )
-    if n < 10:
+    if min(n_a, n_b) < 10:
         warnings.append("Noether's formula is a large-sample approximation; with so few parts, check the plan by simulation.")
-    curve = tuple(PowerPoint(n_a=m, n_b=m, power=_signed_rank_power(m, p, alpha, alternative)) for m in _curve_sizes(n))
-    simulated = None
-    if n_sim:
-        simulated = simulate_paired_power(n, standardized, 1.0, alpha=alpha, alternative=alternative, n_sim=n_sim, seed=seed)
+    curve = tuple(
+        PowerPoint(n_a=m, n_b=rule.partner(m), power=rule.power_at(m, rule.partner(m))) for m in _curve_sizes(n_a)
+    )
     return PlanResult(
-        paired=True,
-        n_a=n,
-        n_b=n,
+        paired=rule.paired,
+        n_a=n_a,
+        n_b=n_b,
         alpha=float(alpha),
         power=float(power),
-        ratio=1.0,
+        ratio=float(ratio),
         alternative=alternative,
         shift=None if shift is None else float(shift),
         spread=None if spread is None else float(spread),
         prob_b_greater=float(p),
-        method="Noether (1987), Wilcoxon signed-rank test",
-        assumptions=_assumptions(shift is not None, paired=True, alternative=alternative, alpha=alpha),
-        simulated_power=simulated,
+        method=rule.method,
+        assumptions=_assumptions(shift is not None, paired=rule.paired, alternative=alternative, alpha=alpha),
+        simulated_power=rule.simulate(n_a, n_b) if n_sim else None,
         power_curve=curve,
         warnings=tuple(warnings),
     )
+
+
+def _check_plan_levels(alternative: str, alpha: float, power: float) -> None:
+    check_choice("alternative", alternative, ALTERNATIVES)
+    check_level("alpha", alpha)
+    check_level("power", power)
+
+
+def _z_sum(alpha: float, power: float, alternative: str) -> float:
+    """z of the significance level plus z of the power, as in both of Noether's formulas."""
+    return _z_level(alpha, alternative) + float(_dist.norm.ppf(power))
 
 
 def simulate_power(
@@ -266,7 +289,8 @@ def _effect(name, shift, spread, probability, alternative, scale) -> tuple[float
         p = float(_dist.norm.cdf(standardized * scale))
     if (alternative == "b-greater" and p < 0.5) or (alternative == "b-less" and p > 0.5):
         raise ValueError(
-            f"shift must point the way of alternative={alternative!r}: a one-sided plan detects a change in that direction only."
+            f"The change worth detecting points the other way from the chosen direction ({_DIRECTIONS[alternative]}); "
+            "a one-sided plan detects a change in its own direction only."
         )
     return p, standardized
 
@@ -316,7 +340,7 @@ def _positive_int(name: str, value) -> int:
 
 def _assumptions(from_shift: bool, *, paired: bool, alternative: str, alpha: float) -> tuple[str, ...]:
     """What the plan rests on, in plain words."""
-    direction = {"two-sided": "a change either way", "b-greater": "a rise only", "b-less": "a fall only"}[alternative]
+    direction = _DIRECTIONS[alternative]
     notes = [
         f"The test will be the {'signed-rank test on the same parts' if paired else 'rank-sum test on two separate groups'} "
         f"at the {alpha:g} significance level, looking for {direction}.",

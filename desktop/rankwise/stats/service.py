@@ -12,7 +12,7 @@ import numpy as np
 
 from rankwise.stats.analysis import Analysis, GroupReadings, Question
 from rankwise.stats.paired import compare_paired
-from rankwise.stats.planning import plan_group_size
+from rankwise.stats.planning import plan_group_size, plan_paired_size
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.results import Result
 from rankwise.stats.several import compare_several
@@ -40,48 +40,43 @@ def _values(group: GroupReadings) -> np.ndarray:
     return np.asarray(group.values, dtype=float)
 
 
+def _two_columns(analysis: Analysis, needs: str) -> tuple[GroupReadings, GroupReadings]:
+    """The analysis's two groups, A then B; ``ValueError`` saying what the question ``needs`` otherwise."""
+    if len(analysis.groups) != 2:
+        raise ValueError(f"{needs}; got {len(analysis.groups)}.")
+    return analysis.groups[0], analysis.groups[1]
+
+
+def _shared_settings(first: GroupReadings, second: GroupReadings, analysis: Analysis, monitor: Monitor) -> dict:
+    """The arguments that the two-group and the paired comparison take alike."""
+    settings = analysis.settings
+    return {
+        "alternative": settings.alternative,
+        "alpha": settings.alpha,
+        "confidence": settings.confidence,
+        "method": settings.method,
+        "margin": settings.margin,
+        "name_a": first.name,
+        "name_b": second.name,
+        "monitor": monitor,
+    }
+
+
 def _two_groups(analysis: Analysis, monitor: Monitor) -> Result:
     """Mann-Whitney U comparison: groups[0] is A (reference), groups[1] is B."""
-    if len(analysis.groups) != 2:
-        raise ValueError(
-            f"Comparing two groups needs exactly two groups of readings (A and B); got {len(analysis.groups)}."
-        )
-    group_a, group_b = analysis.groups
-    settings = analysis.settings
-    return compare_two(
-        _values(group_a),
-        _values(group_b),
-        alternative=settings.alternative,
-        alpha=settings.alpha,
-        confidence=settings.confidence,
-        method=settings.method,
-        margin=settings.margin,
-        name_a=group_a.name,
-        name_b=group_b.name,
-        monitor=monitor,
-    )
+    group_a, group_b = _two_columns(analysis, "Comparing two groups needs exactly two groups of readings (A and B)")
+    return compare_two(_values(group_a), _values(group_b), **_shared_settings(group_a, group_b, analysis, monitor))
 
 
 def _paired(analysis: Analysis, monitor: Monitor) -> Result:
     """Signed-rank comparison of the same parts: groups[0] is the first reading, groups[1] the second."""
-    if len(analysis.groups) != 2:
-        raise ValueError(
-            f"Same parts measured twice needs exactly two columns (first and second reading); got {len(analysis.groups)}."
-        )
-    first, second = analysis.groups
-    settings = analysis.settings
+    first, second = _two_columns(
+        analysis, "Same parts measured twice needs exactly two columns (first and second reading)")
     return compare_paired(
         _values(first),
         _values(second),
-        alternative=settings.alternative,
-        alpha=settings.alpha,
-        method=settings.method,
-        zero_method=settings.zero_method,
-        confidence=settings.confidence,
-        margin=settings.margin,
-        name_a=first.name,
-        name_b=second.name,
-        monitor=monitor,
+        zero_method=analysis.settings.zero_method,
+        **_shared_settings(first, second, analysis, monitor),
     )
 
 
@@ -102,18 +97,29 @@ def _several(analysis: Analysis, monitor: Monitor) -> Result:
 
 
 def _plan(analysis: Analysis, monitor: Monitor) -> Result:
-    """Parts per group for the rank-sum test (Noether), checked by simulation."""
+    """Parts to measure (Noether), checked by simulation: two separate groups, or the same parts twice.
+
+    For the same parts measured twice (``plan_paired``) the planned spread is that of the
+    differences, as the plan's assumptions say; a chance that B reads higher than A is a
+    two-group quantity and is refused there in plain words.
+    """
     settings = analysis.settings
     monitor.step(0.0)
+    shared = {"alpha": settings.alpha, "power": settings.power, "alternative": settings.alternative,
+              "n_sim": PLAN_SIMULATIONS}
+    if settings.plan_paired:
+        if settings.planned_prob_b_greater is not None:
+            raise ValueError(
+                "A plan for the same parts measured twice needs the change worth detecting and the spread "
+                "of the differences; a chance that one group reads higher applies to two separate groups only."
+            )
+        return plan_paired_size(settings.planned_shift, settings.planned_spread, **shared)
     return plan_group_size(
         settings.planned_shift,
         settings.planned_spread,
         prob_b_greater=settings.planned_prob_b_greater,
-        alpha=settings.alpha,
-        power=settings.power,
         ratio=settings.ratio,
-        alternative=settings.alternative,
-        n_sim=PLAN_SIMULATIONS,
+        **shared,
     )
 
 
