@@ -7,8 +7,9 @@ Every public name loads its module on first use (PEP 562), so importing a light 
 
 from __future__ import annotations
 
-import importlib
-from typing import TYPE_CHECKING, Any
+from typing import TYPE_CHECKING
+
+from rankwise.stats.public_names import load_on_first_use
 
 _MODULE_OF = {
     "ALTERNATIVES": "analysis",
@@ -54,18 +55,7 @@ _MODULE_OF = {
 __all__ = sorted(_MODULE_OF)
 
 
-def __getattr__(name: str) -> Any:
-    """Load the module that defines ``name`` on first use and keep the name here."""
-    module_name = _MODULE_OF.get(name)
-    if module_name is None:
-        raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
-    value = getattr(importlib.import_module(f"{__name__}.{module_name}"), name)
-    globals()[name] = value
-    return value
-
-
-def __dir__() -> list[str]:
-    return sorted(set(globals()) | set(__all__))
+__getattr__, __dir__ = load_on_first_use(__name__, _MODULE_OF, globals())
 
 
 if TYPE_CHECKING:
