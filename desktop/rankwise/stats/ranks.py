@@ -76,14 +76,15 @@ def _rank_by_sorting(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.ndarr
     order = np.argsort(values, kind="quicksort")
     ordered = values[order]
     boundaries = np.flatnonzero(ordered[1:] != ordered[:-1]) + 1
-    starts = np.concatenate(([0], boundaries))
-    ends = np.concatenate((boundaries, [values.size]))
     ranks = np.empty(values.size, dtype=float)
-    ranks[order] = np.repeat((starts + 1 + ends) / 2.0, ends - starts)
-    tied = ends - starts > 1
-    if not tied.any():
+    if boundaries.size == values.size - 1:  # no ties: the ranks are the sorted positions
+        ranks[order] = np.arange(1.0, values.size + 1.0)
         empty = np.zeros(0, dtype=np.intp)
         return ranks, _Ties(empty, empty, empty, np.zeros((0, len(sizes)), dtype=np.intp))
+    starts = np.concatenate(([0], boundaries))
+    ends = np.concatenate((boundaries, [values.size]))
+    ranks[order] = np.repeat((starts + 1 + ends) / 2.0, ends - starts)
+    tied = ends - starts > 1
     group_of = np.searchsorted(np.cumsum(sizes), order, side="right")
     by_group = np.stack([np.add.reduceat(group_of == g, starts)[tied] for g in range(len(sizes))], axis=1)
     first_entries = np.minimum.reduceat(order, starts)[tied]

@@ -330,7 +330,7 @@ def _warnings(name_a, name_b, n_a, n_b, dropped_a, dropped_b, values_a, values_b
     for name, dropped in ((name_a, dropped_a), (name_b, dropped_b)):
         if dropped:
             notes.append(f"{dropped} blank {'entry' if dropped == 1 else 'entries'} in {name} {'was' if dropped == 1 else 'were'} skipped.")
-    if np.ptp(np.concatenate([values_a, values_b])) == 0:
+    if max(values_a.max(), values_b.max()) == min(values_a.min(), values_b.min()):
         notes.append(f"All readings of {name_a} and {name_b} are the same value; the ranks cannot show any difference.")
     for name, n in ((name_a, n_a), (name_b, n_b)):
         if n < FEW_READINGS:
