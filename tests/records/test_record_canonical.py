@@ -65,3 +65,10 @@ def test_damaged_stored_data_raise_a_plain_record_error():
         record_from_data(data)
     with pytest.raises(RecordError, match="does not know"):
         record_from_data({"record_format": 99})
+
+
+def test_a_result_of_a_type_no_program_knows_is_refused_as_damaged():
+    data = record_to_data(paired_record())
+    data["result"]["type"] = "SomeOtherResult"
+    with pytest.raises(RecordError, match="damaged"):
+        record_from_data(data)

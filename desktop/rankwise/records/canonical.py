@@ -16,6 +16,7 @@ import json
 import math
 import types
 import typing
+from collections.abc import Callable
 from datetime import datetime
 from typing import Any
 
@@ -37,18 +38,10 @@ def sha256_hex(data: Any) -> str:
 
 def encode(value: Any, hint: Any) -> Any:
     """``value`` as plain JSON data, following the type annotation ``hint``."""
-    origin = typing.get_origin(hint)
-    if origin in (typing.Union, types.UnionType):
-        if value is None:
-            return None
-        arms = [arm for arm in typing.get_args(hint) if arm is not type(None)]
-        if len(arms) == 1:
-            return encode(value, arms[0])
-        for arm in arms:
-            if dataclasses.is_dataclass(arm) and isinstance(value, arm):
-                return {"type": arm.__name__, "fields": encode(value, arm)}
-        raise ValueError(f"value of type {type(value).__name__} fits none of {hint}")
-    if origin is tuple:
+    arms = _union_arms(hint)
+    if arms is not None:
+        return _through_union(value, arms, encode, _tagged)
+    if typing.get_origin(hint) is tuple:
         return [encode(item, item_hint) for item, item_hint in zip(value, _item_hints(hint, len(value)))]
     if dataclasses.is_dataclass(hint):
         hints = typing.get_type_hints(hint)
@@ -83,16 +76,10 @@ def decode(data: Any, hint: Any) -> Any:
 
 
 def _decode(data: Any, hint: Any) -> Any:
-    origin = typing.get_origin(hint)
-    if origin in (typing.Union, types.UnionType):
-        if data is None:
-            return None
-        arms = [arm for arm in typing.get_args(hint) if arm is not type(None)]
-        if len(arms) == 1:
-            return _decode(data, arms[0])
-        chosen = next(arm for arm in arms if dataclasses.is_dataclass(arm) and arm.__name__ == data["type"])
-        return _decode(data["fields"], chosen)
-    if origin is tuple:
+    arms = _union_arms(hint)
+    if arms is not None:
+        return _through_union(data, arms, _decode, _untagged)
+    if typing.get_origin(hint) is tuple:
         _require(data, list)
         return tuple(_decode(item, item_hint) for item, item_hint in zip(data, _item_hints(hint, len(data))))
     if dataclasses.is_dataclass(hint):
@@ -121,6 +108,40 @@ def _decode(data: Any, hint: Any) -> Any:
     if hint is datetime:
         return datetime.fromisoformat(_require(data, str))
     raise ValueError(f"no canonical form for {hint!r}")
+
+
+def _union_arms(hint: Any) -> list[Any] | None:
+    """The types an optional or union annotation allows, None left out; None when ``hint`` is no union."""
+    if typing.get_origin(hint) not in (typing.Union, types.UnionType):
+        return None
+    return [arm for arm in typing.get_args(hint) if arm is not type(None)]
+
+
+def _through_union(item: Any, arms: list[Any], convert: Callable[[Any, Any], Any],
+                   convert_variant: Callable[[Any, list[Any]], Any]) -> Any:
+    """One step of ``encode`` or ``_decode`` through a union: None stays None, an optional value is
+    converted as its one type, a choice of result types goes through ``convert_variant``."""
+    if item is None:
+        return None
+    if len(arms) == 1:
+        return convert(item, arms[0])
+    return convert_variant(item, arms)
+
+
+def _tagged(value: Any, arms: list[Any]) -> dict[str, Any]:
+    """A value of one of several dataclasses, with the name of its type beside its fields."""
+    for arm in arms:
+        if dataclasses.is_dataclass(arm) and isinstance(value, arm):
+            return {"type": arm.__name__, "fields": encode(value, arm)}
+    raise ValueError(f"value of type {type(value).__name__} fits none of {arms}")
+
+
+def _untagged(data: Any, arms: list[Any]) -> Any:
+    """The dataclass that ``_tagged`` wrote, found by its type name."""
+    chosen = next((arm for arm in arms if dataclasses.is_dataclass(arm) and arm.__name__ == data["type"]), None)
+    if chosen is None:
+        raise ValueError(f"no result type is named {data['type']!r}")
+    return _decode(data["fields"], chosen)
 
 
 def _item_hints(hint: Any, length: int) -> list[Any]:
