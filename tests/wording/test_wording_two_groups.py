@@ -28,9 +28,9 @@ def test_significant_shift_is_worded_with_names_units_and_interval():
     """Hollander & Wolfe (1999) Example 4.2: exact two-sided p = 0.00186; shift 410, 95 % CI [168, 690]."""
     result, analysis, verdict = compared(TREATED, CONTROL, ("Old press", "New press"), 0, "N")
     assert verdict.headline == "New press reads higher than Old press."
-    assert verdict.sentences[0] == ("New press reads higher than Old press: the shift is +410 N "
-                                    "(95 % confidence interval 168 to 690 N, New press minus Old press).")
-    assert "p = 0.00186" in verdict.sentences[1]
+    assert verdict.sentences[0] == ("The shift, New press minus Old press, is +410 N "
+                                    "(95 % confidence interval 168 to 690 N).")
+    assert verdict.sentences[1] == "The difference is significant at the 5 % level (p = 0.00186, two-sided)."
     assert "exact p-value (permutation distribution given the ties)" in verdict.method_note
     assert "twice the smaller one-sided p-value" in verdict.method_note
     assert verdict.caution == CAUTION_SHORT
@@ -44,8 +44,9 @@ def test_no_difference_shown_never_claims_sameness():
     """Hollander & Wolfe (1999) Example 4.1: exact two-sided p = 0.2544; shift -0.305, CI (-0.76, 0.15)."""
     _, _, verdict = compared(TERM, WEEKS, ("Term", "Weeks"), 2)
     assert verdict.headline == "No difference between Term and Weeks was shown."
-    assert "p = 0.254" in verdict.sentences[0]
-    assert verdict.sentences[1] == ("The estimated shift of Weeks against Term is -0.305 "
+    assert verdict.sentences[0] == ("No difference between Term and Weeks was shown at the 5 % level "
+                                    "(p = 0.254, two-sided).")
+    assert verdict.sentences[1] == ("The estimated shift, Weeks minus Term, is -0.305 "
                                     "(95 % confidence interval -0.76 to 0.15).")
     assert verdict.sentences[2] == ("This does not show that the groups are the same; to show that, "
                                     "set an equivalence margin.")
@@ -75,7 +76,7 @@ def test_unequal_shapes_speak_of_tendency_and_point_to_brunner_munzel():
     assert result.shape is not None and result.shape.differ
     assert verdict.headline == "Treated tends to read lower than Control."
     assert "Brunner-Munzel" in verdict.sentences[1]
-    assert "p = 0.0186" in verdict.sentences[2]
+    assert verdict.sentences[2] == "The difference is significant at the 5 % level (p = 0.0186, one-sided)."
     assert "median" not in verdict.headline
 
 

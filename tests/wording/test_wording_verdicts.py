@@ -148,3 +148,69 @@ def test_plan_wording_states_the_parts_per_group():
     assert {n.key: n.text for n in key_numbers(result, analysis)}["n_a"] == "44"
     lower_power = dataclasses.replace(analysis, settings=dataclasses.replace(analysis.settings, power=0.8))
     assert describe_question(lower_power).endswith("with an 80 % chance at the 5 % significance level?")
+
+
+OUTCOME = re.compile(r" at the 5 % level \(p (= [0-9.,]+|< 0[.,]0001), (two|one)-sided\)\.$")
+
+
+def test_the_test_outcome_is_one_short_sentence_read_aloud():
+    """Hollander & Wolfe (1999) p. 39 paired example (p = 0.0391, two-sided)."""
+    result = compare_paired(HW_FIRST, HW_SECOND, name_a="Before cure", name_b="After cure")
+    verdict = describe(result, paired_analysis(HW_FIRST, HW_SECOND))
+    assert verdict.sentences[0] == ("The typical change per part, After cure minus Before cure, is -0.460 µm "
+                                    "(95 % confidence interval -0.786 to -0.010 µm).")
+    assert verdict.sentences[1] == "The change is significant at the 5 % level (p = 0.0391, two-sided)."
+    one_sided = compare_paired(HW_FIRST, HW_SECOND, name_a="Before cure", name_b="After cure",
+                               alternative="b-greater")
+    worded = describe(one_sided, paired_analysis(HW_FIRST, HW_SECOND, alternative="b-greater"))
+    assert worded.headline == "It was not shown that After cure reads higher than Before cure on the same parts."
+    assert OUTCOME.search(worded.sentences[0]) and "one-sided" in worded.sentences[0]
+    assert "does not show that the readings are the same" in " ".join(worded.sentences)
+
+
+def test_equivalence_sentence_names_the_margin_and_the_interval():
+    analysis = paired_analysis(HW_FIRST, HW_SECOND, margin=0.05)
+    result = compare_paired(HW_FIRST, HW_SECOND, name_a="Before cure", name_b="After cure", margin=0.05)
+    sentence = describe(result, analysis).sentences[-1]
+    assert sentence.startswith("The change per part's ")
+    assert "confidence interval" in sentence and "reaches ± 0.050 µm or beyond" in sentence
+
+
+def test_several_groups_outcome_reads_as_one_sentence():
+    """Hollander & Wolfe (1973) p. 116: H = 0.77143, p = 0.68, not significant."""
+    result = compare_several(HW_THREE)
+    verdict = describe(result, several_analysis(HW_THREE))
+    assert verdict.sentences[0].startswith("No difference among the 3 groups was shown at the 5 % level (")
+
+
+def test_with_a_decimal_comma_every_number_in_the_verdict_and_key_numbers_uses_it():
+    """The technician typed commas; names keep what was typed (here a point in "Die 1.5")."""
+    first, second = HW_FIRST, HW_SECOND
+    analysis = dataclasses.replace(paired_analysis(first, second, names=("Die 1.5", "Die 2.0")), decimal_mark=",")
+    result = compare_paired(first, second, name_a="Die 1.5", name_b="Die 2.0")
+    verdict = describe(result, analysis)
+    text = all_text(verdict).replace("Die 1.5", "").replace("Die 2.0", "")
+    assert "-0,460 µm" in verdict.sentences[0] and "p = 0,0391" in verdict.sentences[1]
+    assert not re.search(r"\d\.\d", text)
+    assert "Die 1.5" in verdict.sentences[0]
+    shown = {n.key: n.text for n in key_numbers(result, analysis)}
+    assert shown["shift"] == "-0,460 µm" and shown["p_value"] == "0,0391"
+    assert not any(re.search(r"\d\.\d", n.text) for n in key_numbers(result, analysis))
+
+
+def test_a_plan_for_the_same_parts_measured_twice_speaks_of_the_spread_of_the_differences():
+    """Noether (1987) signed-rank plan, as computed by rankwise.stats.planning.plan_paired_size."""
+    from rankwise.stats.planning import plan_paired_size
+
+    result = plan_paired_size(0.03, 0.04, alpha=0.05, power=0.8, n_sim=50)
+    groups = (GroupReadings("Before cure", (), unit="µm", decimals=2),
+              GroupReadings("After cure", (), unit="µm", decimals=2))
+    analysis = Analysis(Question.PLAN, groups, Settings(planned_shift=0.03, planned_spread=0.04, plan_paired=True))
+    verdict = describe(result, analysis)
+    assert verdict.headline == f"Measure at least {result.n_a} parts, each part twice."
+    assert "(After cure minus Before cure) is typically 0.03 µm" in verdict.sentences[0]
+    assert "changes scatter from part to part with a standard deviation of 0.04 µm" in verdict.sentences[0]
+    numbers = {n.key: n for n in key_numbers(result, analysis)}
+    assert numbers["spread"].label == "Spread of the differences (standard deviation)"
+    assert numbers["shift"].label == "Change per part worth detecting"
+    assert "n_b" not in numbers

@@ -282,11 +282,16 @@ def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
                   "The chance that the test gives a significant result if the change is as large as stated.",
                   r.power)
     if r.shift is not None:
-        yield _number("shift", "Shift worth detecting", f.setting(r.shift),
-                      "The smallest change that matters for this characteristic.", r.shift)
+        yield _number("shift", "Change per part worth detecting" if r.paired else "Shift worth detecting",
+                      f.setting(r.shift), "The smallest change that matters for this characteristic.", r.shift)
     if r.spread is not None:
-        yield _number("spread", "Spread (standard deviation)", f.setting(r.spread),
-                      "The usual scatter of single readings.", r.spread)
+        if r.paired:
+            yield _number("spread", "Spread of the differences (standard deviation)", f.setting(r.spread),
+                          "How much the change from the first to the second reading scatters from part to part.",
+                          r.spread)
+        else:
+            yield _number("spread", "Spread (standard deviation)", f.setting(r.spread),
+                          "The usual scatter of single readings.", r.spread)
     if r.paired:
         yield _number("prob_b_greater", "Chance of a rise to detect", format_percent(r.prob_b_greater),
                       "The chance that the changes of two parts, added together, come out above zero, "

@@ -7,14 +7,15 @@ from rankwise.stats.results import PairedResult
 from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
-    alternative_words,
+    equivalence_words,
     higher_or_lower,
     interval_phrase,
     level_phrase,
+    outcome_sentence,
     p_method,
-    p_phrase,
     signed_reading,
     smallest_sign_test_size,
+    with_warnings,
 )
 from rankwise.wording.questions import decimals_of, margin_text, unit_of
 from rankwise.wording.verdict_types import Verdict
@@ -42,25 +43,25 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
 
     change = ""
     if result.shift is not None and result.shift_ci is not None:
-        change = (f"the typical change per part is {signed_reading(result.shift, decimals, unit)} "
-                  f"({b} minus {a}, pseudo-median; {interval_phrase(result.shift_ci, decimals, unit)})")
-    tested = alternative_words(result.alternative, a, b)
+        change = (f"The typical change per part, {b} minus {a}, is {signed_reading(result.shift, decimals, unit)} "
+                  f"({interval_phrase(result.shift_ci, decimals, unit)}).")
+    outcome = outcome_sentence("The change is significant" if result.significant else _not_shown_headline(result)[:-1],
+                               result.p_value, result.alpha, result.alternative)
     if result.significant:
         headline = f"{b} reads {higher_or_lower(b_higher)} than {a} on the same parts."
-        sentences.append(f"{headline[:-1]}" + (f": {change}." if change else "."))
-        sentences.append(f"The change is significant at {level_phrase(result.alpha)} "
-                         f"({p_phrase(result.p_value, result.alpha)}; {tested}).")
+        sentences.extend((change or headline, outcome))
     else:
         headline = _not_shown_headline(result)
-        sentences.append(f"{headline[:-1]} at {level_phrase(result.alpha)} "
-                         f"({p_phrase(result.p_value, result.alpha)}; {tested}).")
+        sentences.append(outcome)
         if change:
-            sentences.append(change[0].upper() + change[1:] + ".")
+            sentences.append(change)
         if result.margin is None:
             sentences.append(NOT_SAMENESS.replace("the groups are", "the readings are"))
 
     if result.margin is not None:
-        headline, sentence = _equivalence(result, analysis, unit)
+        headline, sentence = equivalence_words(
+            (a, b), margin_text(analysis, result.margin), result.equivalence_ci, result.equivalent,
+            "change per part", decimals, unit, result.alpha)
         sentences.append(sentence)
     if impossible:
         headline = f"No result could reach {level_phrase(result.alpha)} with {result.n} changed parts."
@@ -94,24 +95,6 @@ def _not_shown_headline(result: PairedResult) -> str:
     return f"No change between {a} and {b} on the same parts was shown."
 
 
-def _equivalence(result: PairedResult, analysis: Analysis, unit: str) -> tuple[str, str]:
-    """Headline and sentence for "the same within ± margin?" on the change per part."""
-    margin = margin_text(analysis, result.margin)
-    interval = result.equivalence_ci
-    decimals = decimals_of(analysis)
-    if result.equivalent is None or interval is None:
-        text = f"Equivalence within {margin} could not be judged: no interval for the change was computed."
-        return f"Equivalence within {margin} could not be judged.", text
-    shown = interval_phrase(interval, decimals, unit)
-    if result.equivalent:
-        return (f"{result.name_b} and {result.name_a} are equivalent within {margin}.",
-                f"The change per part is within {margin}: its {shown} lies inside the margin "
-                f"(two one-sided tests, each at {level_phrase(result.alpha)}).")
-    return (f"Equivalence of {result.name_b} and {result.name_a} within {margin} was not shown.",
-            f"Equivalence within {margin} was not shown: the change's {shown} reaches the margin "
-            f"or beyond (two one-sided tests, each at {level_phrase(result.alpha)}).")
-
-
 def _method_note(result: PairedResult) -> str:
     """Which test, how zeros were treated, and how the p-value and the change were found."""
     zeros = ("parts with no change left out before ranking" if result.zero_method == "wilcox"
@@ -137,6 +120,4 @@ def _assumption_notes(result: PairedResult, analysis: Analysis) -> tuple[str, ..
         notes.append(f"{result.n_zero} of {result.n_pairs} parts read the same both times; they were {kept}.")
     if result.n_dropped:
         notes.append(f"{result.n_dropped} incomplete pairs (a reading missing on one side) were left out.")
-    notes.extend(w for w in result.warnings if w not in notes)
-    notes.extend(n for n in analysis.notes if n not in notes)
-    return tuple(notes)
+    return with_warnings(notes, result.warnings, analysis.notes)

@@ -38,6 +38,41 @@ def alternative_words(alternative: str, name_a: str, name_b: str) -> str:
     return f"two-sided: does {name_b} read differently from {name_a}?"
 
 
+def sides(alternative: str) -> str:
+    """ "two-sided" or "one-sided"."""
+    return "two-sided" if alternative == "two-sided" else "one-sided"
+
+
+def outcome_sentence(lead: str, p: float, alpha: float, alternative: str) -> str:
+    """ "<lead> at the 5 % level (p = 0.0019, two-sided)." : the outcome of a test, read aloud."""
+    return f"{lead} at {level_phrase(alpha)} ({p_phrase(p, alpha)}, {sides(alternative)})."
+
+
+def equivalence_words(names: tuple[str, str], margin: str, interval: ConfidenceInterval | None,
+                      equivalent: bool | None, what: str, decimals: int | None, unit: str,
+                      alpha: float) -> tuple[str, str]:
+    """Headline and sentence for "the same within ± margin?", judged on ``what`` ("shift" or
+    "change per part") by two one-sided tests; ``names`` are (A, B)."""
+    a, b = names
+    if equivalent is None or interval is None:
+        return (f"Equivalence within {margin} could not be judged.",
+                f"No interval for the {what} was computed, so equivalence within {margin} could not be judged.")
+    shown = interval_phrase(interval, decimals, unit)
+    tests = f"(two one-sided tests, each at {level_phrase(alpha)})"
+    if equivalent:
+        return (f"{b} and {a} are equivalent within {margin}.",
+                f"The {what}'s {shown} lies inside {margin} {tests}.")
+    return (f"Equivalence of {b} and {a} within {margin} was not shown.",
+            f"The {what}'s {shown} reaches {margin} or beyond {tests}.")
+
+
+def with_warnings(notes: list[str], *more: tuple[str, ...]) -> tuple[str, ...]:
+    """``notes`` followed by each further note (warnings, the readings' notes) not already said."""
+    for group in more:
+        notes.extend(note for note in group if note not in notes)
+    return tuple(notes)
+
+
 def level_phrase(alpha: float) -> str:
     """ "the 5 % level"."""
     return f"the {format_level(alpha)} level"

@@ -6,7 +6,7 @@ from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PlanResult
 from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.numbers import format_level, format_percent, format_setting
-from rankwise.wording.phrases import a_or_an
+from rankwise.wording.phrases import a_or_an, sides, with_warnings
 from rankwise.wording.questions import decimals_of, group_names, unit_of, with_unit
 from rankwise.wording.verdict_types import Verdict
 
@@ -26,25 +26,25 @@ def describe_plan(result: PlanResult, analysis: Analysis) -> Verdict:
         headline = f"Measure at least {result.n_a} parts, each part twice."
     else:
         headline = f"Measure at least {result.n_a} parts of {a} and {result.n_b} parts of {b}."
-    sides = "two-sided" if result.alternative == "two-sided" else "one-sided"
+    power = format_level(result.power)
     sentences = [
-        f"This gives {a_or_an(format_level(result.power))} {format_level(result.power)} chance of a significant result at the "
-        f"{format_level(result.alpha)} level ({sides}) if {_target(result, analysis, a, b)}.",
+        f"This gives {a_or_an(power)} {power} chance of a significant result at the "
+        f"{format_level(result.alpha)} level ({sides(result.alternative)}) if {_target(result, analysis, a, b)}.",
     ]
+    if result.shift is not None and result.spread is not None and not result.paired:
+        sentences.append(f"A part of {b} would then read higher than a part of {a} in "
+                         f"{format_percent(result.prob_b_greater)} of pairs.")
     if result.simulated_power is not None:
         sentences.append(
             f"A simulation of the exact test at these sizes found "
             f"{a_or_an(format_percent(result.simulated_power))} {format_percent(result.simulated_power)} "
             f"chance of detecting it."
         )
-    notes = list(result.assumptions)
-    notes.extend(w for w in result.warnings if w not in notes)
-    notes.extend(n for n in analysis.notes if n not in notes)
     return Verdict(
         headline=headline,
         sentences=tuple(sentences),
         method_note=f"Parts needed from {result.method}, rounded up to whole parts.",
-        assumption_notes=tuple(notes),
+        assumption_notes=with_warnings(list(result.assumptions), result.warnings, analysis.notes),
         caution=CAUTION_SHORT,
     )
 
@@ -58,10 +58,10 @@ def _target(result: PlanResult, analysis: Analysis, a: str, b: str) -> str:
         shift = with_unit(format_setting(result.shift, decimals), unit)
         spread = with_unit(format_setting(result.spread, decimals), unit)
         if result.paired:
-            return (f"the change per part is {shift} with a spread (standard deviation) of "
-                    f"{spread}")
-        return (f"{b} is shifted by {shift} against {a} with a spread (standard deviation) of "
-                f"{spread}, so that a part of {b} reads higher than a part of {a} in {share} of pairs")
+            return (f"the change per part ({b} minus {a}) is typically {shift} and the changes scatter "
+                    f"from part to part with a standard deviation of {spread}")
+        return (f"{b} differs from {a} by {shift} and single readings scatter with a standard "
+                f"deviation of {spread}")
     if result.paired:
-        return f"a part's change is positive with a chance of {share}"
+        return f"two parts' changes add up to more than zero with a chance of {share}"
     return f"a part of {b} reads higher than a part of {a} in {share} of pairs"

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis, Question
 from rankwise.wording.numbers import format_level, format_setting, write_numbers
+from rankwise.wording.phrases import a_or_an
 
 QUESTION_TITLES: dict[Question, str] = {
     Question.TWO_GROUPS: "Did the change move the readings? (two separate groups of parts)",
@@ -95,9 +96,10 @@ def _plan_question(analysis: Analysis) -> str:
         target = (f"a change that makes a part of the second group read higher than a part of "
                   f"the first in {format_level(settings.planned_prob_b_greater)} of pairs")
     elif settings.planned_shift is not None:
-        target = f"a shift of {with_unit(format_setting(settings.planned_shift, decimals), unit)}"
+        what = "a change per part" if settings.plan_paired else "a shift"
+        target = f"{what} of {with_unit(format_setting(settings.planned_shift, decimals), unit)}"
     else:
         target = "the shift worth detecting"
-    article = "an" if power.startswith("8") or power.startswith(("11 ", "18 ")) else "a"
-    return (f"How many parts per group are needed to detect {target} with {article} {power} chance "
+    parts = "parts, each measured twice," if settings.plan_paired else "parts per group"
+    return (f"How many {parts} are needed to detect {target} with {a_or_an(power)} {power} chance "
             f"at the {format_level(settings.alpha)} significance level?")

@@ -6,7 +6,7 @@ from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairComparison, SeveralGroupsResult
 from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.numbers import format_plain
-from rankwise.wording.phrases import level_phrase, p_phrase
+from rankwise.wording.phrases import level_phrase, p_phrase, with_warnings
 from rankwise.wording.verdict_types import Verdict
 
 SHAPE_NOTE = ("The Kruskal-Wallis test compares the groups' average ranks: it speaks of medians "
@@ -23,7 +23,7 @@ def describe_several(result: SeveralGroupsResult, analysis: Analysis) -> Verdict
     sentences: list[str] = []
     if result.significant:
         headline = f"The {k} groups do not all read alike."
-        sentences.append(f"{headline[:-1]}: {test}, below {level_phrase(result.alpha)}.")
+        sentences.append(f"{headline[:-1]} at {level_phrase(result.alpha)} ({test}).")
         differing = [pair for pair in result.pairs if pair.significant]
         if differing:
             sentences.extend(_pair_sentence(pair, result.alpha) for pair in differing)
@@ -71,6 +71,4 @@ def _assumption_notes(result: SeveralGroupsResult, analysis: Analysis) -> tuple[
     if result.mood_median is not None:
         notes.append(f"Mood's median test (counts above the overall median; not Mood's test of "
                      f"spread) gives {p_phrase(result.mood_median.p_value, result.alpha)}.")
-    notes.extend(w for w in result.warnings if w not in notes)
-    notes.extend(n for n in analysis.notes if n not in notes)
-    return tuple(notes)
+    return with_warnings(notes, result.warnings, analysis.notes)

@@ -8,14 +8,16 @@ from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.numbers import format_centre, format_level, format_percent
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
-    alternative_words,
+    equivalence_words,
     higher_or_lower,
     interval_phrase,
     level_phrase,
+    method_and_p,
+    outcome_sentence,
     p_method,
     p_phrase,
-    method_and_p,
     signed_reading,
+    with_warnings,
 )
 from rankwise.wording.questions import decimals_of, margin_text, unit_of, with_unit
 from rankwise.wording.verdict_types import Verdict
@@ -27,7 +29,7 @@ INDEPENDENCE_NOTE = ("Each reading must come from a different part, and the two 
 def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
     """Headline, sentences, method note and assumption notes for a two-group result."""
     a, b = result.name_a, result.name_b
-    shift_decimals = _shift_decimals(analysis)
+    shift_decimals = decimals_of(analysis)
     unit = unit_of(analysis)
     stochastic = result.shape is not None and result.shape.differ
     b_higher = _b_reads_higher(result)
@@ -42,19 +44,14 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
         sentences.append(_significant_sentence(result, stochastic, b_higher, shift_decimals, unit))
         if stochastic:
             sentences.append(_stochastic_sentence(result))
-        sentences.append(
-            f"The difference is significant at {level_phrase(result.alpha)} "
-            f"({p_phrase(result.p_value, result.alpha)}; {alternative_words(result.alternative, a, b)})."
-        )
+        sentences.append(outcome_sentence("The difference is significant", result.p_value, result.alpha,
+                                          result.alternative))
     else:
         headline = _not_shown_headline(result)
-        sentences.append(
-            f"{headline[:-1]} at {level_phrase(result.alpha)} "
-            f"({p_phrase(result.p_value, result.alpha)}; {alternative_words(result.alternative, a, b)})."
-        )
+        sentences.append(outcome_sentence(headline[:-1], result.p_value, result.alpha, result.alternative))
         if result.shift is not None and result.shift_ci is not None:
             sentences.append(
-                f"The estimated shift of {b} against {a} is "
+                f"The estimated shift, {b} minus {a}, is "
                 f"{with_unit(format_centre(result.shift, shift_decimals), unit)} "
                 f"({interval_phrase(result.shift_ci, shift_decimals, unit)})."
             )
@@ -62,9 +59,10 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
             sentences.append(NOT_SAMENESS)
 
     if result.margin is not None:
-        equivalence_headline, equivalence_sentence = _equivalence(result, analysis, shift_decimals, unit)
+        headline, equivalence_sentence = equivalence_words(
+            (a, b), margin_text(analysis, result.margin), result.equivalence_ci, result.equivalent, "shift",
+            shift_decimals, unit, result.alpha)
         sentences.append(equivalence_sentence)
-        headline = equivalence_headline
     if impossible:
         headline = (f"No result could reach {level_phrase(result.alpha)} with {result.n_a} "
                     f"readings of {a} and {result.n_b} of {b}.")
@@ -76,11 +74,6 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
         assumption_notes=_assumption_notes(result, analysis, b_higher),
         caution=CAUTION_SHORT,
     )
-
-
-def _shift_decimals(analysis: Analysis) -> int | None:
-    """The readings' resolution, at which shifts are shown (one decimal finer when off the grid)."""
-    return decimals_of(analysis)
 
 
 def _b_reads_higher(result: TwoGroupResult) -> bool:
@@ -109,25 +102,21 @@ def _significant_sentence(result: TwoGroupResult, stochastic: bool, b_higher: bo
     a, b = result.name_a, result.name_b
     direction = higher_or_lower(b_higher)
     share = result.prob_b_greater if b_higher else 1.0 - result.prob_b_greater
-    pairs = (f"a part of {b} reads {direction} than a part of {a} in {format_percent(share)} "
-             f"of pairs (ties counted half)")
-    if stochastic:
-        return f"{b} tends to read {direction} than {a}: {pairs}."
-    if result.shift is None or result.shift_ci is None:
-        return f"{b} reads {direction} than {a}: {pairs}."
+    if stochastic or result.shift is None or result.shift_ci is None:
+        return (f"A part of {b} reads {direction} than a part of {a} in {format_percent(share)} "
+                f"of pairs (ties counted half).")
     size = signed_reading(result.shift, decimals, unit)
-    return (f"{b} reads {direction} than {a}: the shift is {size} "
-            f"({interval_phrase(result.shift_ci, decimals, unit)}, {b} minus {a}).")
+    return f"The shift, {b} minus {a}, is {size} ({interval_phrase(result.shift_ci, decimals, unit)})."
 
 
 def _stochastic_sentence(result: TwoGroupResult) -> str:
     """Why the verdict speaks of tendencies, and the test that allows unequal spreads."""
     text = ("The groups' spreads or shapes differ, so this says which group tends to read higher, "
-            "not that the median moved")
+            "not that the median moved.")
     if result.brunner_munzel is not None:
-        text += (f"; the Brunner-Munzel test, which allows unequal spreads, gives "
-                 f"{p_phrase(result.brunner_munzel.p_value, result.alpha)}")
-    return text + "."
+        text += (f" The Brunner-Munzel test, which allows unequal spreads, gives "
+                 f"{p_phrase(result.brunner_munzel.p_value, result.alpha)}.")
+    return text
 
 
 def _not_shown_headline(result: TwoGroupResult) -> str:
@@ -138,25 +127,6 @@ def _not_shown_headline(result: TwoGroupResult) -> str:
     if result.alternative == "b-less":
         return f"It was not shown that {b} reads lower than {a}."
     return f"No difference between {a} and {b} was shown."
-
-
-def _equivalence(result: TwoGroupResult, analysis: Analysis, decimals: int | None,
-                 unit: str) -> tuple[str, str]:
-    """Headline and sentence for the question "the same within ± margin?"."""
-    a, b = result.name_a, result.name_b
-    margin = margin_text(analysis, result.margin)
-    interval = result.equivalence_ci
-    if result.equivalent is None or interval is None:
-        return (f"Equivalence within {margin} could not be judged.",
-                f"Equivalence within {margin} could not be judged: no interval for the shift was computed.")
-    shown = interval_phrase(interval, decimals, unit)
-    if result.equivalent:
-        return (f"{b} and {a} are equivalent within {margin}.",
-                f"{b} and {a} are equivalent within {margin}: the shift's {shown} lies inside the margin "
-                f"(two one-sided tests, each at {level_phrase(result.alpha)}).")
-    return (f"Equivalence of {b} and {a} within {margin} was not shown.",
-            f"Equivalence within {margin} was not shown: the shift's {shown} reaches the margin or "
-            f"beyond (two one-sided tests, each at {level_phrase(result.alpha)}).")
 
 
 def _method_note(result: TwoGroupResult) -> str:
@@ -199,6 +169,4 @@ def _assumption_notes(result: TwoGroupResult, analysis: Analysis, b_higher: bool
             f"With these group sizes the exact test is cautious: its true significance level is "
             f"{format_level(result.attained_alpha)} rather than {format_level(result.alpha)}."
         )
-    notes.extend(w for w in result.warnings if w not in notes)
-    notes.extend(n for n in analysis.notes if n not in notes)
-    return tuple(notes)
+    return with_warnings(notes, result.warnings, analysis.notes)
