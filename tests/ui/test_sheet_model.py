@@ -46,7 +46,7 @@ def test_headers_show_group_name_and_unit():
     """The column title carries the group's name and its unit; the spare column invites a new group."""
     model = SheetModel(_sheet())
     assert model.headerData(0, Qt.Orientation.Horizontal) == "Wheel A\nµm"
-    assert model.headerData(2, Qt.Orientation.Horizontal) == "+ new group"
+    assert model.headerData(2, Qt.Orientation.Horizontal) == "+ new\ngroup"
     assert model.headerData(4, Qt.Orientation.Vertical) == "5"
 
 

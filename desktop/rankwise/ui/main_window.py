@@ -157,7 +157,7 @@ class MainWindow(QMainWindow):
         right.setSizes([600, 300])
         right.setChildrenCollapsible(False)
 
-        self.question_panel.setMinimumWidth(350)
+        self.question_panel.setMinimumWidth(300)
         main = QSplitter(Qt.Orientation.Horizontal)
         main.addWidget(self.question_panel)
         main.addWidget(sheet_box)
@@ -165,7 +165,7 @@ class MainWindow(QMainWindow):
         main.setStretchFactor(0, 0)
         main.setStretchFactor(1, 2)
         main.setStretchFactor(2, 3)
-        main.setSizes([360, 420, 660])
+        main.setSizes([310, 490, 640])
         main.setChildrenCollapsible(False)
         self.setCentralWidget(main)
         self.status_counts = QLabel()

@@ -48,8 +48,9 @@ PAIRED_DIRECTIONS = (
     ("b-less", "after reads lower"),
 )
 POWERS = ((0.8, "8 in 10"), (0.9, "9 in 10"), (0.95, "19 in 20"))
+PLAN_DESIGNS = ((False, "two separate groups of parts"), (True, "the same parts, measured twice"))
 METHODS = (
-    ("auto", "automatically (exact if affordable)"),
+    ("auto", "automatically (exact if quick)"),
     ("exact", "always exactly (can be slow)"),
     ("normal", "by the normal approximation"),
 )
@@ -74,10 +75,13 @@ class QuestionChoice:
     problem: str = ""
 
 
-def _combo(name: str, tooltip: str) -> QComboBox:
+def _combo(name: str, tooltip: str, items=()) -> QComboBox:
+    """A drop-down list named for screen readers, offering ``items`` as (value, text) pairs."""
     box = QComboBox()
     box.setAccessibleName(name)
     box.setToolTip(tooltip)
+    for value, text in items:
+        box.addItem(text, value)
     return box
 
 
@@ -117,27 +121,23 @@ class QuestionPanel(QWidget):
             layout.addWidget(button)
         self._buttons.button(0).setChecked(True)
 
-        self.level = _combo("Significance level", "How small the p-value must be before the verdict says the change moved the readings.")
-        for value, text in LEVELS:
-            self.level.addItem(text, value)
+        self.level = _combo("Significance level", "How small the p-value must be before the verdict says the change moved the readings.",
+                            LEVELS)
         self.level.setCurrentIndex(1)
         self.group_a = _combo("Group A (reference)", "The reference: the current process, or the readings before the change.")
         self.group_b = _combo("Group B (changed)", "The changed process, or the readings after the change.")
         self.reference = _combo("Compare", "Several groups: compare every pair, or each group with one reference group.")
-        self.direction = _combo("Look for", "Same parts: look for any change, or only for one direction.")
-        for value, text in PAIRED_DIRECTIONS:
-            self.direction.addItem(text, value)
+        self.direction = _combo("Look for", "Same parts: look for any change, or only for one direction.",
+                                PAIRED_DIRECTIONS)
         self.method = _combo("p-value found by", "Exact: from every way the ranks could fall (slow for very large groups). "
-                             "Normal approximation: fast, close for large groups.")
-        for value, text in METHODS:
-            self.method.addItem(text, value)
+                             "Normal approximation: fast, close for large groups.", METHODS)
         self.margin = _spin("Margin", "How far apart A and B may be and still count as the same for this part.")
         self.margin_unit = _combo("Margin given as", "Give the margin in the readings' unit, or as a share of the tolerance width (USL - LSL).")
         self.planned_shift = _spin("Shift worth finding", "The smallest change of the readings that matters, in the readings' unit.")
         self.planned_spread = _spin("Usual spread", "The usual spread of the readings (standard deviation), in the readings' unit.")
-        self.power = _combo("Chance to find it", "How often a study of this size should find a shift of that size.")
-        for value, text in POWERS:
-            self.power.addItem(text, value)
+        self.power = _combo("Chance to find it", "How often a study of this size should find a shift of that size.", POWERS)
+        self.plan_design = _combo("Plan for", "Two separate groups of parts (rank-sum test), or the same parts "
+                                  "measured before and after (signed-rank test).", PLAN_DESIGNS)
         self.planned_shift.setValue(1.0)
         self.planned_spread.setValue(1.0)
 
@@ -155,6 +155,7 @@ class QuestionPanel(QWidget):
             ("method", "p-value found", self.method),
             ("margin", "Margin ±", self.margin),
             ("margin_unit", "Margin given", self.margin_unit),
+            ("design", "Plan for", self.plan_design),
             ("shift", "Shift worth finding", self.planned_shift),
             ("spread", "Usual spread (SD)", self.planned_spread),
             ("power", "Chance to find it", self.power),
@@ -174,6 +175,7 @@ class QuestionPanel(QWidget):
         for box in (self.level, self.group_a, self.group_b, self.reference, self.direction, self.method, self.margin_unit,
                     self.power):
             box.currentIndexChanged.connect(self._on_setting_changed)
+        self.plan_design.currentIndexChanged.connect(self._on_design_changed)
         for spin in (self.margin, self.planned_shift, self.planned_spread):
             spin.valueChanged.connect(self._on_setting_changed)
         self.set_groups([], [])
@@ -233,14 +235,17 @@ class QuestionPanel(QWidget):
                             method=str(self.method.currentData()))
         names = self._group_names
         if option.question is Question.PLAN:
+            paired = self.plans_paired
             settings = replace(
                 settings,
                 planned_shift=self.planned_shift.value(),
                 planned_spread=self.planned_spread.value(),
                 power=float(self.power.currentData()),
+                plan_paired=paired,
             )
             problem = "" if self.planned_shift.value() > 0 and self.planned_spread.value() > 0 else (
-                "Give the shift worth finding and the usual spread of the readings (both above zero)."
+                "Give the change per part worth finding and the spread of the differences (both above zero)."
+                if paired else "Give the shift worth finding and the usual spread of the readings (both above zero)."
             )
             index_a, index_b = self.group_a.currentData(), self.group_b.currentData()
             named = index_a is not None and index_b is not None and index_a != index_b
@@ -266,6 +271,11 @@ class QuestionPanel(QWidget):
         indices = () if index_a is None or index_b is None else (int(index_a), int(index_b))
         return QuestionChoice(option.key, option.question, settings, indices, problem)
 
+    @property
+    def plans_paired(self) -> bool:
+        """True when the plan is for the same parts measured twice."""
+        return bool(self.plan_design.currentData())
+
     def to_dict(self) -> dict:
         """The picker's state as plain data (kept in the recovery file)."""
         return {
@@ -281,6 +291,7 @@ class QuestionPanel(QWidget):
             "planned_shift": self.planned_shift.value(),
             "planned_spread": self.planned_spread.value(),
             "power": float(self.power.currentData()),
+            "plan_paired": self.plans_paired,
         }
 
     def from_dict(self, state: dict) -> None:
@@ -294,6 +305,7 @@ class QuestionPanel(QWidget):
                 (self.level, "alpha", False), (self.group_a, "group_a", True), (self.group_b, "group_b", True),
                 (self.reference, "reference", False), (self.direction, "direction", False), (self.method, "method", False),
                 (self.margin_unit, "margin_unit", False), (self.power, "power", False),
+                (self.plan_design, "plan_paired", False),
             ):
                 if key in state:
                     found = box.findText(state[key]) if by_text else box.findData(state[key])
@@ -320,6 +332,7 @@ class QuestionPanel(QWidget):
         state = {
             "option": option, "alpha": settings.alpha, "direction": settings.alternative,
             "reference": settings.reference, "margin_unit": "units", "method": settings.method,
+            "plan_paired": settings.plan_paired,
         }
         if len(names) >= 2:
             state.update(group_a=names[0], group_b=names[1])
@@ -373,6 +386,7 @@ class QuestionPanel(QWidget):
             "method": question is not Question.PLAN,
             "margin": self.option.wants_margin,
             "margin_unit": self.option.wants_margin,
+            "design": question is Question.PLAN,
             "shift": question is Question.PLAN,
             "spread": question is Question.PLAN,
             "power": question is Question.PLAN,
@@ -380,15 +394,26 @@ class QuestionPanel(QWidget):
         for key, (label, widget) in self._rows.items():
             label.setVisible(visible[key])
             widget.setVisible(visible[key])
-        paired = question is Question.PAIRED
+        paired = question is Question.PAIRED or (question is Question.PLAN and self.plans_paired)
         self._rows["a"][0].setText("Before" if paired else "Group A (reference)")
         self._rows["b"][0].setText("After" if paired else "Group B (changed)")
+        plan_paired = question is Question.PLAN and self.plans_paired
+        self._rows["shift"][0].setText("Change per part worth finding" if plan_paired else "Shift worth finding")
+        self._rows["spread"][0].setText("Spread of the differences (SD)" if plan_paired else "Usual spread (SD)")
+        self.planned_spread.setToolTip(
+            "How much the change from before to after scatters from part to part (standard deviation "
+            "of the differences), in the readings' unit." if plan_paired else
+            "The usual spread of the readings (standard deviation), in the readings' unit.")
 
     def _on_option_toggled(self, _id: int, checked: bool) -> None:
         if checked:
             self._show_rows_for_option()
             if not self._updating:
                 self.changed.emit()
+
+    def _on_design_changed(self, *_args) -> None:
+        self._show_rows_for_option()
+        self._on_setting_changed()
 
     def _on_setting_changed(self, *_args) -> None:
         if not self._updating:

@@ -95,8 +95,12 @@ class ReadingsGrid(QTableView):
     def _fit_columns_to_titles(self) -> None:
         """Each column is wide enough for its title (group name and unit), within reason."""
         header = self.horizontalHeader()
+        groups = len(self.sheet_model().sheet.groups)
         for column in range(self.model().columnCount()):
-            wanted = max(header.defaultSectionSize(), header.sectionSizeHint(column))
+            if column < groups:
+                wanted = max(header.defaultSectionSize(), header.sectionSizeHint(column))
+            else:  # the spare column only as wide as its short title, so it stays in view
+                wanted = max(header.minimumSectionSize(), header.sectionSizeHint(column))
             header.resizeSection(column, min(wanted, MAXIMUM_COLUMN_WIDTH))
 
     def _on_header_double_clicked(self, section: int) -> None:

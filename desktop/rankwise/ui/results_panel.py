@@ -26,7 +26,8 @@ from PySide6.QtWidgets import (
 from rankwise.wording import CAUTION_SHORT
 
 KEY_NUMBER_COLUMNS = 2
-"""Key numbers are laid out in this many label/value pairs per row."""
+"""Key numbers are laid out in this many columns; each shows its label with the value under it,
+so that a value never shares its width with a long label and always reads whole."""
 
 
 def _wrapping_label(object_name: str, accessible: str) -> QLabel:
@@ -66,8 +67,7 @@ class ResultsPanel(QWidget):
         self._numbers_grid.setHorizontalSpacing(18)
         self._numbers_grid.setVerticalSpacing(4)
         for column in range(KEY_NUMBER_COLUMNS):
-            self._numbers_grid.setColumnStretch(column * 2, 3)
-            self._numbers_grid.setColumnStretch(column * 2 + 1, 2)
+            self._numbers_grid.setColumnStretch(column, 1)
         self._number_labels: dict[str, QLabel] = {}
         self._name_labels: dict[str, QLabel] = {}
 
@@ -159,7 +159,7 @@ class ResultsPanel(QWidget):
         self.method_note.setVisible(bool(verdict.method_note))
         if verdict.assumption_notes:
             items = "".join(f"<li>{_escape(note)}</li>" for note in verdict.assumption_notes)
-            self.notes.setText(f"<b>Notes:</b><ul style='margin-left:12px; -qt-list-indent:1'>{items}</ul>")
+            self.notes.setText(f"<b>Notes:</b><ul style='margin-top:2px; margin-left:12px; -qt-list-indent:1'>{items}</ul>")
         else:
             self.notes.setText("")
         self.notes.setVisible(bool(verdict.assumption_notes))
@@ -203,22 +203,25 @@ class ResultsPanel(QWidget):
         self._number_labels = {}
         self._name_labels = {}
         for position, number in enumerate(numbers):
-            row, pair = divmod(position, KEY_NUMBER_COLUMNS)
-            name = QLabel(number.label)
+            row, column = divmod(position, KEY_NUMBER_COLUMNS)
+            cell = QWidget()
+            cell.setObjectName("keyNumber")
+            stack = QVBoxLayout(cell)
+            stack.setContentsMargins(0, 2, 0, 4)
+            stack.setSpacing(0)
+            name = QLabel()
             name.setObjectName("numberLabel")
             name.setWordWrap(True)
-            value = QLabel(number.text)
+            value = QLabel()
             value.setObjectName("numberValue")
             value.setWordWrap(True)
             value.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
-            for label in (name, value):
-                label.setToolTip(number.tooltip)
-            value.setAccessibleName(number.label)
-            value.setAccessibleDescription(number.tooltip)
-            self._numbers_grid.addWidget(name, row, pair * 2)
-            self._numbers_grid.addWidget(value, row, pair * 2 + 1, Qt.AlignmentFlag.AlignLeft)
+            stack.addWidget(name)
+            stack.addWidget(value)
+            self._numbers_grid.addWidget(cell, row, column, Qt.AlignmentFlag.AlignTop)
             self._number_labels[number.key] = value
             self._name_labels[number.key] = name
+        self._update_numbers(numbers)
         self.numbers_title.setVisible(bool(numbers))
         self._numbers_box.setVisible(bool(numbers))
 

@@ -21,6 +21,8 @@ MINIMUM_ROWS = 30
 """The grid never shows fewer rows than this, so an empty sheet looks like a gauge sheet."""
 
 CELL_KIND_ROLE = Qt.ItemDataRole.UserRole + 1
+NEW_GROUP_TITLE = "+ new\ngroup"
+"""Title of the spare column right of the last group, on two lines like a group's name and unit."""
 """Custom role: the cell's kind as a string ("number", "note", "censored", "invalid", "empty")."""
 
 INVALID_MARK = "⚠ "
@@ -146,7 +148,7 @@ class SheetModel(QAbstractTableModel):
         groups = self._sheet.groups
         if section >= len(groups):
             if role == Qt.ItemDataRole.DisplayRole:
-                return "+ new group"
+                return NEW_GROUP_TITLE
             if role == Qt.ItemDataRole.ToolTipRole:
                 return "Type or paste here to start another group."
             return None
