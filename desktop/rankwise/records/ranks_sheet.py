@@ -82,9 +82,9 @@ def _combined(sheet: Worksheet, names: Sequence[str], values: Sequence[Sequence[
     for place, (rank, group, value) in enumerate(rows, start=1):
         put(sheet, row, 1, place)
         put(sheet, row, 2, value, value_format)
-        put(sheet, row, 3, names[group])
+        put(sheet, row, 3, names[group], indent=True)
         put(sheet, row, 4, rank, RANK_FORMAT)
-        put(sheet, row, 5, _tie_text(rank, blocks))
+        put(sheet, row, 5, _tie_text(rank, blocks), indent=True)
         row += 1
     row += 1
     for column, heading in enumerate(("Group", "Readings", "Rank sum", "Average rank"), start=1):

@@ -83,7 +83,7 @@ def _not_used_table(sheet: Worksheet, row: int, last_column: int, entries: list[
     for target, (name, entry, text, reason) in enumerate(entries, start=row + 2):
         put(sheet, target, 1, name)
         put(sheet, target, 2, entry)
-        put(sheet, target, 3, text)
+        put(sheet, target, 3, text, indent=True)
         put_paragraph(sheet, target, 4, last_column, reason)
 
 

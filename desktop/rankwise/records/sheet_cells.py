@@ -18,9 +18,6 @@ FORMULA_STARTS = ("=", "+", "-", "@")
 
 BOLD = Font(bold=True)
 TITLE = Font(bold=True, size=14)
-WRAP = Alignment(wrap_text=True, vertical="top")
-TOP = Alignment(vertical="top")
-"""Every cell sits at the top of its row, level with a wrapped text beside it."""
 DATE_TIME_FORMAT = "yyyy-mm-dd hh:mm:ss"
 LINE_HEIGHT = 15.0
 """Points per line of text at the default font size; wrapped cells get a row height of whole lines."""
@@ -32,13 +29,15 @@ _LEADING_NUMBER = re.compile(r"^[-+]?\d+(?:[.,](\d+))?")
 
 
 def put(sheet: Worksheet, row: int, column: int, value: object, number_format: str | None = None,
-        *, bold: bool = False, wrap: bool = False) -> None:
+        *, bold: bool = False, wrap: bool = False, indent: bool = False) -> None:
     """Write ``value`` at (row, column), 1-based.
 
     Text is always stored as text: a text that begins with = + - or @ is marked as a string and
     quote-prefixed, so no spreadsheet program runs it as a formula. Non-finite numbers and None
     leave the cell empty, apart from a "—" for a missing value. Datetimes are stored as dates
-    (without the UTC offset, which Excel cannot hold; write the offset beside them).
+    (without the UTC offset, which Excel cannot hold; write the offset beside them). Every cell
+    sits at the top of its row, level with a wrapped text beside it; ``indent`` moves a text one
+    step in from the left, clear of a number that ends at the edge of the cell before it.
     """
     cell = sheet.cell(row=row, column=column)
     if value is None:
@@ -59,7 +58,8 @@ def put(sheet: Worksheet, row: int, column: int, value: object, number_format: s
             cell.number_format = number_format
     if bold:
         cell.font = BOLD
-    cell.alignment = WRAP if wrap else TOP
+    cell.alignment = Alignment(horizontal="left" if indent else None, vertical="top", wrap_text=wrap or None,
+                               indent=1 if indent else 0)
 
 
 def put_paragraph(sheet: Worksheet, row: int, first_column: int, last_column: int, text: str,

@@ -60,13 +60,13 @@ def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str)
 
     put(sheet, row, 1, "Key number", bold=True)
     put(sheet, row, 2, "Value", bold=True)
-    put(sheet, row, 3, "What it means", bold=True)
+    put(sheet, row, 3, "What it means", bold=True, indent=True)
     row += 1
     for number in key_numbers(result, analysis):
         value, number_format = key_number_cell(number)
         put(sheet, row, 1, number.label, wrap=True)
         put(sheet, row, 2, value, number_format, wrap=isinstance(value, str))
-        put(sheet, row, 3, number.tooltip, wrap=True)
+        put(sheet, row, 3, number.tooltip, wrap=True, indent=True)
         fit_row_height(sheet, row, number.label, LABEL_WIDTH)
         fit_row_height(sheet, row, str(value) if isinstance(value, str) else "", VALUE_WIDTH)
         fit_row_height(sheet, row, number.tooltip, NOTE_COLUMN_WIDTH)
@@ -99,7 +99,7 @@ def _moment(sheet: Worksheet, row: int, label: str, moment) -> None:
     """A labelled date and time, with its offset from UTC beside it."""
     put(sheet, row, 1, label)
     put(sheet, row, 2, moment)
-    put(sheet, row, 3, _offset(moment))
+    put(sheet, row, 3, _offset(moment), indent=True)
 
 
 def _signoff_block(sheet: Worksheet, row: int, record: ResultRecord) -> int:
