@@ -97,7 +97,7 @@ def test_no_text_is_cut_off_a_long_text_wraps_in_a_row_tall_enough(written):
     for sheet in visible(book):
         for row in sheet.iter_rows():
             for cell in row:
-                if not isinstance(cell.value, str) or cell.row == 1 and sheet.title != "Verdict":
+                if not isinstance(cell.value, str):
                     continue
                 room = width_of(sheet, cell)
                 if len(cell.value) < room:
