@@ -9,6 +9,7 @@ charts. The entry is kept in a recovery file while the user types.
 from __future__ import annotations
 
 import math
+from dataclasses import replace
 from pathlib import Path
 
 from PySide6.QtCore import Qt, QTimer
@@ -24,6 +25,7 @@ from PySide6.QtWidgets import (
 
 import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError, SheetSnapshot
+from rankwise.readings.for_analysis import build_analysis as analysis_of_columns
 from rankwise.stats.analysis import Analysis, Question
 from rankwise.ui import dialogs
 from rankwise.ui.chart_tab import ChartTab
@@ -411,11 +413,13 @@ class MainWindow(QMainWindow):
         if choice.problem:
             return None, choice.problem
         if choice.question is Question.PLAN and not choice.group_indices:
-            return Analysis(choice.question, (), choice.settings), ""
+            return analysis_of_columns((), choice.question, choice.settings, decimal=self.sheet.decimal), ""
         try:
             analysis = self.sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
         except ReadingsError as error:
             return None, str(error)
+        if self.sheet.decimal != "auto":  # the sheet reads one stated mark: numbers are shown with it
+            analysis = replace(analysis, decimal_mark=self.sheet.decimal)
         empty = [group.name for group in analysis.groups if not any(math.isfinite(v) for v in group.values)]
         if choice.question is not Question.PLAN and empty:
             if len(empty) == len(analysis.groups):
@@ -438,6 +442,7 @@ class MainWindow(QMainWindow):
                 chart.clear()
             self.records.update_enabled()
             return
+        self.question_panel.set_decimal_mark(analysis.decimal_mark)
         if immediately:
             self.runner.request_now(analysis)
         else:

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, replace
 
-from PySide6.QtCore import Signal
+from PySide6.QtCore import QLocale, Signal
 from PySide6.QtWidgets import (
     QButtonGroup,
     QComboBox,
@@ -342,6 +342,17 @@ class QuestionPanel(QWidget):
             if getattr(settings, key) is not None:
                 state[key] = getattr(settings, key)
         self.from_dict(state)
+
+    def set_decimal_mark(self, mark: str) -> None:
+        """Show the number boxes (margin, planned shift and spread) with the readings' decimal mark."""
+        if mark not in (".", ","):
+            raise ValueError(f'mark must be "." or ","; got {mark!r}.')
+        locale = QLocale(QLocale.Language.English if mark == "." else QLocale.Language.German)
+        locale.setNumberOptions(QLocale.NumberOption.OmitGroupSeparator)
+        for spin in (self.margin, self.planned_shift, self.planned_spread):
+            if spin.locale().decimalPoint() != mark:
+                spin.setLocale(locale)
+                spin.setValue(spin.value())  # redraw the shown text in the new mark
 
     def set_read_only(self, read_only: bool) -> None:
         """Lock the picker (a signed analysis is read-only)."""

@@ -84,23 +84,16 @@ class SheetModel(QAbstractTableModel):
             else:
                 self._sync_sizes()
                 self.endResetModel()
-        elif change.kind == "rows-inserted":
-            count = change.last_row - change.first_row + 1
+        elif change.kind in ("rows-inserted", "rows-removed"):
+            inserted = change.kind == "rows-inserted"
             if change.before:
-                self.beginInsertRows(QModelIndex(), change.first_row, change.last_row)
+                begin = self.beginInsertRows if inserted else self.beginRemoveRows
+                begin(QModelIndex(), change.first_row, change.last_row)
             else:
-                self._rows += count
+                count = change.last_row - change.first_row + 1
+                self._rows += count if inserted else -count
                 self._flags.clear()
-                self.endInsertRows()
-                self._fit_spare_rows()
-        elif change.kind == "rows-removed":
-            count = change.last_row - change.first_row + 1
-            if change.before:
-                self.beginRemoveRows(QModelIndex(), change.first_row, change.last_row)
-            else:
-                self._rows -= count
-                self._flags.clear()
-                self.endRemoveRows()
+                (self.endInsertRows if inserted else self.endRemoveRows)()
                 self._fit_spare_rows()
         elif change.kind == "cells" and not change.before:
             self._flags.clear()

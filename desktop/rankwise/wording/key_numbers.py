@@ -41,16 +41,10 @@ MID_P_TIP = ("The exact p-value counting the observed result only half: a less c
 def key_numbers(result: Result, analysis: Analysis) -> tuple[KeyNumber, ...]:
     """The key numbers of ``result`` in display order, written with the analysis's decimal mark;
     raises ``ValueError`` for other objects."""
-    if isinstance(result, TwoGroupResult):
-        numbers = _two_groups(result, analysis)
-    elif isinstance(result, PairedResult):
-        numbers = _paired(result, analysis)
-    elif isinstance(result, SeveralGroupsResult):
-        numbers = _several(result, analysis)
-    elif isinstance(result, PlanResult):
-        numbers = _plan(result, analysis)
-    else:
+    lister = _LISTERS.get(type(result))
+    if lister is None:
         raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+    numbers = lister(result, analysis)
     if analysis.decimal_mark == ".":
         return tuple(numbers)
     return tuple(replace(number, label=in_typed_mark(number.label, analysis), text=in_typed_mark(number.text, analysis),
@@ -125,6 +119,33 @@ def _method(method: str, key: str = "method") -> KeyNumber:
                    f"normal approximation.", None)
 
 
+def _critical(key: str, what: str, value: int | None, alpha: float, tooltip: str) -> KeyNumber:
+    """The table's critical value at the level, or "none possible" when no result can reach it."""
+    return _number(key, f"{what} at {format_level(alpha)}", "none possible" if value is None else str(value),
+                   tooltip, value)
+
+
+def _p_values(r: TwoGroupResult | PairedResult, z_tip: str) -> Iterator[KeyNumber]:
+    """The p-value used, how it was found, the exact and the normal-approximation p-values, and z."""
+    yield _p("p_value", "p-value", r.p_value, P_TIP, r.alpha)
+    yield _method(r.method)
+    if r.p_exact is not None:
+        yield _p("p_exact", "Exact p-value", r.p_exact, EXACT_P_TIP, r.alpha)
+    yield _p("p_normal", "Normal-approximation p-value", r.p_normal, NORMAL_P_TIP, r.alpha)
+    yield _number("z", "z (normal approximation)", format_plain(r.z), z_tip, r.z)
+
+
+def _equivalence(r: TwoGroupResult | PairedResult, formats: _Formats, what: str,
+                 meaning: str) -> Iterator[KeyNumber]:
+    """The margin and the interval judged against it, when the question asks "the same within ± margin?"."""
+    if r.margin is None:
+        return
+    yield _number("margin", "Equivalence margin (±)", formats.setting(r.margin),
+                  f"{meaning} for this characteristic.", r.margin)
+    yield from _interval("equivalence_ci", f"{what} for equivalence", r.equivalence_ci, formats,
+                         "Equivalent when this whole interval lies inside the margin.")
+
+
 def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
     f = _Formats(analysis)
     a, b = r.name_a, r.name_b
@@ -141,18 +162,11 @@ def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
                  f"Out of every pairing of a part of {a} with a part of {b}: how many times {b} reads "
                  f"higher (ties count half).")
     yield _count("u", "U (the smaller)", r.u, "The smaller of the two U values, the one compared with the table.")
-    yield _number("critical_u", f"Critical U at {format_level(r.alpha)}",
-                  "none possible" if r.critical_u is None else str(r.critical_u),
-                  "A U at or below this value is significant (without ties); 'none possible' means "
-                  "these group sizes can never give a significant result.", r.critical_u)
-    yield _p("p_value", "p-value", r.p_value, P_TIP, r.alpha)
-    yield _method(r.method)
-    if r.p_exact is not None:
-        yield _p("p_exact", "Exact p-value", r.p_exact, EXACT_P_TIP, r.alpha)
-    yield _p("p_normal", "Normal-approximation p-value", r.p_normal, NORMAL_P_TIP, r.alpha)
-    yield _number("z", "z (normal approximation)", format_plain(r.z),
-                  f"How many standard errors the rank sum lies from 'no difference'; positive when "
-                  f"{b} tends to read higher.", r.z)
+    yield _critical("critical_u", "Critical U", r.critical_u, r.alpha,
+                    "A U at or below this value is significant (without ties); 'none possible' means "
+                    "these group sizes can never give a significant result.")
+    yield from _p_values(r, f"How many standard errors the rank sum lies from 'no difference'; positive when "
+                            f"{b} tends to read higher.")
     if r.mid_p is not None:
         yield _p("mid_p", "Mid-p (for comparison only)", r.mid_p, MID_P_TIP)
     if r.attained_alpha is not None:
@@ -188,12 +202,7 @@ def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
         yield _p("mood_median_p", "Mood's median test p-value", r.mood_median.p_value,
                  "Compares how many readings of each group lie above the overall median "
                  "(not Mood's test of spread).", r.alpha)
-    if r.margin is not None:
-        yield _number("margin", "Equivalence margin (±)", f.setting(r.margin),
-                      "Shifts inside plus or minus this amount count as 'the same' for this characteristic.",
-                      r.margin)
-        yield from _interval("equivalence_ci", "Shift for equivalence", r.equivalence_ci, f,
-                             "Equivalent when this whole interval lies inside the margin.")
+    yield from _equivalence(r, f, "Shift", "Shifts inside plus or minus this amount count as 'the same'")
 
 
 def _paired(r: PairedResult, analysis: Analysis) -> Iterator[KeyNumber]:
@@ -213,30 +222,18 @@ def _paired(r: PairedResult, analysis: Analysis) -> Iterator[KeyNumber]:
                  f"The changes are ranked by size; this adds the ranks of parts where {b} reads higher.")
     yield _count("w_minus", "Rank sum of falls", r.w_minus,
                  f"The changes are ranked by size; this adds the ranks of parts where {b} reads lower.")
-    yield _number("critical_t", f"Critical rank sum at {format_level(r.alpha)}",
-                  "none possible" if r.critical_t is None else str(r.critical_t),
-                  "The smaller rank sum at or below this value is significant (without ties); "
-                  "'none possible' means too few parts for any significant result.", r.critical_t)
-    yield _p("p_value", "p-value", r.p_value, P_TIP, r.alpha)
-    yield _method(r.method)
-    if r.p_exact is not None:
-        yield _p("p_exact", "Exact p-value", r.p_exact, EXACT_P_TIP, r.alpha)
-    yield _p("p_normal", "Normal-approximation p-value", r.p_normal, NORMAL_P_TIP, r.alpha)
-    yield _number("z", "z (normal approximation)", format_plain(r.z),
-                  f"How many standard errors the rank sum of rises lies from 'no change'; positive "
-                  f"when {b} tends to read higher.", r.z)
+    yield _critical("critical_t", "Critical rank sum", r.critical_t, r.alpha,
+                    "The smaller rank sum at or below this value is significant (without ties); "
+                    "'none possible' means too few parts for any significant result.")
+    yield from _p_values(r, f"How many standard errors the rank sum of rises lies from 'no change'; positive "
+                            f"when {b} tends to read higher.")
     if r.shift is not None:
         yield _number("shift", f"Typical change per part, {b} minus {a}", f.centre(r.shift),
                       "Hodges-Lehmann pseudo-median: the median of all averages of two parts' changes.",
                       r.shift)
     yield from _interval("shift_ci", "Change per part", r.shift_ci, f,
                          "The range of typical changes that fit the readings at this confidence level.")
-    if r.margin is not None:
-        yield _number("margin", "Equivalence margin (±)", f.setting(r.margin),
-                      "Changes inside plus or minus this amount count as 'no change' for this characteristic.",
-                      r.margin)
-        yield from _interval("equivalence_ci", "Change for equivalence", r.equivalence_ci, f,
-                             "Equivalent when this whole interval lies inside the margin.")
+    yield from _equivalence(r, f, "Change", "Changes inside plus or minus this amount count as 'no change'")
 
 
 def _several(r: SeveralGroupsResult, analysis: Analysis) -> Iterator[KeyNumber]:
@@ -303,3 +300,7 @@ def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
     if r.simulated_power is not None:
         yield _number("simulated_power", "Simulated chance of detecting", format_percent(r.simulated_power),
                       "The chance found by simulating the exact test at the planned sizes.", r.simulated_power)
+
+
+_LISTERS = {TwoGroupResult: _two_groups, PairedResult: _paired, SeveralGroupsResult: _several, PlanResult: _plan}
+"""The key numbers of each kind of result."""

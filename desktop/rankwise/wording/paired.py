@@ -4,21 +4,21 @@ from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairedResult
-from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
+    b_reads_higher,
     equivalence_words,
     higher_or_lower,
-    interval_phrase,
     level_phrase,
+    not_shown_headline,
     outcome_sentence,
     p_method,
-    signed_reading,
+    size_sentence,
     smallest_sign_test_size,
     with_warnings,
 )
 from rankwise.wording.questions import decimals_of, margin_text, unit_of
-from rankwise.wording.verdict_types import Verdict
+from rankwise.wording.verdict_types import Verdict, cautioned_verdict
 
 PAIRING_NOTE = ("Each row must hold the same part measured twice; the test reads the change per "
                 "part, and assumes the changes are spread evenly around their centre.")
@@ -29,7 +29,8 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
     a, b = result.name_a, result.name_b
     decimals = decimals_of(analysis)
     unit = unit_of(analysis)
-    b_higher = _second_reads_higher(result)
+    b_higher = b_reads_higher(result.alternative, result.shift, result.w_plus >= result.w_minus)
+    not_shown = not_shown_headline(result.alternative, a, b, "change", " on the same parts")
     sentences: list[str] = []
 
     impossible = result.critical_t is None
@@ -43,15 +44,14 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
 
     change = ""
     if result.shift is not None and result.shift_ci is not None:
-        change = (f"The typical change per part, {b} minus {a}, is {signed_reading(result.shift, decimals, unit)} "
-                  f"({interval_phrase(result.shift_ci, decimals, unit)}).")
-    outcome = outcome_sentence("The change is significant" if result.significant else _not_shown_headline(result)[:-1],
+        change = size_sentence("typical change per part", (a, b), result.shift, result.shift_ci, decimals, unit)
+    outcome = outcome_sentence("The change is significant" if result.significant else not_shown[:-1],
                                result.p_value, result.alpha, result.alternative)
     if result.significant:
         headline = f"{b} reads {higher_or_lower(b_higher)} than {a} on the same parts."
         sentences.extend((change or headline, outcome))
     else:
-        headline = _not_shown_headline(result)
+        headline = not_shown
         sentences.append(outcome)
         if change:
             sentences.append(change)
@@ -65,34 +65,7 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
         sentences.append(sentence)
     if impossible:
         headline = f"No result could reach {level_phrase(result.alpha)} with {result.n} changed parts."
-    return Verdict(
-        headline=headline,
-        sentences=tuple(sentences),
-        method_note=_method_note(result),
-        assumption_notes=_assumption_notes(result, analysis),
-        caution=CAUTION_SHORT,
-    )
-
-
-def _second_reads_higher(result: PairedResult) -> bool:
-    """True when the second readings tend to be higher (by the tested direction, the shift or W+)."""
-    if result.alternative == "b-greater":
-        return True
-    if result.alternative == "b-less":
-        return False
-    if result.shift is not None and result.shift != 0.0:
-        return result.shift > 0.0
-    return result.w_plus >= result.w_minus
-
-
-def _not_shown_headline(result: PairedResult) -> str:
-    """The headline when the test did not reach significance."""
-    a, b = result.name_a, result.name_b
-    if result.alternative == "b-greater":
-        return f"It was not shown that {b} reads higher than {a} on the same parts."
-    if result.alternative == "b-less":
-        return f"It was not shown that {b} reads lower than {a} on the same parts."
-    return f"No change between {a} and {b} on the same parts was shown."
+    return cautioned_verdict(headline, sentences, _method_note(result), _assumption_notes(result, analysis))
 
 
 def _method_note(result: PairedResult) -> str:

@@ -96,6 +96,14 @@ def interval_phrase(interval: ConfidenceInterval, decimals: int | None, unit: st
     return f"{format_level(interval.level)} confidence interval {low} to {high}{unit_text}"
 
 
+def size_sentence(what: str, names: tuple[str, str], value: float, interval: ConfidenceInterval,
+                  decimals: int | None, unit: str) -> str:
+    """ "The shift, B minus A, is +0.06 µm (95 % confidence interval 0.02 to 0.10 µm)." ; ``names`` are (A, B)."""
+    a, b = names
+    return (f"The {what}, {b} minus {a}, is {signed_reading(value, decimals, unit)} "
+            f"({interval_phrase(interval, decimals, unit)}).")
+
+
 def method_and_p(method: str, p: float, alpha: float) -> str:
     """ "Fligner-Killeen (median-centred), chi-square: p = 0.087" from a method name and its p-value."""
     label = method.strip()
@@ -110,6 +118,28 @@ def signed_reading(value: float, decimals: int | None, unit: str) -> str:
     if math.isfinite(value) and not text.startswith("-") and float(text) != 0.0:
         text = "+" + text
     return f"{text} {unit}" if unit else text
+
+
+def b_reads_higher(alternative: str, shift: float | None, otherwise: bool) -> bool:
+    """True when B tends to read higher than A: by the direction tested, else by the shift's sign,
+    else ``otherwise`` (what the ranks say when there is no shift)."""
+    if alternative == "b-greater":
+        return True
+    if alternative == "b-less":
+        return False
+    if shift is not None and shift != 0.0:
+        return shift > 0.0
+    return otherwise
+
+
+def not_shown_headline(alternative: str, a: str, b: str, change: str, where: str = "") -> str:
+    """ "No difference between A and B was shown." or, one-sided, "It was not shown that B reads
+    higher than A."; ``change`` names what was looked for, ``where`` adds e.g. " on the same parts"."""
+    if alternative == "b-greater":
+        return f"It was not shown that {b} reads higher than {a}{where}."
+    if alternative == "b-less":
+        return f"It was not shown that {b} reads lower than {a}{where}."
+    return f"No {change} between {a} and {b}{where} was shown."
 
 
 def higher_or_lower(positive: bool) -> str:

@@ -4,11 +4,10 @@ from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PlanResult
-from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.numbers import format_level, format_percent, format_setting
 from rankwise.wording.phrases import a_or_an, sides, with_warnings
 from rankwise.wording.questions import decimals_of, group_names, unit_of, with_unit
-from rankwise.wording.verdict_types import Verdict
+from rankwise.wording.verdict_types import Verdict, cautioned_verdict
 
 
 def plan_names(analysis: Analysis) -> tuple[str, str]:
@@ -40,13 +39,8 @@ def describe_plan(result: PlanResult, analysis: Analysis) -> Verdict:
             f"{a_or_an(format_percent(result.simulated_power))} {format_percent(result.simulated_power)} "
             f"chance of detecting it."
         )
-    return Verdict(
-        headline=headline,
-        sentences=tuple(sentences),
-        method_note=f"Parts needed from {result.method}, rounded up to whole parts.",
-        assumption_notes=with_warnings(list(result.assumptions), result.warnings, analysis.notes),
-        caution=CAUTION_SHORT,
-    )
+    return cautioned_verdict(headline, sentences, f"Parts needed from {result.method}, rounded up to whole parts.",
+                             with_warnings(list(result.assumptions), result.warnings, analysis.notes))
 
 
 def _target(result: PlanResult, analysis: Analysis, a: str, b: str) -> str:

@@ -4,10 +4,9 @@ from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairComparison, SeveralGroupsResult
-from rankwise.wording.cautions import CAUTION_SHORT
 from rankwise.wording.numbers import format_plain
 from rankwise.wording.phrases import level_phrase, p_phrase, with_warnings
-from rankwise.wording.verdict_types import Verdict
+from rankwise.wording.verdict_types import Verdict, cautioned_verdict
 
 SHAPE_NOTE = ("The Kruskal-Wallis test compares the groups' average ranks: it speaks of medians "
               "only when all groups have the same spread and shape.")
@@ -34,13 +33,7 @@ def describe_several(result: SeveralGroupsResult, analysis: Analysis) -> Verdict
         headline = f"No difference among the {k} groups was shown."
         sentences.append(f"{headline[:-1]} at {level_phrase(result.alpha)} ({test}).")
         sentences.append("This does not show that the groups are the same.")
-    return Verdict(
-        headline=headline,
-        sentences=tuple(sentences),
-        method_note=_method_note(result),
-        assumption_notes=_assumption_notes(result, analysis),
-        caution=CAUTION_SHORT,
-    )
+    return cautioned_verdict(headline, sentences, _method_note(result), _assumption_notes(result, analysis))
 
 
 def _pair_sentence(pair: PairComparison, alpha: float) -> str:

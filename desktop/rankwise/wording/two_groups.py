@@ -4,23 +4,23 @@ from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import TwoGroupResult
-from rankwise.wording.cautions import CAUTION_SHORT
-from rankwise.wording.numbers import format_centre, format_level, format_percent
+from rankwise.wording.numbers import format_level, format_percent
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
+    b_reads_higher,
     equivalence_words,
     higher_or_lower,
-    interval_phrase,
     level_phrase,
     method_and_p,
+    not_shown_headline,
     outcome_sentence,
     p_method,
     p_phrase,
-    signed_reading,
+    size_sentence,
     with_warnings,
 )
-from rankwise.wording.questions import decimals_of, margin_text, unit_of, with_unit
-from rankwise.wording.verdict_types import Verdict
+from rankwise.wording.questions import decimals_of, margin_text, unit_of
+from rankwise.wording.verdict_types import Verdict, cautioned_verdict
 
 INDEPENDENCE_NOTE = ("Each reading must come from a different part, and the two groups from "
                      "separate parts; for the same parts measured twice, use the before / after question.")
@@ -32,7 +32,7 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
     shift_decimals = decimals_of(analysis)
     unit = unit_of(analysis)
     stochastic = result.shape is not None and result.shape.differ
-    b_higher = _b_reads_higher(result)
+    b_higher = b_reads_higher(result.alternative, result.shift, result.prob_b_greater >= 0.5)
 
     sentences: list[str] = []
     impossible = result.critical_u is None
@@ -47,14 +47,11 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
         sentences.append(outcome_sentence("The difference is significant", result.p_value, result.alpha,
                                           result.alternative))
     else:
-        headline = _not_shown_headline(result)
+        headline = not_shown_headline(result.alternative, a, b, "difference")
         sentences.append(outcome_sentence(headline[:-1], result.p_value, result.alpha, result.alternative))
         if result.shift is not None and result.shift_ci is not None:
-            sentences.append(
-                f"The estimated shift, {b} minus {a}, is "
-                f"{with_unit(format_centre(result.shift, shift_decimals), unit)} "
-                f"({interval_phrase(result.shift_ci, shift_decimals, unit)})."
-            )
+            sentences.append(size_sentence("estimated shift", (a, b), result.shift, result.shift_ci,
+                                           shift_decimals, unit))
         if result.margin is None:
             sentences.append(NOT_SAMENESS)
 
@@ -67,24 +64,8 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
         headline = (f"No result could reach {level_phrase(result.alpha)} with {result.n_a} "
                     f"readings of {a} and {result.n_b} of {b}.")
 
-    return Verdict(
-        headline=headline,
-        sentences=tuple(sentences),
-        method_note=_method_note(result),
-        assumption_notes=_assumption_notes(result, analysis, b_higher),
-        caution=CAUTION_SHORT,
-    )
-
-
-def _b_reads_higher(result: TwoGroupResult) -> bool:
-    """True when B tends to read higher than A (by the shift, or by P(B > A) without one)."""
-    if result.alternative == "b-greater":
-        return True
-    if result.alternative == "b-less":
-        return False
-    if result.shift is not None and result.shift != 0.0:
-        return result.shift > 0.0
-    return result.prob_b_greater >= 0.5
+    return cautioned_verdict(headline, sentences, _method_note(result),
+                             _assumption_notes(result, analysis, b_higher))
 
 
 def _impossible_sentence(result: TwoGroupResult) -> str:
@@ -105,8 +86,7 @@ def _significant_sentence(result: TwoGroupResult, stochastic: bool, b_higher: bo
     if stochastic or result.shift is None or result.shift_ci is None:
         return (f"A part of {b} reads {direction} than a part of {a} in {format_percent(share)} "
                 f"of pairs (ties counted half).")
-    size = signed_reading(result.shift, decimals, unit)
-    return f"The shift, {b} minus {a}, is {size} ({interval_phrase(result.shift_ci, decimals, unit)})."
+    return size_sentence("shift", (a, b), result.shift, result.shift_ci, decimals, unit)
 
 
 def _stochastic_sentence(result: TwoGroupResult) -> str:
@@ -117,16 +97,6 @@ def _stochastic_sentence(result: TwoGroupResult) -> str:
         text += (f" The Brunner-Munzel test, which allows unequal spreads, gives "
                  f"{p_phrase(result.brunner_munzel.p_value, result.alpha)}.")
     return text
-
-
-def _not_shown_headline(result: TwoGroupResult) -> str:
-    """ "No difference ... was shown." or, one-sided, "It was not shown that B reads higher than A." """
-    a, b = result.name_a, result.name_b
-    if result.alternative == "b-greater":
-        return f"It was not shown that {b} reads higher than {a}."
-    if result.alternative == "b-less":
-        return f"It was not shown that {b} reads lower than {a}."
-    return f"No difference between {a} and {b} was shown."
 
 
 def _method_note(result: TwoGroupResult) -> str:

@@ -13,6 +13,10 @@ from rankwise.wording.several import describe_several
 from rankwise.wording.two_groups import describe_two_groups
 from rankwise.wording.verdict_types import Verdict
 
+_DESCRIBERS = {TwoGroupResult: describe_two_groups, PairedResult: describe_paired,
+               SeveralGroupsResult: describe_several, PlanResult: describe_plan}
+"""The wording of each kind of result."""
+
 
 def describe(result: Result, analysis: Analysis) -> Verdict:
     """The verdict in plain words for any result of the statistics service.
@@ -21,16 +25,10 @@ def describe(result: Result, analysis: Analysis) -> Verdict:
     written with the decimal mark the technician typed (``Analysis.decimal_mark``).
     Raises ``ValueError`` when ``result`` is not one of the service's result types.
     """
-    if isinstance(result, TwoGroupResult):
-        verdict = describe_two_groups(result, analysis)
-    elif isinstance(result, PairedResult):
-        verdict = describe_paired(result, analysis)
-    elif isinstance(result, SeveralGroupsResult):
-        verdict = describe_several(result, analysis)
-    elif isinstance(result, PlanResult):
-        verdict = describe_plan(result, analysis)
-    else:
+    describer = _DESCRIBERS.get(type(result))
+    if describer is None:
         raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+    verdict = describer(result, analysis)
     if analysis.decimal_mark == ".":
         return verdict
     return replace(

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from rankwise.wording.cautions import CAUTION_SHORT
+
 
 @dataclass(frozen=True)
 class Verdict:
@@ -23,6 +25,13 @@ class Verdict:
     method_note: str
     assumption_notes: tuple[str, ...]
     caution: str
+
+
+def cautioned_verdict(headline: str, sentences: list[str] | tuple[str, ...], method_note: str,
+                      assumption_notes: tuple[str, ...]) -> Verdict:
+    """A ``Verdict`` that carries the cautions note, as every verdict shown or printed must."""
+    return Verdict(headline=headline, sentences=tuple(sentences), method_note=method_note,
+                   assumption_notes=tuple(assumption_notes), caution=CAUTION_SHORT)
 
 
 @dataclass(frozen=True)

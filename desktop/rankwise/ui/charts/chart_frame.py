@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import pyqtgraph as pg
 from rankwise.ui.charts import style
+from rankwise.ui.charts.readings_view import ReadingsView, readings_view
 
 
 class ChartFrame(pg.PlotWidget):
@@ -54,6 +55,17 @@ class ChartFrame(pg.PlotWidget):
     def _hide_note(self) -> None:
         """Take the note away before data are drawn."""
         self._note.setVisible(False)
+
+    def _readings_to_draw(self, result, analysis) -> ReadingsView | None:
+        """The readings behind ``result`` with the note taken away, or None after saying that a
+        planning result has no readings (for the charts that draw readings)."""
+        view = readings_view(result, analysis)
+        if view is None:
+            self.clear()
+            self._show_note("A planning question has no readings to show yet.")
+            return None
+        self._hide_note()
+        return view
 
     def _set_legend(self, entries) -> None:
         """Rebuild the legend from (item, label) pairs (the items themselves stay)."""

@@ -10,7 +10,6 @@ from rankwise.stats import Analysis
 from rankwise.ui.charts import style
 from rankwise.ui.charts.chart_frame import ChartFrame
 from rankwise.ui.charts.dot_plot import shorten
-from rankwise.ui.charts.readings_view import readings_view
 
 TOOLTIP = (
     "For each reading value, the share of the group's readings at or below it. "
@@ -65,13 +64,10 @@ class CumulativeSharePlot(ChartFrame):
             pen = pg.mkPen(style.group_colour(number), width=2.5,
                            style=LINE_STYLES[number % len(LINE_STYLES)])
             curve = pg.PlotDataItem(pen=pen)
-            sample = pg.PlotDataItem(pen=pen, symbol=style.group_symbol(number),
-                                     symbolBrush=pg.mkBrush(style.group_colour(number)),
-                                     symbolPen=pg.mkPen(style.INK, width=0.8),
-                                     symbolSize=style.MARKER_SIZE - 2)
-            tops = pg.ScatterPlotItem(size=style.MARKER_SIZE - 2, symbol=style.group_symbol(number),
-                                      pen=pg.mkPen(style.INK, width=0.8),
-                                      brush=pg.mkBrush(style.group_colour(number)))
+            marker = style.group_marker(number)
+            sample = pg.PlotDataItem(pen=pen, symbol=marker["symbol"], symbolBrush=marker["brush"],
+                                     symbolPen=marker["pen"], symbolSize=style.MARKER_SIZE - 2)
+            tops = pg.ScatterPlotItem(size=style.MARKER_SIZE - 2, **marker)
             self.plot_item.addItem(curve)
             self.plot_item.addItem(tops)
             self._curves.append(curve)
@@ -89,12 +85,9 @@ class CumulativeSharePlot(ChartFrame):
 
     def show_result(self, result, analysis: Analysis) -> None:
         """Draw each group's curve for the readings behind ``result``."""
-        view = readings_view(result, analysis)
+        view = self._readings_to_draw(result, analysis)
         if view is None:
-            self.clear()
-            self._show_note("A planning question has no readings to show yet.")
             return
-        self._hide_note()
         entries = []
         for index, (name, values) in enumerate(zip(view.names, view.values)):
             curve, tops = self._items_for(index)

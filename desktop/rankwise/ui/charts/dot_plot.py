@@ -8,7 +8,7 @@ import pyqtgraph as pg
 from rankwise.stats import Analysis
 from rankwise.ui.charts import style
 from rankwise.ui.charts.chart_frame import ChartFrame
-from rankwise.ui.charts.readings_view import ReadingsView, readings_view, stacked_offsets
+from rankwise.ui.charts.readings_view import ReadingsView, stacked_offsets
 
 MEDIAN_HALF_WIDTH = 0.38
 """Half the width of a median bar, in group slots."""
@@ -76,9 +76,7 @@ class ReadingsDotPlot(ChartFrame):
             number = len(self._dots)
             dots = pg.ScatterPlotItem(
                 size=style.MARKER_SIZE,
-                symbol=style.group_symbol(number),
-                pen=pg.mkPen(style.INK, width=0.8),
-                brush=pg.mkBrush(style.group_colour(number)),
+                **style.group_marker(number),
                 hoverable=True,
                 tip=lambda x, y, data: f"{data}",
             )
@@ -102,12 +100,9 @@ class ReadingsDotPlot(ChartFrame):
 
     def show_result(self, result, analysis: Analysis) -> None:
         """Draw the readings behind ``result`` (a planning result has none: a note says so)."""
-        view = readings_view(result, analysis)
+        view = self._readings_to_draw(result, analysis)
         if view is None:
-            self.clear()
-            self._show_note("A planning question has no readings to show yet.")
             return
-        self._hide_note()
         self.view = view
         positions = []
         for index, (name, values) in enumerate(zip(view.names, view.values)):

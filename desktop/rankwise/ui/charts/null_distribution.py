@@ -12,6 +12,7 @@ from scipy import stats as scipy_stats
 from rankwise.stats import Analysis, PairedResult, SeveralGroupsResult, TwoGroupResult
 from rankwise.ui.charts import style
 from rankwise.ui.charts.chart_frame import ChartFrame
+from rankwise.wording.numbers import format_level, with_mark
 
 TOOLTIP = (
     "If the change did nothing, the test statistic would still vary from sample to sample: the "
@@ -88,6 +89,7 @@ class NullDistributionPlot(ChartFrame):
         self.plot_item.addItem(self._observed, ignoreBounds=True)
         self.shown: str = ""
         """What is drawn: "exact", "normal", "chi-square" or "" (nothing)."""
+        self._mark = "."
         self.clear()
 
     def clear(self) -> None:
@@ -103,6 +105,7 @@ class NullDistributionPlot(ChartFrame):
 
     def show_result(self, result, analysis: Analysis) -> None:
         """Draw the distribution behind ``result``'s p-value with its observed value."""
+        self._mark = analysis.decimal_mark
         if isinstance(result, (TwoGroupResult, PairedResult)):
             distribution = result.null_distribution
             if result.method == "exact" and distribution is not None:
@@ -131,7 +134,7 @@ class NullDistributionPlot(ChartFrame):
         self._label_axes(bottom=f"{distribution.statistic} (exact distribution if the change did nothing)",
                          left="Chance of each value (%)")
         self._set_legend([(self._bars, "if the change did nothing"),
-                          (self._region_bars, f"would count as a change at {result.alpha:g}")])
+                          (self._region_bars, self._counts_as_change(result.alpha))])
         self.plot_item.setRange(xRange=(x.min() - width, x.max() + width), yRange=(0, 100 * p.max() * 1.15),
                                 padding=0)
 
@@ -147,7 +150,7 @@ class NullDistributionPlot(ChartFrame):
         self._mark_observed(observed, label, float(grid.min()), float(grid.max()))
         self._label_axes(bottom=axis, left="Density")
         self._set_legend([(self._curve, "if the change did nothing"),
-                          (self._tails[0], f"would count as a change at {alpha:g}")])
+                          (self._tails[0], self._counts_as_change(alpha))])
         self.plot_item.setRange(xRange=(grid.min(), grid.max()), yRange=(0, density.max() * 1.15), padding=0)
 
     def _show_normal(self, result) -> None:
@@ -187,4 +190,9 @@ class NullDistributionPlot(ChartFrame):
         self.legend.anchor(itemPos=corner, parentPos=corner, offset=(8, 8) if on_right else (-8, 8))
         self._observed.setVisible(True)
         self._observed.setValue(value)
-        self._observed.label.setFormat(f"observed: {label}".replace("{", "{{").replace("}", "}}"))
+        shown = with_mark(f"observed: {label}", self._mark)
+        self._observed.label.setFormat(shown.replace("{", "{{").replace("}", "}}"))
+
+    def _counts_as_change(self, alpha: float) -> str:
+        """The legend entry of the shaded region, with the significance level."""
+        return with_mark(f"would count as a change at {format_level(alpha)}", self._mark)

@@ -26,7 +26,7 @@ class PowerCurvePlot(ChartFrame):
             tooltip=TOOLTIP,
             idle_note="For a planning question, the chance of detecting the shift appears here.",
             bottom="Parts per group",
-            left="Chance of detecting the shift (%)",
+            left="Chance to detect it (%)",
             legend_corner="bottom-right",
         )
         self._curve = pg.PlotDataItem(pen=pg.mkPen(style.OBSERVED_COLOUR, width=2.5), symbol="o",
@@ -88,6 +88,6 @@ class PowerCurvePlot(ChartFrame):
             self._simulated.setData([], [])
         self._set_legend(entries)
         self._label_axes(bottom="Pairs of readings" if result.paired else "Parts in group A",
-                         left="Chance of detecting the shift (%)")
+                         left="Chance to detect it (%)")
         self.plot_item.setRange(xRange=(max(0.0, sizes.min() - 1), max(sizes.max(), result.n_a) + 1),
                                 yRange=(0, 104), padding=0)

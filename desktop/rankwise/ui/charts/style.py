@@ -41,6 +41,11 @@ def group_colour(index: int) -> QColor:
     return QColor(GROUP_COLOURS[index % len(GROUP_COLOURS)])
 
 
+def group_marker(index: int) -> dict:
+    """The marker of group ``index``: its shape, outline and fill, as keyword arguments of a scatter item."""
+    return {"symbol": group_symbol(index), "pen": pg.mkPen(INK, width=0.8), "brush": pg.mkBrush(group_colour(index))}
+
+
 def group_symbol(index: int) -> str:
     """The pyqtgraph marker code of the group at ``index`` (cycles past the last shape)."""
     return GROUP_SYMBOLS[index % len(GROUP_SYMBOLS)]

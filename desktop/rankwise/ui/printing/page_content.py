@@ -103,7 +103,8 @@ def _group_rows(result, view: ReadingsView | None) -> tuple[tuple[GroupRow, ...]
             n=f"{summary.n}{dropped}",
             median=view.format(summary.median),
             quartiles=f"{view.format(summary.q1)} – {view.format(summary.q3)}",
-            ranks="" if rank is None else f"{rank:g}" if heading == "rank sum" else f"{rank:.2f}",
+            ranks="" if rank is None else with_mark(f"{rank:g}" if heading == "rank sum" else f"{rank:.2f}",
+                                                     view.decimal_mark),
         ))
     return tuple(rows), heading
 
