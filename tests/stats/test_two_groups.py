@@ -163,16 +163,49 @@ def test_effect_sizes_by_counting_all_pairs():
     assert result.rank_biserial == pytest.approx(greater - less, abs=1e-12)
 
 
-def test_shift_and_interval_with_ties_are_the_moses_order_statistics():
-    """With ties the interval uses the same order statistics as without: D_(C+1) and D_(mn-C) of
-    all sorted differences (brute force), C = critical_u at 1 - confidence."""
+def _enumerated_two_sided_p(a, b):
+    """Exact two-sided p by brute-force enumeration of every split of the combined readings into
+    len(a) + len(b), mid-ranks by scipy.stats.rankdata, doubling the smaller tail."""
+    combined = np.concatenate([a, b])
+    ranks = scipy.stats.rankdata(combined)
+    observed = ranks[: len(a)].sum()
+    sums = np.array([ranks[list(chosen)].sum() for chosen in itertools.combinations(range(len(combined)), len(a))])
+    return min(1.0, 2 * min(np.mean(sums <= observed + 1e-9), np.mean(sums >= observed - 1e-9)))
+
+
+def test_with_ties_the_interval_inverts_the_exact_test_as_enumeration_does():
+    """Brute-force inversion: every shift on a quarter-step grid of the gauge (which holds every
+    pairwise difference and points inside every gap between them) is tested by enumerating all
+    C(13, 7) splits; the interval is the closed hull of the shifts with p > 0.10. Narrower than the no-ties
+    Moses order statistics D_(C+1), D_(mn-C), which it lies inside."""
+    a, b = np.array(TIE_HEAVY_A), np.array(TIE_HEAVY_B)
+    shifts = np.arange(-0.6, 0.8001, 0.025)
+    kept = [d for d in shifts if _enumerated_two_sided_p(np.round(a * 40), np.round((b - d) * 40)) > 0.10]
+    # The closed hull: a kept shift inside a gap brings in the differences (tenths) on either side.
+    hull = (np.floor(min(kept) * 10 + 1e-6) / 10, np.ceil(max(kept) * 10 - 1e-6) / 10)
+    result = compare_two(a, b, confidence=0.90)
+    assert tuple(result.shift_ci) == pytest.approx(hull, abs=1e-9)
+    assert "test inversion" in result.shift_ci.method
+    every = np.sort((b[None, :] - a[:, None]).ravel())
+    c = critical_u(7, 6, 0.10)
+    moses = (every[c], every[every.size - 1 - c])
+    assert moses[0] - 1e-9 <= result.shift_ci.low and result.shift_ci.high <= moses[1] + 1e-9
+    assert result.shift_ci.high - result.shift_ci.low < moses[1] - moses[0]
+
+
+def test_with_ties_and_no_room_for_the_inversion_the_moses_order_statistics_stay(monkeypatch):
+    """Where the inversion is not affordable the interval uses the no-ties order statistics D_(C+1)
+    and D_(mn-C) of all sorted differences (brute force), C = critical_u at 1 - confidence, and says so."""
+    import rankwise.stats.shift_inversion as shift_inversion
+
+    monkeypatch.setattr(shift_inversion, "INVERSION_WORK", 0)
     a, b = np.array(TIE_HEAVY_A), np.array(TIE_HEAVY_B)
     every = np.sort((b[None, :] - a[:, None]).ravel())
     c = critical_u(7, 6, 0.10)
     result = compare_two(a, b, confidence=0.90)
     assert result.shift == pytest.approx(np.median(every), abs=1e-12)
     assert tuple(result.shift_ci) == pytest.approx((every[c], every[every.size - 1 - c]), abs=1e-12)
-    assert "readings tie" in result.shift_ci.method
+    assert "readings tie" in result.shift_ci.method and "conservative" in result.shift_ci.method
 
 
 # --- equivalence within a margin -----------------------------------------------------------
