@@ -232,7 +232,7 @@ class RankTable(QWidget):
             self.sums.setText(
                 f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus, mark)}, "
                 f"of the negative ones (W−) {format_count(result.w_minus, mark)}; "
-                f"{result.n_zero} pair(s) with no difference ({result.zero_method} convention)."
+                f"{_no_difference_words(result)}."
             )
         else:
             self.clear("The planning question uses no readings, so there is nothing to rank.")
@@ -241,3 +241,11 @@ class RankTable(QWidget):
             self._sized_for = self.model.headers
             self.view.resizeColumnsToContents()
 
+
+def _no_difference_words(result: PairedResult) -> str:
+    """How many pairs read the same both times, and what the ranking did with them."""
+    if result.n_zero == 0:
+        return "no pair read the same both times"
+    pairs = "1 pair" if result.n_zero == 1 else f"{result.n_zero} pairs"
+    treated = "left out before ranking" if result.zero_method == "wilcox" else "kept in the ranking with no sign (Pratt)"
+    return f"{pairs} read the same both times, {treated}"
