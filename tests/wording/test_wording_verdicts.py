@@ -214,3 +214,10 @@ def test_a_plan_for_the_same_parts_measured_twice_speaks_of_the_spread_of_the_di
     assert numbers["spread"].label == "Spread of the differences (standard deviation)"
     assert numbers["shift"].label == "Change per part worth detecting"
     assert "n_b" not in numbers
+
+
+def test_several_groups_significant_outcome_says_so_once():
+    """Zar (2010) pond pH: tie-corrected H = 11.94, df 3, significant at 5 % (checks.md, H from memory there)."""
+    verdict = describe(compare_several(ZAR_PONDS), several_analysis(ZAR_PONDS))
+    assert verdict.sentences[0].startswith("The difference among the groups is significant at the 5 % level (")
+    assert verdict.headline not in verdict.sentences[0]

@@ -31,7 +31,7 @@ def describe_several(result: SeveralGroupsResult, analysis: Analysis) -> Verdict
                              "for their number (Holm).")
     else:
         headline = f"No difference among the {k} groups was shown."
-        sentences.append(f"The difference among the groups is significant at {level_phrase(result.alpha)} ({test}).")
+        sentences.append(f"{headline[:-1]} at {level_phrase(result.alpha)} ({test}).")
         sentences.append("This does not show that the groups are the same.")
     return cautioned_verdict(headline, sentences, _method_note(result), _assumption_notes(result, analysis))
 
