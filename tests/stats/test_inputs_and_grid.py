@@ -53,3 +53,16 @@ def test_resolutions_of_typed_decimals_and_of_continuous_readings():
     many = np.round(np.random.default_rng(4).normal(size=200_000), 1)
     many[-1] = 0.123
     assert find_grid(many).decimals == 3
+
+
+def test_the_callers_readings_are_never_changed():
+    """Finite numeric arrays are used without a copy; every step after the check only reads them."""
+    from rankwise.stats import compare_two
+
+    a = np.round(np.random.default_rng(8).normal(5.0, 1.0, 40), 1)
+    b = a[::-1] + 0.3
+    kept_a, kept_b = a.copy(), b.copy()
+    a.flags.writeable = False
+    compare_two(a, b, margin=0.5)
+    np.testing.assert_array_equal(a, kept_a)
+    np.testing.assert_array_equal(b, kept_b)
