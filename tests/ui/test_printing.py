@@ -262,3 +262,35 @@ def test_rendered_pages_are_saved_for_looking_at(qapp, tmp_path, case):
         stem = SCREENSHOTS / path.stem
         subprocess.run(["pdftoppm", "-png", "-r", "60", str(path), str(stem)], check=True, timeout=60)
         assert sorted(SCREENSHOTS.glob(f"{path.stem}*.png")) == [SCREENSHOTS / f"{path.stem}-1.png"]
+
+
+def comma_record() -> ResultRecord:
+    """The roughness readings typed with decimal commas on a sheet that reads commas (invented readings)."""
+    columns = {"Wheel A (current)": "0,82 0,85 0,85 0,88 0,90 0,91 0,91 0,93 0,87 0,86".split(),
+               "Wheel B (new supplier)": "0,88 0,92 0,95 0,95 0,97 0,99 1,02 0,91 0,94".split()}
+    sheet = ReadingSheet([GroupColumn(name, "µm", 0.6, 1.2, None) for name in columns], decimal=",")
+    for group, texts in enumerate(columns.values()):
+        for row, text in enumerate(texts):
+            sheet.set_text(group, row, text)
+    analysis = sheet.to_analysis(Question.TWO_GROUPS, Settings(characteristic="Roughness Ra"))
+    a, b = analysis.groups
+    result = compare_two(a.values, b.values, name_a=a.name, name_b=b.name)
+    return ResultRecord.now(analysis, sheet.snapshot(), result, signed())
+
+
+def test_a_page_typed_with_decimal_commas_writes_every_number_with_commas(qapp, tmp_path):
+    from rankwise.ui.printing.page_chart import tick_text
+    from rankwise.ui.printing.page_content import gather
+
+    record = comma_record()
+    assert record.analysis.decimal_mark == ","
+    content = gather(record, fingerprint(record))
+    shown = [content.question, content.measured, content.verdict.headline, *content.verdict.sentences,
+             *content.notes, *(n.text for n in content.numbers),
+             *(f"{g.median} {g.quartiles} {g.ranks}" for g in content.groups)]
+    assert [text for text in shown if re.search(r"\d\.\d", text)] == []
+    assert "LSL 0,60" in content.measured
+    assert tick_text(0.8, [0.6, 0.8, 1.0], ",") == "0,8"
+    path = tmp_path / "comma.pdf"
+    write_verdict_pdf(path, record, "A4")
+    assert "LSL 0,60" in page_text(path)

@@ -12,6 +12,7 @@ from rankwise.stats import PlanResult
 from rankwise.ui.charts import style
 from rankwise.ui.charts.readings_view import ReadingsView, stacked_offsets
 from rankwise.ui.printing.page_text import line_height, one_line, text_width
+from rankwise.wording.numbers import with_mark
 
 FRAME_COLOUR = "#9A9A9A"
 GRID_COLOUR = "#E3E3E3"
@@ -33,11 +34,12 @@ def nice_ticks(low: float, high: float, count: int = 5) -> list[float]:
     return ticks
 
 
-def tick_text(value: float, ticks: list[float]) -> str:
-    """A tick label with just enough decimals to show the step between ticks exactly."""
+def tick_text(value: float, ticks: list[float], mark: str = ".") -> str:
+    """A tick label with just enough decimals to show the step between ticks exactly, written
+    with the decimal ``mark`` of the readings."""
     step = abs(ticks[1] - ticks[0]) if len(ticks) > 1 else 1.0
     decimals = next(d for d in range(0, 10) if abs(round(step, d) - step) <= step * 1e-9 or d == 9)
-    return f"{value:.{decimals}f}"
+    return with_mark(f"{value:.{decimals}f}", mark)
 
 
 def draw_marker(painter: QPainter, index: int, centre: QPointF, size: float) -> None:
@@ -52,11 +54,11 @@ class _Axes:
     """A plot frame inside a rectangle: value axis on the left, ticks, faint grid."""
 
     def __init__(self, painter: QPainter, rect: QRectF, font: QFont, y_low: float, y_high: float,
-                 right_space: float, bottom_space: float, k: float) -> None:
+                 right_space: float, bottom_space: float, k: float, mark: str = ".") -> None:
         self.painter, self.font, self.k = painter, font, k
         device = painter.device()
         self.ticks = [t for t in nice_ticks(y_low, y_high) if y_low <= t <= y_high]
-        labels = [tick_text(t, self.ticks) for t in self.ticks]
+        labels = [tick_text(t, self.ticks, mark) for t in self.ticks]
         left_space = max((text_width(text, font, device) for text in labels), default=0.0) + 5 * k
         top = rect.top() + line_height(font, device) * 0.6
         self.plot = QRectF(rect.left() + left_space, top, rect.width() - left_space - right_space,
@@ -106,7 +108,7 @@ def draw_readings(painter: QPainter, rect: QRectF, view: ReadingsView, font: QFo
     pad = (high - low) * 0.07 or max(abs(high) * 0.05, 1e-6)
     right_space = max((text_width(label, font, device) for label, _, _ in limits), default=0.0) + 4 * k
     axes = _Axes(painter, rect, font, low - pad, high + pad, right_space,
-                 line_height(font, device) * 1.5, k)
+                 line_height(font, device) * 1.5, k, view.decimal_mark)
     axes.draw_frame()
     plot = axes.plot
     groups = len(view.names)
