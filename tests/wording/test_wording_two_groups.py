@@ -75,8 +75,8 @@ def test_unequal_shapes_speak_of_tendency_and_point_to_brunner_munzel():
                                   alternative="b-less")
     assert result.shape is not None and result.shape.differ
     assert verdict.headline == "Treated tends to read lower than Control."
-    assert "Brunner-Munzel" in verdict.sentences[1]
-    assert verdict.sentences[2] == "The difference is significant at the 5 % level (p = 0.0186, one-sided)."
+    assert verdict.sentences[1] == "The difference is significant at the 5 % level (p = 0.0186, one-sided)."
+    assert "Brunner-Munzel" in verdict.sentences[2]
     assert "median" not in verdict.headline
 
 

@@ -42,10 +42,10 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
     if result.significant:
         headline = f"{b} {'tends to read' if stochastic else 'reads'} {higher_or_lower(b_higher)} than {a}."
         sentences.append(_significant_sentence(result, stochastic, b_higher, shift_decimals, unit))
-        if stochastic:
-            sentences.append(_stochastic_sentence(result))
         sentences.append(outcome_sentence("The difference is significant", result.p_value, result.alpha,
                                           result.alternative))
+        if stochastic:
+            sentences.append(_stochastic_sentence(result))
     else:
         headline = not_shown_headline(result.alternative, a, b, "difference")
         sentences.append(outcome_sentence(headline[:-1], result.p_value, result.alpha, result.alternative))
