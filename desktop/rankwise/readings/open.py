@@ -8,6 +8,7 @@ returned so the open dialog can show them and the user can change them.
 from __future__ import annotations
 
 import codecs
+import dataclasses
 import os
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
@@ -27,6 +28,7 @@ from rankwise.readings.layout import (
 )
 from rankwise.readings.parse import check_decimal
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
+from rankwise.readings.title_block import TitleBlockDetails, read_title_block
 
 PREVIEW_ROWS = 20
 """Rows of the file shown in the open dialog's preview."""
@@ -250,6 +252,12 @@ def _read_groups(
             f"'{path.name}' holds no readings in the chosen columns; choose the column that holds the numbers."
         )
     notes = _notes(shape, table, choice, groups, unlabelled)
+    title = read_title_block(table.rows[: max(shape.header_row, 0)], table.decimal)
+    if title.unit and not all(g.unit for g in groups):
+        notes.append(f"Unit taken from the title block: {title.unit}.")
+    if title.note:
+        notes.append(title.note)
+    groups = [_with_title_details(g, title) for g in groups]
     source = SourceInfo(
         path=str(path),
         layout=choice.layout,
@@ -262,6 +270,13 @@ def _read_groups(
         **table.source,
     )
     return ReadingSet(groups=tuple(groups), source=source, notes=tuple(notes))
+
+
+def _with_title_details(group: ReadingGroup, title: TitleBlockDetails) -> ReadingGroup:
+    """The group with the title block's limits and nominal, and its unit where the column names none."""
+    return dataclasses.replace(
+        group, unit=group.unit or title.unit, lsl=title.lsl, usl=title.usl, nominal=title.nominal
+    )
 
 
 def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingGroup:

@@ -21,13 +21,18 @@ class ReadingGroup:
         skipped: the cells with text that are not used, each with its row, column and reason.
         decimals: (property) the most decimals written in the group (the gauge's resolution), or None.
         cells: (property) every cell as read, blanks included, in file order.
-        unit: the readings' unit when the column title names one in brackets ("Force (kN)"), or "".
+        unit: the readings' unit when the column title names one in brackets ("Force (kN)"), or
+            the title block does; else "".
+        lsl, usl, nominal: specification limits and nominal stated in the file's title block, or None.
     """
 
     name: str
     values: np.ndarray
     skipped: tuple[SkippedCell, ...] = ()
     unit: str = ""
+    lsl: float | None = None
+    usl: float | None = None
+    nominal: float | None = None
     make_cells: Callable[[], tuple[Cell, ...]] = field(default=tuple, repr=False, compare=False)
     """Builds ``cells`` on first use (a million cells take time to build and are rarely all needed)."""
     make_decimals: Callable[[], int | None] = field(default=lambda: None, repr=False, compare=False)

@@ -124,7 +124,11 @@ class ReadingSheet:
     def from_reading_set(cls, reading_set: ReadingSet) -> ReadingSheet:
         """A sheet holding the groups of an opened file, cells as read, with the file's decimal mark and units."""
         return cls(
-            (GroupColumn(group.name, unit=group.unit, cells=list(group.cells)) for group in reading_set.groups),
+            (
+                GroupColumn(group.name, unit=group.unit, lsl=group.lsl, usl=group.usl, nominal=group.nominal,
+                            cells=list(group.cells))
+                for group in reading_set.groups
+            ),
             decimal=reading_set.source.decimal,
         )
 
