@@ -89,11 +89,25 @@ def test_the_analysis_writes_numbers_with_the_mark_the_readings_were_typed_with(
 
 
 def test_readings_without_decimals_leave_the_mark_to_the_machine(monkeypatch):
+    """With the sheet's mark on "auto" and no decimals typed, the machine's locale decides."""
+    from rankwise.readings import for_analysis
+
+    def whole_numbers_on_auto():
+        sheet = ReadingSheet(decimal="auto")
+        sheet.add_group("A")
+        sheet.paste_block(0, 0, [["12"], ["13"]])
+        return sheet
+
+    monkeypatch.setattr(for_analysis, "machine_decimal", lambda: ",")
+    assert whole_numbers_on_auto().to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == ","
+    monkeypatch.setattr(for_analysis, "machine_decimal", lambda: ".")
+    assert whole_numbers_on_auto().to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == "."
+
+
+def test_a_sheet_with_a_stated_mark_keeps_it_for_whole_numbers(monkeypatch):
     from rankwise.readings import for_analysis
 
     monkeypatch.setattr(for_analysis, "machine_decimal", lambda: ",")
-    assert make_sheet(["12", "13"]).to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == ","
-    monkeypatch.setattr(for_analysis, "machine_decimal", lambda: ".")
     assert make_sheet(["12", "13"]).to_analysis(Question.TWO_GROUPS, Settings()).decimal_mark == "."
 
 

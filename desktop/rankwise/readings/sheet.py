@@ -204,7 +204,7 @@ class ReadingSheet:
         chosen = range(len(self.groups)) if groups is None else [self._group_index(g) for g in groups]
         if len(set(chosen)) != len(chosen):
             raise ValueError(f"groups must not repeat a group; got {list(groups or [])}.")
-        return build_analysis([self.groups[g] for g in chosen], question, settings)
+        return build_analysis([self.groups[g] for g in chosen], question, settings, decimal=self._decimal)
 
     # ----- change notices ---------------------------------------------------------------------
 

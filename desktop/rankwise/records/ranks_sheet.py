@@ -55,13 +55,13 @@ def _headings(sheet: Worksheet, headings: Sequence[str]) -> None:
         fit_row_height(sheet, HEADING_ROW, heading, column_width(sheet, column))
 
 
-def _tie_text(rank: float, blocks: dict[float, TieBlock]) -> str:
+def _tie_text(rank: float, blocks: dict[float, TieBlock], mark: str) -> str:
     """ "tied: ranks 3 to 5 share 4", or "" for a reading without ties."""
     block = blocks.get(rank)
     if block is None:
         return ""
     return (f"tied: {block.count} readings share ranks {block.first_rank} to {block.last_rank}, "
-            f"each gets {format_count(block.mid_rank)}")
+            f"each gets {format_count(block.mid_rank, mark=mark)}")
 
 
 def _combined(sheet: Worksheet, names: Sequence[str], values: Sequence[Sequence[float]],
@@ -84,7 +84,7 @@ def _combined(sheet: Worksheet, names: Sequence[str], values: Sequence[Sequence[
         put(sheet, row, 2, value, value_format)
         put(sheet, row, 3, names[group], indent=True)
         put(sheet, row, 4, rank, RANK_FORMAT)
-        put(sheet, row, 5, _tie_text(rank, blocks), indent=True)
+        put(sheet, row, 5, _tie_text(rank, blocks, analysis.decimal_mark), indent=True)
         row += 1
     row += 1
     for column, heading in enumerate(("Group", "Readings", "Rank sum", "Average rank"), start=1):

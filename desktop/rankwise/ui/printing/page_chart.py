@@ -99,6 +99,20 @@ def _limit_labels(view: ReadingsView) -> list[tuple[str, float, QPen]]:
     return lines
 
 
+DENSE_GROUP = 60
+"""Above this many readings in a group, dots shrink with the group's size and medians go on top."""
+
+
+def _draw_medians(painter: QPainter, plot: QRectF, view: ReadingsView, axes: _Axes, slot: float, k: float) -> None:
+    """A bar at each group's median."""
+    median_pen = QPen(QColor(style.MEDIAN_COLOUR), 2.2 * k)
+    median_pen.setCapStyle(Qt.PenCapStyle.FlatCap)
+    painter.setPen(median_pen)
+    for index, median in enumerate(view.medians):
+        centre_x = plot.left() + (index + 0.5) * slot
+        painter.drawLine(QLineF(centre_x - 0.4 * slot, axes.y(median), centre_x + 0.4 * slot, axes.y(median)))
+
+
 def draw_readings(painter: QPainter, rect: QRectF, view: ReadingsView, font: QFont, k: float) -> None:
     """Dots per group (equal readings side by side), median bars, LSL/USL/nominal lines."""
     device = painter.device()
@@ -113,7 +127,9 @@ def draw_readings(painter: QPainter, rect: QRectF, view: ReadingsView, font: QFo
     plot = axes.plot
     groups = len(view.names)
     slot = plot.width() / groups
-    marker = min(6.0 * k, slot * 0.22)
+    largest = max((len(values) for values in view.values), default=1)
+    marker = max(1.2 * k, min(6.0 * k, slot * 0.22, 6.0 * k * math.sqrt(DENSE_GROUP / max(largest, 1))))
+    dense = largest > DENSE_GROUP
     painter.save()
     painter.setClipRect(plot.adjusted(-marker, -marker, marker, marker))
     for label, value, pen in limits:
@@ -129,15 +145,13 @@ def draw_readings(painter: QPainter, rect: QRectF, view: ReadingsView, font: QFo
         painter.setPen(QPen(QColor("#A0A0A0"), 0.5 * k))
         for first, second in zip(centres[0], centres[1]):
             painter.drawLine(QLineF(first, second))
-    median_pen = QPen(QColor(style.MEDIAN_COLOUR), 2.2 * k)
-    median_pen.setCapStyle(Qt.PenCapStyle.FlatCap)
-    for index, median in enumerate(view.medians):
-        painter.setPen(median_pen)
-        centre_x = plot.left() + (index + 0.5) * slot
-        painter.drawLine(QLineF(centre_x - 0.4 * slot, axes.y(median), centre_x + 0.4 * slot, axes.y(median)))
+    if not dense:
+        _draw_medians(painter, plot, view, axes, slot, k)
     for index, points in enumerate(centres):
         for point in points:
             draw_marker(painter, index, point, marker)
+    if dense:
+        _draw_medians(painter, plot, view, axes, slot, k)
     painter.restore()
     painter.setFont(font)
     half = line_height(font, device) / 2

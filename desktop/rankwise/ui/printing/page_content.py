@@ -10,7 +10,7 @@ from rankwise.records.signoff import SignOff
 from rankwise.stats import PairedResult, PlanResult, SeveralGroupsResult, TwoGroupResult
 from rankwise.ui.charts.readings_view import ReadingsView, readings_view
 from rankwise.wording import QUESTION_TITLES, KeyNumber, Verdict, describe, describe_question, key_numbers
-from rankwise.wording.numbers import with_mark
+from rankwise.wording.numbers import format_count, with_mark
 
 PER_GROUP_KEY = re.compile(r"^(n|n_dropped|median|q1|q3|rank_sum|mean_rank)_(a|b|\d+)$")
 """Key numbers that the page shows in its groups table instead of the key-number list."""
@@ -69,9 +69,12 @@ class PageContent:
 
 def _measured_line(view: ReadingsView | None, analysis) -> str:
     """'Measured: Ra (µm) · LSL 0.70 · USL 1.40 · nominal 1.00' (whatever is known)."""
-    characteristic = analysis.settings.characteristic or "not named"
+    characteristic = analysis.settings.characteristic
     unit = next((g.unit for g in analysis.groups if g.unit), "")
-    parts = [f"Measured: {characteristic}" + (f" ({unit})" if unit else "")]
+    if characteristic:
+        parts = [f"Measured: {characteristic}" + (f" ({unit})" if unit else "")]
+    else:
+        parts = [f"Readings in {unit}" if unit else "Characteristic and unit not given"]
     if view is not None:
         for key, title in (("lsl", "LSL"), ("usl", "USL"), ("nominal", "nominal")):
             value = getattr(view, key)
@@ -103,8 +106,8 @@ def _group_rows(result, view: ReadingsView | None) -> tuple[tuple[GroupRow, ...]
             n=f"{summary.n}{dropped}",
             median=view.format(summary.median),
             quartiles=f"{view.format(summary.q1)} – {view.format(summary.q3)}",
-            ranks="" if rank is None else with_mark(f"{rank:g}" if heading == "rank sum" else f"{rank:.2f}",
-                                                     view.decimal_mark),
+            ranks="" if rank is None else (format_count(rank, mark=view.decimal_mark) if heading == "rank sum"
+                                           else with_mark(f"{rank:.2f}", view.decimal_mark)),
         ))
     return tuple(rows), heading
 

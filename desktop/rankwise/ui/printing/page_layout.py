@@ -176,8 +176,8 @@ class _Composer:
             return y
         y += self.pt(4)
         row_height = line_height(self.fonts["small"], self.device) * 1.18
-        columns = (("Group", 0.50), ("n", 0.10), ("median", 0.12), ("quartiles", 0.16),
-                   (c.ranks_heading, 0.12))
+        columns = (("Group", 0.42), ("n", 0.16), ("median", 0.12), ("quartiles", 0.16),
+                   (c.ranks_heading, 0.14))
         lefts, position = [], x
         for _, share in columns:
             lefts.append(position)
