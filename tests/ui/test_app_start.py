@@ -35,7 +35,7 @@ _START_AND_REPORT = """
     def report():
         windows = [w for w in application.topLevelWidgets() if w.objectName() == "rankwiseMainWindow"]
         waited.append(1)
-        if windows and (windows[0].sheet.row_count > 0 or len(waited) > 40 or "--empty" in sys.argv):
+        if windows and (windows[0].sheet.row_count > 0 or len(waited) > 300 or "--empty" in sys.argv):
             window = windows[0]
             print("VISIBLE", window.isVisible())
             print("GROUPS", "|".join(window.sheet.group_names))
