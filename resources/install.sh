@@ -29,7 +29,7 @@ done
 
 # Debian packages: the libraries Qt loads (window and offscreen), the venv module, PDF tools.
 missing=""
-need_lib() { ldconfig -p 2>/dev/null | grep -q "$1" || missing="$missing $2"; }
+need_lib() { { ldconfig -p 2>/dev/null || /sbin/ldconfig -p 2>/dev/null; } | grep -q "$1" || missing="$missing $2"; }
 need_lib libEGL.so.1 libegl1
 need_lib libGL.so.1 libgl1
 need_lib libxkbcommon.so.0 libxkbcommon0

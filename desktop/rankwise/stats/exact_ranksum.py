@@ -52,10 +52,6 @@ class RankSumDistribution:
         """P(2 U_a >= observed)."""
         return float(self.probabilities[self.twice_u >= twice_u_observed].sum())
 
-    def exactly(self, twice_u_observed: int) -> float:
-        """P(2 U_a == observed)."""
-        return float(self.probabilities[self.twice_u == twice_u_observed].sum())
-
 
 def rank_sum_distribution(doubled_ranks: np.ndarray, n_a: int, monitor: Monitor = SILENT) -> RankSumDistribution:
     """Exact distribution of 2 U_a when n_a of the readings with these doubled mid-ranks form group A.
