@@ -65,7 +65,7 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
                     f"readings of {a} and {result.n_b} of {b}.")
 
     return cautioned_verdict(headline, sentences, _method_note(result),
-                             _assumption_notes(result, analysis, b_higher))
+                             _assumption_notes(result, analysis))
 
 
 def _impossible_sentence(result: TwoGroupResult) -> str:
@@ -113,9 +113,8 @@ def _method_note(result: TwoGroupResult) -> str:
     return "; ".join(parts) + "."
 
 
-def _assumption_notes(result: TwoGroupResult, analysis: Analysis, b_higher: bool) -> tuple[str, ...]:
+def _assumption_notes(result: TwoGroupResult, analysis: Analysis) -> tuple[str, ...]:
     """Shape check, conservativeness of the exact test, warnings and the readings' own notes."""
-    a, b = result.name_a, result.name_b
     notes = [INDEPENDENCE_NOTE]
     shape = result.shape
     if shape is None:
@@ -125,8 +124,8 @@ def _assumption_notes(result: TwoGroupResult, analysis: Analysis, b_higher: bool
         tests = (f"{method_and_p(shape.dispersion_method, shape.dispersion_p, result.alpha)}; "
                  f"{method_and_p(shape.shape_method, shape.shape_p, result.alpha)}")
         if shape.differ:
-            notes.append(f"The groups' spreads or shapes differ ({tests}): read the result as \"{b} "
-                         f"tends to read {higher_or_lower(b_higher)} than {a}\", not as a move of the median.")
+            # The statistics' own warning (among result.warnings, added below) says how to read it.
+            notes.append(f"Spreads and shapes compared after aligning the medians: {tests}.")
         else:
             notes.append(f"The groups' spreads and shapes look alike ({tests}), so the shift can be "
                          f"read as a move of the median.")
