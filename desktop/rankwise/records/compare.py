@@ -10,12 +10,13 @@ from typing import Any
 
 from openpyxl import Workbook, load_workbook
 from openpyxl.worksheet.worksheet import Worksheet
+from openpyxl.writer.excel import save_workbook
 
 
 def saved_and_reloaded(workbook: Workbook) -> Workbook:
     """``workbook`` as a spreadsheet file would give it back (numbers, dates and formats as stored)."""
     buffer = io.BytesIO()
-    workbook.save(buffer)
+    save_workbook(workbook, buffer)
     buffer.seek(0)
     return load_workbook(buffer)
 
@@ -38,11 +39,21 @@ def sheet_differences(expected: Worksheet, actual: Worksheet) -> Iterator[str]:
             want = expected.cell(row=row, column=column)
             got = actual.cell(row=row, column=column)
             if want.value != got.value:
-                yield (f"Sheet '{actual.title}', cell {got.coordinate}: the signed data give "
-                       f"{_shown(want.value)}, the sheet now shows {_shown(got.value)}.")
+                yield value_changed(actual.title, got.coordinate, want.value, got.value)
             elif want.value is not None and want.number_format != got.number_format:
-                yield (f"Sheet '{actual.title}', cell {got.coordinate}: the way the value is shown was "
-                       f"changed from '{want.number_format}' to '{got.number_format}'.")
+                yield format_changed(actual.title, got.coordinate, want.number_format, got.number_format)
+
+
+def value_changed(title: str, coordinate: str, signed: Any, now: Any) -> str:
+    """Plain words for a cell whose value differs from what was signed."""
+    return (f"Sheet '{title}', cell {coordinate}: the signed data give "
+            f"{_shown(signed)}, the sheet now shows {_shown(now)}.")
+
+
+def format_changed(title: str, coordinate: str, signed_format: str, format_now: str) -> str:
+    """Plain words for a cell whose value is shown differently from when it was signed."""
+    return (f"Sheet '{title}', cell {coordinate}: the way the value is shown was "
+            f"changed from '{signed_format}' to '{format_now}'.")
 
 
 def data_differences(stored: Any, recomputed: Any, path: str = "") -> Iterator[str]:

@@ -13,7 +13,7 @@ import scipy
 
 import rankwise
 from rankwise.readings import ReadingsError, SheetSnapshot
-from rankwise.records.canonical import decode, encode, sha256_hex
+from rankwise.records.canonical import decode, encode
 from rankwise.records.errors import RecordError
 from rankwise.records.signoff import SignOff
 from rankwise.stats.analysis import Analysis
@@ -126,5 +126,8 @@ def with_later_fields(analysis: Any) -> Any:
 
 
 def fingerprint(record: ResultRecord) -> str:
-    """SHA-256 (hex) over the canonical form of the readings, settings, result and sign-off."""
-    return sha256_hex(record_to_data(record))
+    """SHA-256 (hex) over the canonical form of the readings, settings, result and sign-off, and of
+    what the result workbook's visible sheets show: the fingerprint its workbook carries."""
+    from rankwise.records.workbook import record_fingerprint  # the workbook module builds on this one
+
+    return record_fingerprint(record)

@@ -5,11 +5,14 @@ from __future__ import annotations
 import os
 from dataclasses import dataclass
 from itertools import islice
+from typing import Any
+
+from openpyxl.worksheet.worksheet import Worksheet
 
 import rankwise
 from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.records.canonical import canonical_bytes, encode, sha256_hex
-from rankwise.records.compare import data_differences, saved_and_reloaded, sheet_differences
+from rankwise.records.compare import data_differences, sheet_differences
 from rankwise.records.errors import RecordError
 from rankwise.records.record import (
     ResultRecord,
@@ -18,7 +21,15 @@ from rankwise.records.record import (
     record_to_data,
     with_later_fields,
 )
-from rankwise.records.workbook import PROGRAM_SHEET, build_workbook, load_workbook_safely, read_program_data
+from rankwise.records.sheet_listing import listing_differences
+from rankwise.records.workbook import (
+    PROGRAM_SHEET,
+    VISIBLE_SHEETS_KEY,
+    load_workbook_safely,
+    read_program_data,
+    read_signed_listing,
+    rebuilt_visible_sheets,
+)
 from rankwise.stats.analysis import GroupReadings
 from rankwise.stats.results import Result
 from rankwise.stats.service import run
@@ -59,7 +70,10 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
 
     The fingerprint is recomputed over the stored data; the readings as entered are read again
     into the analysis and the result recomputed with ``rankwise.stats.service.run``; every visible
-    sheet is rebuilt from the stored data and compared cell by cell with the file.
+    cell of the file is compared with the listing of what the sheets showed when the record was
+    written, whatever version wrote it. When this program and these libraries wrote the record, or
+    it has no listing (written before listings were kept), the visible sheets are also rebuilt from
+    the stored data and compared cell by cell with the file.
     """
     try:
         workbook = load_workbook_safely(path)
@@ -80,7 +94,8 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
     except RecordError as error:
         return _changed(differences + [f"The program data were edited so that they no longer form a record: {error}"],
                         stored_fingerprint)
-    as_read = {**data, "analysis": with_later_fields(data.get("analysis"))}
+    as_read = {key: value for key, value in data.items() if key != VISIBLE_SHEETS_KEY}
+    as_read["analysis"] = with_later_fields(data.get("analysis"))
     if canonical_bytes(record_to_data(record)) != canonical_bytes(as_read):
         differences.append("The program data hold entries that do not belong to a record.")
 
@@ -95,14 +110,19 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
             f"from Rankwise {record.program_version}, which wrote the record: " + "; ".join(recomputed[:5])
         )
 
-    expected = saved_and_reloaded(build_workbook(record))
-    visible_expected = [s.title for s in expected.worksheets if s.title != PROGRAM_SHEET]
-    visible_actual = [s.title for s in workbook.worksheets if s.title != PROGRAM_SHEET]
-    if visible_expected != visible_actual:
-        differences.append(f"The sheets were changed: the record has {visible_expected}, the file has {visible_actual}.")
-    for title in visible_expected:
-        if title in workbook.sheetnames:
-            differences.extend(islice(sheet_differences(expected[title], workbook[title]), MAX_LISTED + 1))
+    visible_sheets = [sheet for sheet in workbook.worksheets if sheet.title != PROGRAM_SHEET]
+    signed_digest = data.get(VISIBLE_SHEETS_KEY)
+    if signed_digest is not None:
+        differences.extend(_listing_check(workbook, signed_digest, visible_sheets, stored_fingerprint))
+    if signed_digest is None or _same_software(record):
+        differences.extend(_rebuilt_sheets_differences(record, stored_fingerprint, visible_sheets))
+    else:
+        notes.append(
+            f"Rankwise {rankwise.__version__} checked the visible sheets cell by cell against what they showed "
+            f"when Rankwise {record.program_version} wrote the record, and recomputed the figures from the "
+            f"readings; it did not rebuild the sheets with its own wording and layout."
+        )
+    differences = list(dict.fromkeys(differences))
 
     if differences:
         return _changed(differences, stored_fingerprint, record, notes)
@@ -117,6 +137,36 @@ def _changed(differences: list[str], fingerprint: str, record: ResultRecord | No
         listed.append(f"... and more differences beyond these {MAX_LISTED}.")
     return Verification("changed", "The record was changed after it was written.", tuple(listed),
                         tuple(notes or ()), fingerprint, record)
+
+
+def _listing_check(workbook, signed_digest: Any, visible_sheets: list[Worksheet], fingerprint: str) -> list[str]:
+    """The file's visible sheets against the listing of what they showed when the record was written;
+    the listing itself must still match the digest that the fingerprint covers."""
+    listing = read_signed_listing(workbook)
+    if listing is None:
+        return ["The program data were edited: the list of what the visible sheets showed when the record "
+                "was written is missing or damaged."]
+    differences = []
+    if sha256_hex(listing) != signed_digest:
+        differences.append("The program data were edited: the list of what the visible sheets showed when the "
+                           "record was written no longer matches its SHA-256, which the fingerprint covers.")
+    differences.extend(islice(listing_differences(listing, visible_sheets, fingerprint), MAX_LISTED + 1))
+    return differences
+
+
+def _rebuilt_sheets_differences(record: ResultRecord, fingerprint: str, visible_sheets: list[Worksheet]) -> list[str]:
+    """The file's visible sheets against the sheets this program builds from the stored data today."""
+    expected = rebuilt_visible_sheets(record, fingerprint)
+    expected_titles = expected.sheetnames
+    titles_now = [sheet.title for sheet in visible_sheets]
+    differences = []
+    if expected_titles != titles_now:
+        differences.append(f"The sheets were changed: the record has {expected_titles}, the file has {titles_now}.")
+    by_title = {sheet.title: sheet for sheet in visible_sheets}
+    for title in expected_titles:
+        if title in by_title:
+            differences.extend(islice(sheet_differences(expected[title], by_title[title]), MAX_LISTED + 1))
+    return differences
 
 
 def _readings_differences(record: ResultRecord) -> list[str]:

@@ -11,6 +11,7 @@ from openpyxl import Workbook, load_workbook
 
 from rankwise.records.atomic import write_atomically
 from rankwise.records.canonical import canonical_bytes, sha256_hex
+from rankwise.records.compare import saved_and_reloaded
 from rankwise.records.details_sheet import SHEET_TITLE as DETAILS_TITLE
 from rankwise.records.details_sheet import fill_details_sheet
 from rankwise.records.errors import RecordError
@@ -19,20 +20,53 @@ from rankwise.records.readings_sheet import SHEET_TITLE as READINGS_TITLE
 from rankwise.records.readings_sheet import fill_readings_sheet
 from rankwise.records.record import ResultRecord, record_from_data, record_to_data
 from rankwise.records.sheet_cells import put
+from rankwise.records.sheet_listing import pack_listing, sheet_listing, unpack_listing
 from rankwise.records.verdict_sheet import SHEET_TITLE as VERDICT_TITLE
 from rankwise.records.verdict_sheet import fill_verdict_sheet
 
 PROGRAM_SHEET = "Program data"
 PROGRAM_MARKER = "Rankwise result record: data for the program. Do not edit."
 """Cell A1 of the program sheet; a workbook without it is not a Rankwise record."""
+LISTING_MARKER = "What the visible sheets showed when the record was written (zlib, base64)."
+"""Cell B1 of the program sheet; B2 holds the number of parts, B3 onwards the packed listing."""
+VISIBLE_SHEETS_KEY = "visible_sheets_sha256"
+"""Key of the stored data that holds the SHA-256 of the visible sheets' listing (so the
+fingerprint covers it); a record written before listings were kept has no such key."""
 CHUNK = 30000
 """Characters of the stored JSON per cell (a spreadsheet cell holds at most 32,767)."""
+FINGERPRINT_STAND_IN = "#" * 64
+"""Written where the fingerprint goes while the listing is taken, then replaced by the fingerprint."""
 
 
 def build_workbook(record: ResultRecord) -> Workbook:
     """The whole workbook for ``record``: the visible sheets, protected, and the hidden program sheet."""
-    data = record_to_data(record)
+    workbook = _visible_workbook(record, FINGERPRINT_STAND_IN)
+    listing = sheet_listing(saved_and_reloaded(workbook).worksheets, FINGERPRINT_STAND_IN)
+    data = _stored_data(record, listing)
     fingerprint = sha256_hex(data)
+    fingerprint_title, fingerprint_coordinate = listing["fingerprint_cell"]
+    workbook[fingerprint_title][fingerprint_coordinate].value = fingerprint
+    _fill_program_sheet(workbook.create_sheet(PROGRAM_SHEET), data, fingerprint, pack_listing(listing))
+    for sheet in workbook.worksheets:
+        sheet.protection.sheet = True
+    workbook.security.lockStructure = True
+    return workbook
+
+
+def record_fingerprint(record: ResultRecord) -> str:
+    """The fingerprint that ``build_workbook`` writes for ``record``: SHA-256 over the stored data,
+    which hold the SHA-256 of the visible sheets' listing."""
+    workbook = saved_and_reloaded(_visible_workbook(record, FINGERPRINT_STAND_IN))
+    return sha256_hex(_stored_data(record, sheet_listing(workbook.worksheets, FINGERPRINT_STAND_IN)))
+
+
+def rebuilt_visible_sheets(record: ResultRecord, fingerprint: str) -> Workbook:
+    """The visible sheets this program writes for ``record`` showing ``fingerprint``, as a file gives them back."""
+    return saved_and_reloaded(_visible_workbook(record, fingerprint))
+
+
+def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
+    """A workbook holding only the visible sheets of ``record``, showing ``fingerprint``."""
     workbook = Workbook()
     verdict = workbook.active
     verdict.title = VERDICT_TITLE
@@ -40,15 +74,17 @@ def build_workbook(record: ResultRecord) -> Workbook:
     fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot)
     fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
     fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
-    _fill_program_sheet(workbook.create_sheet(PROGRAM_SHEET), data, fingerprint)
-    for sheet in workbook.worksheets:
-        sheet.protection.sheet = True
-    workbook.security.lockStructure = True
     return workbook
 
 
-def _fill_program_sheet(sheet, data: dict[str, Any], fingerprint: str) -> None:
-    """Marker, fingerprint, number of parts, and the canonical JSON cut into parts."""
+def _stored_data(record: ResultRecord, listing: dict[str, Any]) -> dict[str, Any]:
+    """The record's stored form with the SHA-256 of the visible sheets' listing beside it."""
+    return {**record_to_data(record), VISIBLE_SHEETS_KEY: sha256_hex(listing)}
+
+
+def _fill_program_sheet(sheet, data: dict[str, Any], fingerprint: str, listing_parts: list[str]) -> None:
+    """Column A: marker, fingerprint, number of parts, and the canonical JSON cut into parts.
+    Column B: marker, number of parts, and the packed listing of the visible sheets."""
     text = canonical_bytes(data).decode("utf-8")
     parts = [text[start:start + CHUNK] for start in range(0, len(text), CHUNK)] or [""]
     put(sheet, 1, 1, PROGRAM_MARKER)
@@ -56,6 +92,10 @@ def _fill_program_sheet(sheet, data: dict[str, Any], fingerprint: str) -> None:
     put(sheet, 3, 1, len(parts))
     for row, part in enumerate(parts, start=4):
         put(sheet, row, 1, part)
+    put(sheet, 1, 2, LISTING_MARKER)
+    put(sheet, 2, 2, len(listing_parts))
+    for row, part in enumerate(listing_parts, start=3):
+        put(sheet, row, 2, part)
     sheet.sheet_state = "veryHidden"
 
 
@@ -120,6 +160,16 @@ def read_program_data(workbook: Workbook) -> tuple[Any, str]:
         return json.loads(text), fingerprint
     except ValueError:
         return None, fingerprint
+
+
+def read_signed_listing(workbook: Workbook) -> dict[str, Any] | None:
+    """The listing of the visible sheets stored in a record workbook (see ``read_program_data``
+    for the check that it is one); None when it is missing or damaged."""
+    sheet = workbook[PROGRAM_SHEET]
+    count = sheet["B2"].value
+    if sheet["B1"].value != LISTING_MARKER or not isinstance(count, int) or count < 1:
+        return None
+    return unpack_listing(str(sheet.cell(row=row, column=2).value or "") for row in range(3, 3 + count))
 
 
 def read_record(path: str | os.PathLike[str]) -> ResultRecord:
