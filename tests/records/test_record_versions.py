@@ -217,3 +217,16 @@ def test_the_listing_holds_values_in_canonical_text_and_leaves_out_the_fingerpri
         assert unpack_listing(damaged) is None
     with pytest.raises(ValueError, match="fingerprint_stand_in must be in exactly one cell"):
         sheet_listing(book.worksheets, "no such text")
+
+
+def test_a_record_read_back_by_a_later_version_prints_the_fingerprint_it_was_signed_with(written, later_version):
+    """A reprint of a reopened record shows the workbook's fingerprint, not one rebuilt with today's layout."""
+    from rankwise.records import read_record
+    from rankwise.records.workbook import record_fingerprint
+
+    _, stored = read_program_data(load_workbook(written))
+    record = read_record(written)
+    assert record_fingerprint(record) != stored  # today's rewording would give another fingerprint
+    assert record.signed_fingerprint == stored and fingerprint(record) == stored
+    fresh = dataclasses.replace(record, signed_fingerprint=None)
+    assert fingerprint(fresh) == record_fingerprint(record)

@@ -3,7 +3,7 @@
 from __future__ import annotations
 
 import platform
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from datetime import datetime
 from typing import Any
 
@@ -45,6 +45,9 @@ class ResultRecord:
         program_version: Rankwise's version that wrote the record.
         library_versions: (name, version) of python, numpy, scipy and openpyxl.
         created_at: when the record was written (timezone-aware).
+        signed_fingerprint: the fingerprint the workbook carries, for a record read back from one
+            (so a reprint shows what was signed even if a later version lays the sheets out
+            differently); None for a record not yet written. Not part of the stored data.
     """
 
     analysis: Analysis
@@ -54,6 +57,7 @@ class ResultRecord:
     program_version: str
     library_versions: tuple[tuple[str, str], ...]
     created_at: datetime
+    signed_fingerprint: str | None = field(default=None, compare=False)
 
     @classmethod
     def now(cls, analysis: Analysis, snapshot: SheetSnapshot, result: Result,
@@ -128,6 +132,8 @@ def with_later_fields(analysis: Any) -> Any:
 def fingerprint(record: ResultRecord) -> str:
     """SHA-256 (hex) over the canonical form of the readings, settings, result and sign-off, and of
     what the result workbook's visible sheets show: the fingerprint its workbook carries."""
+    if record.signed_fingerprint:
+        return record.signed_fingerprint
     from rankwise.records.workbook import record_fingerprint  # the workbook module builds on this one
 
     return record_fingerprint(record)

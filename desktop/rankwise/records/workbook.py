@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import dataclasses
 import json
 import os
 from pathlib import Path
@@ -177,7 +178,7 @@ def read_record(path: str | os.PathLike[str]) -> ResultRecord:
 
     Raises ``RecordError`` in plain words for a file that is not a record or is damaged.
     """
-    data, _ = read_program_data(load_workbook_safely(path))
+    data, stored_fingerprint = read_program_data(load_workbook_safely(path))
     if data is None:
         raise RecordError("The record's program data are damaged and cannot be read back.")
-    return record_from_data(data)
+    return dataclasses.replace(record_from_data(data), signed_fingerprint=stored_fingerprint or None)
