@@ -165,3 +165,29 @@ def test_print_preview_draws_the_page(qtbot, window, answers, monkeypatch, tmp_p
     monkeypatch.setattr(dialogs, "show_print_preview", preview)
     window.records.print_preview()
     assert len(PdfReader(str(drawn)).pages) == 1
+
+
+REVIEW = Signature("R. Reviewer", "quality engineer", "accept the change", "Checked against the control plan.",
+                   datetime(2026, 3, 3, 14, 0, tzinfo=timezone.utc))
+
+
+def test_a_reopened_record_is_countersigned_later_and_checks_as_intact(qtbot, window, answers, monkeypatch, tmp_path):
+    """A quality engineer opens the technician's signed record, countersigns it, and the new record is intact."""
+    from rankwise.records.verify import verify_record
+
+    path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    reviewer = MainWindow(recovery=RecoveryFile(tmp_path / "reviewer-recovery.json"))
+    qtbot.addWidget(reviewer)
+    assert reviewer.open_path(path)
+    assert reviewer.records.countersign_action.isEnabled()
+    _sign_with(monkeypatch, REVIEW)
+    answers.save_path = tmp_path / "wheels-countersigned.xlsx"
+    assert reviewer.records.countersign()
+    countersigned = read_record(answers.save_path)
+    original = read_record(path)
+    assert countersigned.signoff.prepared == original.signoff.prepared
+    assert countersigned.signoff.reviewed == REVIEW
+    assert countersigned.result == original.result and countersigned.snapshot == original.snapshot
+    assert verify_record(answers.save_path).intact
+    assert not reviewer.records.countersign_action.isEnabled()
+    assert verify_record(path).intact  # the technician's record is untouched

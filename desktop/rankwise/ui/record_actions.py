@@ -1,5 +1,5 @@
-"""The window's record actions: sign and save the result workbook, start a new revision, check a
-signed record, and print or save the one-page verdict.
+"""The window's record actions: sign and save the result workbook, countersign a signed record,
+start a new revision, check a signed record, and print or save the one-page verdict.
 
 After signing, the analysis is read-only (the sheet and the question are locked); "Start a new
 revision" unlocks a copy whose next signature carries the next revision number.
@@ -31,6 +31,8 @@ class RecordActions(QObject):
         make = window.make_action
         self.sign_action = make("&Sign and save the result…", self.sign_and_save, "Ctrl+Shift+S",
                                 "Sign the verdict and save it as a result workbook with a fingerprint.")
+        self.countersign_action = make("Co&untersign (review and approve)…", self.countersign, None,
+                                       "Add the reviewer's signature to the signed record shown and save it.")
         self.revision_action = make("Start a &new revision", self.start_revision, None,
                                     "Unlock a copy of the signed analysis to change it; it gets the next revision number.")
         self.check_action = make("&Check a signed record…", self.check_record, None,
@@ -43,7 +45,7 @@ class RecordActions(QObject):
 
     def menu_actions(self) -> list[QAction | None]:
         """The Record menu, top to bottom; None is a separator."""
-        return [self.sign_action, self.revision_action, None, self.check_action, None,
+        return [self.sign_action, self.countersign_action, self.revision_action, None, self.check_action, None,
                 self.print_preview_action, self.print_action, self.pdf_action]
 
     # -- state -----------------------------------------------------------------------------------
@@ -57,6 +59,7 @@ class RecordActions(QObject):
         has_result = self.window.last_result is not None or self.is_signed
         self.sign_action.setEnabled(self.window.last_result is not None and not self.is_signed)
         self.revision_action.setEnabled(self.is_signed)
+        self.countersign_action.setEnabled(self.is_signed and self.signed_record.signoff.reviewed is None)
         for action in (self.print_preview_action, self.print_action, self.pdf_action):
             action.setEnabled(has_result)
 
@@ -94,7 +97,7 @@ class RecordActions(QObject):
         if self.window.last_result is None or self.window.runner.busy:
             dialogs.show_problem(self.window, "Nothing to sign yet", "Wait for the verdict to appear, then sign it.")
             return False
-        from rankwise.records import RecordError, ResultRecord, write_record
+        from rankwise.records import ResultRecord
         from rankwise.records.signoff import SignOff
         from rankwise.ui.signoff_dialog import SignOffDialog
 
@@ -114,6 +117,49 @@ class RecordActions(QObject):
             return False
         if path.suffix.lower() != ".xlsx":
             path = path.with_suffix(".xlsx")
+        if not self._write_asking_before_replacing(path, record):
+            return False
+        self._lock(record)
+        self.window.statusBar().showMessage(f"Signed and saved to {path}. The analysis is now read-only.", 10000)
+        return True
+
+    def countersign(self) -> bool:
+        """Add a reviewer's signature to the signed record shown and save it; True when saved.
+
+        The readings, the result and the first signature stay exactly as signed; the countersigned
+        workbook is a new record (its fingerprint covers both signatures).
+        """
+        record = self.signed_record
+        if record is None or record.signoff.reviewed is not None:
+            return False
+        import dataclasses
+        from datetime import datetime
+
+        from rankwise.ui.signoff_dialog import SignOffDialog
+
+        reviewed = SignOffDialog.ask(self.window, reviewing=True, prepared=record.signoff.prepared)
+        if reviewed is None:
+            return False
+        countersigned = dataclasses.replace(
+            record, signoff=dataclasses.replace(record.signoff, reviewed=reviewed),
+            created_at=datetime.now().astimezone(), signed_fingerprint=None)
+        stem = self.window.source_path.stem if self.window.source_path else "result"
+        path = dialogs.ask_save_path(self.window, "Save the countersigned result", f"{stem}-countersigned.xlsx",
+                                     dialogs.RECORD_FILTER)
+        if path is None:
+            return False
+        if path.suffix.lower() != ".xlsx":
+            path = path.with_suffix(".xlsx")
+        if not self._write_asking_before_replacing(path, countersigned):
+            return False
+        self._lock(countersigned)
+        self.window.statusBar().showMessage(f"Countersigned and saved to {path}.", 10000)
+        return True
+
+    def _write_asking_before_replacing(self, path: Path, record: ResultRecord) -> bool:
+        """Write ``record`` to ``path``; a signed record there is replaced only when the user agrees."""
+        from rankwise.records import RecordError, write_record
+
         try:
             write_record(path, record)
         except RecordError as error:
@@ -127,8 +173,6 @@ class RecordActions(QObject):
             except RecordError as second_error:
                 dialogs.show_problem(self.window, "Cannot save the signed result", str(second_error))
                 return False
-        self._lock(record)
-        self.window.statusBar().showMessage(f"Signed and saved to {path}. The analysis is now read-only.", 10000)
         return True
 
     def start_revision(self) -> None:
