@@ -63,8 +63,9 @@ def test_a_measured_reading_below_the_limit_still_ranks_above_the_censored():
 
 
 def test_mixed_detection_limits_ask_the_user_to_choose():
+    """The sheet's default; the choice itself is tested in test_censored_choice.py."""
     sheet = make_sheet(["<0.05", "0.12"], ["<0.1", "0.2"])
-    with pytest.raises(ReadingsError, match=r"different limits .*<0.1"):
+    with pytest.raises(ReadingsError, match=r"different limits .*Choose to treat them all as below the highest limit \(<0.1\)"):
         sheet.to_analysis(Question.TWO_GROUPS, Settings())
 
 

@@ -6,7 +6,7 @@ import math
 from collections.abc import Sequence
 from typing import TYPE_CHECKING
 
-from rankwise.readings.censored import common_limit_value
+from rankwise.readings.censored import censoring_for
 from rankwise.readings.cells import Cell, CellKind
 from rankwise.readings.parse import machine_decimal
 from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
@@ -16,20 +16,21 @@ if TYPE_CHECKING:
 
 
 def build_analysis(columns: Sequence[GroupColumn], question: Question, settings: Settings | None,
-                   decimal: str = "auto") -> Analysis:
+                   decimal: str = "auto", mixed_limits: str = "ask") -> Analysis:
     """The ``Analysis`` for these groups.
 
     Each group's values follow entry order; blanks, notes and unreadable entries become NaN (the
     statistics drop and count them). Censored readings with one common limit become one stand-in
     value below every measured reading (see ``rankwise.readings.censored``), with a note saying so;
-    mixed limits raise ``ReadingsError``. The notes also list the entries not used, by row.
+    mixed limits raise ``MixedLimitsError`` unless ``mixed_limits`` (the sheet's setting) is
+    "below-highest", which treats them all as below the highest limit. The notes also list the entries not used, by row.
     For the paired question every group is padded with NaN to the longest one, so that readings
     pair up by row and a missing partner shows as a blank in its row.
     ``decimal`` is the sheet's decimal setting; the analysis writes numbers for people with that
     mark, or with "auto" the mark the readings were typed with (see ``typed_decimal_mark``).
     """
     question = Question(question)
-    censoring = common_limit_value([(column.name, column.cells) for column in columns])
+    censoring = censoring_for([(column.name, column.cells) for column in columns], mixed_limits)
     length = max((len(column.cells) for column in columns), default=0) if question is Question.PAIRED else 0
     notes: list[str] = []
     groups = []
@@ -37,12 +38,13 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
         values = []
         decimals = None
         for cell in column.cells:
-            if cell.kind is CellKind.NUMBER:
+            stand_in = censoring is not None and censoring.stands_in_for(cell)
+            if stand_in:
+                values.append(censoring.stand_in)
+                decimals = max(decimals or 0, censoring.decimals)
+            elif cell.kind is CellKind.NUMBER:
                 values.append(cell.value)
                 decimals = max(decimals or 0, cell.decimals or 0)
-            elif cell.kind is CellKind.CENSORED and censoring is not None:
-                values.append(censoring[0])
-                decimals = max(decimals or 0, censoring[1])
             else:
                 values.append(math.nan)
         values.extend([math.nan] * (length - len(values)))
@@ -58,7 +60,7 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
             more = f" and {len(skipped) - 10} more" if len(skipped) > 10 else ""
             notes.append(f"{column.name}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}.")
     if censoring is not None:
-        notes.insert(0, censoring[2])
+        notes.insert(0, censoring.note)
     mark = decimal if decimal in (".", ",") else typed_decimal_mark(columns)
     return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes),
                     decimal_mark=mark)

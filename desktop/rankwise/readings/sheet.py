@@ -14,6 +14,7 @@ from typing import TYPE_CHECKING
 
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError
+from rankwise.readings.censored import check_mixed_limits
 from rankwise.readings.parse import check_decimal, parse_reading
 from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
 from rankwise.readings.suspicious import flag_readings
@@ -96,9 +97,10 @@ class _Step:
 class ReadingSheet:
     """Groups of readings as typed, with undo/redo of every edit and notices of every change."""
 
-    def __init__(self, groups: Iterable[GroupColumn] = (), *, decimal: str = "auto") -> None:
+    def __init__(self, groups: Iterable[GroupColumn] = (), *, decimal: str = "auto", mixed_limits: str = "ask") -> None:
         self.groups: list[GroupColumn] = [group.copy() for group in groups]
         self._decimal = check_decimal(decimal)
+        self._mixed_limits = check_mixed_limits(mixed_limits)
         for position, group in enumerate(self.groups):
             _check_details(group.name, group.lsl, group.usl, [g.name for g in self.groups[:position]])
             _trim(group.cells)
@@ -118,6 +120,7 @@ class ReadingSheet:
                 for g in snapshot.groups
             ),
             decimal=snapshot.decimal,
+            mixed_limits=snapshot.mixed_limits,
         )
 
     @classmethod
@@ -139,6 +142,7 @@ class ReadingSheet:
                 GroupSnapshot(g.name, g.unit, g.lsl, g.usl, g.nominal, tuple(g.cells)) for g in self.groups
             ),
             decimal=self._decimal,
+            mixed_limits=self._mixed_limits,
         )
 
     # ----- reading ----------------------------------------------------------------------------
@@ -147,6 +151,12 @@ class ReadingSheet:
     def decimal(self) -> str:
         """The decimal setting: "auto", "." or ","."""
         return self._decimal
+
+    @property
+    def mixed_limits(self) -> str:
+        """How readings below different detection limits are treated: "ask" or "below-highest"
+        (see ``rankwise.readings.censored``)."""
+        return self._mixed_limits
 
     @property
     def row_count(self) -> int:
@@ -204,7 +214,8 @@ class ReadingSheet:
         chosen = range(len(self.groups)) if groups is None else [self._group_index(g) for g in groups]
         if len(set(chosen)) != len(chosen):
             raise ValueError(f"groups must not repeat a group; got {list(groups or [])}.")
-        return build_analysis([self.groups[g] for g in chosen], question, settings, decimal=self._decimal)
+        return build_analysis([self.groups[g] for g in chosen], question, settings, decimal=self._decimal,
+                              mixed_limits=self._mixed_limits)
 
     # ----- change notices ---------------------------------------------------------------------
 
@@ -533,6 +544,23 @@ class ReadingSheet:
             f"switching to {words}",
             [_Operation(state(new_groups, sep), state(old_groups, old_decimal), change, change)],
         )
+
+    def set_mixed_limits(self, choice: str) -> None:
+        """Choose how readings below different detection limits are treated ("ask" or "below-highest")."""
+        check_mixed_limits(choice)
+        if choice == self._mixed_limits:
+            return
+        old_choice = self._mixed_limits
+
+        def state(value: str) -> Callable[[], None]:
+            def action() -> None:
+                self._mixed_limits = value
+            return action
+
+        words = {"ask": "asking about different detection limits",
+                 "below-highest": "treating readings below different limits as below the highest"}[choice]
+        change = SheetChange("reset")
+        self._commit(words, [_Operation(state(choice), state(old_choice), change, change)])
 
     def _insert_groups(self, where: int, columns: list[GroupColumn]) -> _Operation:
         def apply() -> None:

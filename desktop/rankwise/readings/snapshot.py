@@ -11,6 +11,7 @@ from dataclasses import dataclass
 from typing import Any
 
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind
+from rankwise.readings.censored import check_mixed_limits
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.parse import DECIMAL_CHOICES
 
@@ -32,14 +33,20 @@ class GroupSnapshot:
 
 @dataclass(frozen=True)
 class SheetSnapshot:
-    """The whole sheet as it stood: its groups and its decimal setting ("auto", "." or ",")."""
+    """The whole sheet as it stood: its groups, its decimal setting ("auto", "." or ",") and how
+    readings below different detection limits are treated ("ask" or "below-highest")."""
 
     groups: tuple[GroupSnapshot, ...] = ()
     decimal: str = "auto"
+    mixed_limits: str = "ask"
 
     def to_dict(self) -> dict[str, Any]:
-        """Plain data (dicts, lists, str, float, int, None) that ``json.dumps`` accepts."""
-        return {
+        """Plain data (dicts, lists, str, float, int, None) that ``json.dumps`` accepts.
+
+        The mixed-limits setting is written only when it is not the default "ask", so the data of a
+        sheet without it (and the fingerprints of records written before it existed) stay as they were.
+        """
+        data: dict[str, Any] = {
             "format": FORMAT_VERSION,
             "decimal": self.decimal,
             "groups": [
@@ -54,10 +61,15 @@ class SheetSnapshot:
                 for group in self.groups
             ],
         }
+        if self.mixed_limits != "ask":
+            data["mixed_limits"] = self.mixed_limits
+        return data
 
     @classmethod
     def from_dict(cls, data: Any) -> SheetSnapshot:
-        """Rebuild a snapshot from ``to_dict`` data; damaged data raise ``ReadingsError``."""
+        """Rebuild a snapshot from ``to_dict`` data; damaged data raise ``ReadingsError``.
+
+        Data without a mixed-limits setting (written before it existed) mean "ask"."""
         try:
             if data.get("format") != FORMAT_VERSION:
                 raise ReadingsError(
@@ -67,6 +79,7 @@ class SheetSnapshot:
             decimal = data["decimal"]
             if decimal not in DECIMAL_CHOICES:
                 raise ValueError(decimal)
+            mixed_limits = check_mixed_limits(data.get("mixed_limits", "ask"))
             groups = tuple(
                 GroupSnapshot(
                     name=str(group["name"]),
@@ -84,7 +97,7 @@ class SheetSnapshot:
             raise ReadingsError(
                 "The stored readings are damaged and cannot be restored; use the original file or retype them."
             ) from error
-        return cls(groups=groups, decimal=decimal)
+        return cls(groups=groups, decimal=decimal, mixed_limits=mixed_limits)
 
 
 def _cell_to_dict(cell: Cell) -> dict[str, Any]:
