@@ -28,9 +28,9 @@ def make_sheet(*columns, mixed_limits="ask"):
 def test_by_default_mixed_limits_are_refused_naming_the_limits():
     sheet = make_sheet(["<0.05", "0.12"], ["<0.10", "0.2"])
     assert sheet.mixed_limits == "ask"
-    with pytest.raises(MixedLimitsError, match=r"different limits \(0.05, 0.1\)") as caught:
+    with pytest.raises(MixedLimitsError, match=r"different limits \(0.05, 0.10\)") as caught:
         sheet.to_analysis(Question.TWO_GROUPS, Settings())
-    assert caught.value.limits == (0.05, 0.1)
+    assert (caught.value.limits, caught.value.shown) == ((0.05, 0.1), ("0.05", "0.10"))
 
 
 def test_below_highest_treats_every_censored_reading_as_below_the_highest_limit():
@@ -42,8 +42,8 @@ def test_below_highest_treats_every_censored_reading_as_below_the_highest_limit(
     assert stand_ins[0] == pytest.approx(0.09)  # one gauge step (0.01) below the highest limit 0.10
     assert (a.values[1], b.values[1], b.values[2]) == (0.12, 0.20, 0.10)
     note = analysis.notes[0]
-    assert note.startswith("3 readings were written below different detection limits (0.05, 0.1, in A, B)")
-    assert "as chosen, all are treated as below the highest limit 0.1" in note
+    assert note.startswith("3 readings were written below different detection limits (0.05, 0.10, in A, B)")
+    assert "as chosen, all are treated as below the highest limit 0.10" in note
     assert "0.09" in note
 
 
@@ -53,7 +53,7 @@ def test_a_measured_reading_below_the_highest_limit_is_censored_there_too():
     a, b = analysis.groups
     assert a.values[0] == a.values[1] == b.values[0] == b.values[1] == pytest.approx(0.09)
     assert (a.values[2], b.values[2]) == (0.30, 0.15)
-    assert "2 readings measured below 0.1 (in A, B) cannot be ordered against them" in analysis.notes[0]
+    assert "2 readings measured below 0.10 (in A, B) cannot be ordered against them" in analysis.notes[0]
     assert "These 4 readings rank as ties" in analysis.notes[0]
 
 

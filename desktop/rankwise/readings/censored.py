@@ -35,15 +35,16 @@ class MixedLimitsError(ReadingsError):
 
     Attributes:
         limits: the different limits, lowest first.
+        shown: each limit written with the decimals it was typed with ("0.10").
     """
 
-    def __init__(self, limits: Sequence[float]) -> None:
+    def __init__(self, limits: Sequence[float], shown: Sequence[str]) -> None:
         self.limits = tuple(limits)
-        shown = ", ".join(f"{limit:g}" for limit in self.limits)
+        self.shown = tuple(shown)
         super().__init__(
-            f"The readings below a detection limit use different limits ({shown}), so they cannot be ranked "
-            f"against each other as they stand. Choose to treat them all as below the highest limit "
-            f"(<{self.limits[-1]:g}), or retype or remove them."
+            f"The readings below a detection limit use different limits ({', '.join(self.shown)}), so they "
+            f"cannot be ranked against each other as they stand. Choose to treat them all as below the highest "
+            f"limit (<{self.shown[-1]}), or retype or remove them."
         )
 
 
@@ -91,8 +92,9 @@ def censoring_for(columns: Sequence[tuple[str, Sequence[Cell]]], mixed_limits: s
     if not censored:
         return None
     limits = sorted({cell.limit for _, cell in censored})
+    shown = [_limit_as_typed(limit, [cell for _, cell in censored]) for limit in limits]
     if len(limits) > 1 and mixed_limits == "ask":
-        raise MixedLimitsError(limits)
+        raise MixedLimitsError(limits, shown)
     limit = limits[-1]
     order = [name for name, _ in columns]
     typed = [cell for _, cells in columns for cell in cells if cell.kind in (CellKind.NUMBER, CellKind.CENSORED)]
@@ -104,8 +106,14 @@ def censoring_for(columns: Sequence[tuple[str, Sequence[Cell]]], mixed_limits: s
         stand_in = round(min([limit, *(value for _, value in measured)]) - step, decimals)
         return Censoring(stand_in, decimals, _one_limit_note(censored, order, limit, stand_in, len(below_limit)))
     stand_in = round(limit - step, decimals)
-    note = _mixed_limits_note(censored, order, limits, stand_in, below_limit)
+    note = _mixed_limits_note(censored, order, shown, stand_in, below_limit)
     return Censoring(stand_in, decimals, note, censor_below=limit)
+
+
+def _limit_as_typed(limit: float, censored: Sequence[Cell]) -> str:
+    """The limit with the most decimals it was typed with ("<0.10" gives "0.10")."""
+    decimals = max((cell.decimals or 0) for cell in censored if cell.limit == limit)
+    return f"{limit:.{decimals}f}"
 
 
 def _groups_named(names: Sequence[str], order: list[str]) -> str:
@@ -133,25 +141,25 @@ def _one_limit_note(censored: list, order: list[str], limit: float, stand_in: fl
     return note
 
 
-def _mixed_limits_note(censored: list, order: list[str], limits: list[float], stand_in: float,
+def _mixed_limits_note(censored: list, order: list[str], limits: list[str], stand_in: float,
                        below_limit: list[tuple[str, float]]) -> str:
     highest = limits[-1]
-    shown = ", ".join(f"{limit:g}" for limit in limits)
+    shown = ", ".join(limits)
     groups = _groups_named([name for name, _ in censored], order)
     note = (
         f"{_readings(len(censored))} were written below different detection limits ({shown}, in {groups}); "
-        f"as chosen, all are treated as below the highest limit {highest:g}."
+        f"as chosen, all are treated as below the highest limit {highest}."
     )
     if below_limit:
         measured_groups = _groups_named([name for name, _ in below_limit], order)
         count = len(below_limit)
         note += (
-            f" {_readings(count)} measured below {highest:g} (in {measured_groups}) cannot be ordered against "
-            f"them, so {'it is' if count == 1 else 'they are'} treated as below {highest:g} too."
+            f" {_readings(count)} measured below {highest} (in {measured_groups}) cannot be ordered against "
+            f"them, so {'it is' if count == 1 else 'they are'} treated as below {highest} too."
         )
     tied = len(censored) + len(below_limit)
     note += (
-        f" These {tied} readings rank as ties below every measured reading at or above {highest:g}; "
-        f"the shift estimate and its interval treat them as the value {stand_in:g}, one gauge step below {highest:g}."
+        f" These {tied} readings rank as ties below every measured reading at or above {highest}; "
+        f"the shift estimate and its interval treat them as the value {stand_in:g}, one gauge step below {highest}."
     )
     return note

@@ -25,6 +25,7 @@ from PySide6.QtWidgets import (
 
 import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError, SheetSnapshot
+from rankwise.readings.censored import MixedLimitsError
 from rankwise.readings.for_analysis import build_analysis as analysis_of_columns
 from rankwise.stats.analysis import Analysis, Question
 from rankwise.ui import dialogs
@@ -86,6 +87,7 @@ class MainWindow(QMainWindow):
         self.restored_unsaved = False
         self.last_result = None
         self.last_analysis: Analysis | None = None
+        self.mixed_limits_problem: MixedLimitsError | None = None
 
         self.sheet = empty_sheet()
         self.sheet_model = SheetModel(self.sheet, self)
@@ -237,6 +239,13 @@ class MainWindow(QMainWindow):
         decimal_menu = edit.addMenu("Decimal &separator")
         for text, separator in (("Decide from the readings", "auto"), ("Point (0.42)", "."), ("Comma (0,42)", ",")):
             decimal_menu.addAction(self.make_action(text, lambda s=separator: self.set_decimal(s)))
+        self.below_highest_action = self.make_action(
+            "Treat readings below different detection &limits as below the highest",
+            lambda: self.set_mixed_limits("below-highest" if self.below_highest_action.isChecked() else "ask"),
+            tip="When readings are written below different limits (<0.05, <0.10), count them all, and any "
+                "measured reading under the highest limit, as below the highest limit.")
+        self.below_highest_action.setCheckable(True)
+        edit.addAction(self.below_highest_action)
 
         question_menu = bar.addMenu("&Question")
         from rankwise.ui.question_panel import QUESTION_OPTIONS
@@ -266,6 +275,7 @@ class MainWindow(QMainWindow):
         self.runner.problem.connect(self._on_calculation_problem)
         self.runner.stopped.connect(self._on_calculation_stopped)
         self.results_panel.stop_requested.connect(self.runner.cancel)
+        self.results_panel.choice_taken.connect(lambda: self.set_mixed_limits("below-highest"))
         self.grid.problem.connect(lambda text: self.statusBar().showMessage(text, 8000))
         self.grid.header_double_clicked.connect(self.edit_group_details)
 
@@ -298,6 +308,7 @@ class MainWindow(QMainWindow):
         )
         self._update_status()
         self.update_undo_actions()
+        self.below_highest_action.setChecked(self.sheet.mixed_limits == "below-highest")
         self.update_title()
         self.request_analysis(immediately)
 
@@ -406,9 +417,19 @@ class MainWindow(QMainWindow):
         """Read typed readings with this decimal separator ("auto", "." or ",")."""
         self._guarded(lambda: self.sheet.set_decimal(separator))
 
+    def set_mixed_limits(self, choice: str) -> None:
+        """Treat readings below different detection limits as asked ("ask") or as below the highest
+        limit ("below-highest"): one undoable step; a signed analysis keeps its setting."""
+        self._guarded(lambda: self.sheet.set_mixed_limits(choice))
+        self.below_highest_action.setChecked(self.sheet.mixed_limits == "below-highest")
+
     # -- analysis --------------------------------------------------------------------------------
     def build_analysis(self) -> tuple[Analysis | None, str]:
-        """The analysis the sheet and the question ask for, or None with the reason in plain words."""
+        """The analysis the sheet and the question ask for, or None with the reason in plain words.
+
+        When the reason is readings below different detection limits, ``mixed_limits_problem`` holds it
+        (else None), so that the choice can be offered with it."""
+        self.mixed_limits_problem = None
         choice = self.question_panel.choice()
         if choice.problem:
             return None, choice.problem
@@ -416,6 +437,9 @@ class MainWindow(QMainWindow):
             return analysis_of_columns((), choice.question, choice.settings, decimal=self.sheet.decimal), ""
         try:
             analysis = self.sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
+        except MixedLimitsError as error:
+            self.mixed_limits_problem = error
+            return None, str(error)
         except ReadingsError as error:
             return None, str(error)
         if self.sheet.decimal != "auto":  # the sheet reads one stated mark: numbers are shown with it
@@ -437,6 +461,12 @@ class MainWindow(QMainWindow):
             self.last_result = None
             self.last_analysis = None
             self.results_panel.show_waiting(reason)
+            if self.mixed_limits_problem is not None and not self.sheet_model.read_only:
+                highest = self.mixed_limits_problem.shown[-1]
+                self.results_panel.offer_choice(
+                    f"Treat all as below the highest limit, <{highest}",
+                    f"Count every reading written below a limit, and any reading measured under {highest}, "
+                    f"as below {highest}. Undo takes the choice back; the Edit menu holds it too.")
             self.rank_table.clear()
             for chart in self.charts:
                 chart.clear()

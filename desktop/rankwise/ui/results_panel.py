@@ -46,9 +46,11 @@ class ResultsPanel(QWidget):
 
     Signals:
         stop_requested(): the user pressed the button that stops a long computation.
+        choice_taken(): the user took the choice offered with a problem (see ``offer_choice``).
     """
 
     stop_requested = Signal()
+    choice_taken = Signal()
 
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
@@ -71,10 +73,16 @@ class ResultsPanel(QWidget):
         self._number_labels: dict[str, QLabel] = {}
         self._name_labels: dict[str, QLabel] = {}
 
+        self.choice_button = QPushButton()
+        self.choice_button.setObjectName("offeredChoice")
+        self.choice_button.setSizePolicy(QSizePolicy.Policy.Maximum, QSizePolicy.Policy.Fixed)
+        self.choice_button.clicked.connect(self.choice_taken)
+        self.choice_button.hide()
+
         body = QWidget()
         body.setObjectName("resultsBody")
         body_layout = QVBoxLayout(body)
-        for widget in (self.headline, self.sentences, self.numbers_title, self._numbers_box, self.method_note, self.notes):
+        for widget in (self.headline, self.sentences, self.choice_button, self.numbers_title, self._numbers_box, self.method_note, self.notes):
             body_layout.addWidget(widget)
         body_layout.addStretch(1)
         scroll = QScrollArea()
@@ -145,6 +153,14 @@ class ResultsPanel(QWidget):
         self._clear_details()
         self.show_busy(True, fraction)
 
+    def offer_choice(self, text: str, tip: str) -> None:
+        """Under the reason shown, offer one choice in plain words that would let a verdict follow;
+        taking it sends ``choice_taken``. Any new state shown withdraws the offer."""
+        self.choice_button.setText(text)
+        self.choice_button.setAccessibleName(text)
+        self.choice_button.setToolTip(tip)
+        self.choice_button.show()
+
     def show_busy(self, busy: bool, fraction: float = 0.0) -> None:
         """Show or hide the progress strip with its stop button."""
         self.busy_strip.setVisible(busy)
@@ -178,6 +194,7 @@ class ResultsPanel(QWidget):
 
     # -- helpers ---------------------------------------------------------------------------------
     def _set_headline(self, text: str, state: str) -> None:
+        self.choice_button.hide()
         self.headline.setText(text)
         self.headline.setProperty("state", state)
         self.headline.style().unpolish(self.headline)
