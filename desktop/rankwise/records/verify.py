@@ -177,7 +177,9 @@ def _readings_differences(record: ResultRecord) -> list[str]:
         indices = [names.index(group.name) for group in analysis.groups]
         rebuilt = ReadingSheet.from_snapshot(record.snapshot).to_analysis(
             analysis.question, analysis.settings, groups=indices)
-    except (ValueError, ReadingsError):
+    except ReadingsError as error:
+        return [f"The readings as entered can no longer be analysed as they were signed: {error}"]
+    except ValueError:
         return ["The groups of the analysis are no longer among the readings as entered."]
     hint = tuple[GroupReadings, ...]
     return [f"The readings as entered no longer give the analysed readings ({difference})."
