@@ -383,12 +383,16 @@ class ReadingSheet:
 
     # ----- edits: rows ------------------------------------------------------------------------
 
-    def insert_rows(self, row: int, count: int = 1) -> None:
-        """Insert ``count`` empty rows before ``row`` in every group."""
+    def _rows_in_reach(self, row: int, count: int) -> bool:
+        """Check a row edit's arguments; False when ``row`` lies past the last row (nothing to do)."""
         self._check_row(row)
         if count < 1:
             raise ValueError(f"count must be 1 or more; got {count}.")
-        if row >= self.row_count:
+        return row < self.row_count
+
+    def insert_rows(self, row: int, count: int = 1) -> None:
+        """Insert ``count`` empty rows before ``row`` in every group."""
+        if not self._rows_in_reach(row, count):
             return
 
         def apply() -> None:
@@ -411,10 +415,7 @@ class ReadingSheet:
 
     def delete_rows(self, row: int, count: int = 1) -> None:
         """Delete ``count`` rows starting at ``row`` from every group; the rows below move up."""
-        self._check_row(row)
-        if count < 1:
-            raise ValueError(f"count must be 1 or more; got {count}.")
-        if row >= self.row_count:
+        if not self._rows_in_reach(row, count):
             return
         count = min(count, self.row_count - row)
         removed: list[list[Cell]] = []
