@@ -45,6 +45,7 @@ need_lib libxcb-render-util.so.0 libxcb-render-util0
 need_lib libxcb-image.so.0 libxcb-image0
 "$python" -c 'import ensurepip, venv' 2>/dev/null || missing="$missing python3-venv"
 [ -n "$extras" ] && { command -v pdftoppm >/dev/null 2>&1 || missing="$missing poppler-utils"; }
+[ -n "$extras" ] && { command -v soffice >/dev/null 2>&1 || missing="$missing libreoffice-calc-nogui"; }
 if [ -n "$missing" ] && command -v apt-get >/dev/null 2>&1; then
   echo "install.sh: installing system packages:$missing"
   as_root apt-get update -qq

@@ -16,8 +16,9 @@ from rankwise.readings import ReadingSheet, ReadingsError, open_readings
 from rankwise.records.errors import RecordError
 from rankwise.records.record import ResultRecord, fingerprint
 from rankwise.records.signoff import SignOff, Signature
+from rankwise.records.targets import Target, refusal
 from rankwise.records.verify import verify_record
-from rankwise.records.workbook import write_record
+from rankwise.records.workbook import is_record_file, write_record
 from rankwise.stats.analysis import ALTERNATIVES, Question, Settings
 from rankwise.stats.service import run
 from rankwise.wording import CAUTION_SHORT, describe
@@ -28,6 +29,24 @@ EXIT_PROBLEM = 2
 RenderPdf = Callable[[Path, ResultRecord], None]
 
 
+class _ValuesMayStartWithDash(argparse.ArgumentParser):
+    """A parser that takes a word starting with "-" as an ordinary value unless it names one of the
+    command's options, so ``--signed-by -Ann-`` or a group called "-20 C" need no "=" (a word that
+    does name an option, or an abbreviation of one, stays an option)."""
+
+    def _parse_optional(self, arg_string):
+        if arg_string.startswith("-") and arg_string != "--" and not self._names_an_option(arg_string):
+            return None
+        return super()._parse_optional(arg_string)
+
+    def _names_an_option(self, word: str) -> bool:
+        name = word.split("=", 1)[0]
+        options = self._option_string_actions
+        if name in options:
+            return True
+        return self.allow_abbrev and name.startswith("--") and any(option.startswith(name) for option in options)
+
+
 def add_record_commands(subparsers: argparse._SubParsersAction) -> None:
     """Add ``report`` and ``verify`` to an argparse parser's sub-commands."""
     report = subparsers.add_parser(
@@ -36,8 +55,11 @@ def add_record_commands(subparsers: argparse._SubParsersAction) -> None:
         description=("Open a readings file (CSV or XLSX export), compare its first two groups (or the two "
                      "named with --groups) with the Mann-Whitney U test, and write a signed result "
                      "workbook, and optionally the one-page verdict as a PDF."),
-        epilog="Exit code 0 when the record was written; 2 with a plain message when something is wrong.",
+        epilog=("Exit code 0 when the record was written; 2 with a plain message when something is wrong "
+                "(then no file was written or changed). A value that starts with '-' is taken as a value, "
+                "e.g. --signed-by -Ann-, unless it is one of the options."),
     )
+    report.__class__ = _ValuesMayStartWithDash
     report.add_argument("input", type=Path, metavar="INPUT", help="the readings file to open (CSV or XLSX)")
     report.add_argument("--out", type=Path, required=True, metavar="RESULT.xlsx",
                         help="where to write the signed result workbook")
@@ -56,7 +78,8 @@ def add_record_commands(subparsers: argparse._SubParsersAction) -> None:
                         help="the reference group A (e.g. the current process) and the changed group B; "
                              "default: the file's first two groups")
     report.add_argument("--force", action="store_true",
-                        help="replace RESULT.xlsx even when it is already a signed record")
+                        help="replace RESULT.xlsx or VERDICT.pdf when it already exists (even a signed record); "
+                             "the readings file is never written over, and a PDF never over a record")
 
     verify = subparsers.add_parser(
         "verify",
@@ -75,7 +98,11 @@ def _problem(message: str) -> int:
 
 
 def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) -> int:
-    """Write the signed workbook (and the PDF) for ``args`` from ``report``; returns the exit code."""
+    """Write the signed workbook (and the PDF) for ``args`` from ``report``; returns the exit code.
+
+    Before anything is computed, the outputs are checked (``rankwise.records.targets.refusal``): a
+    refusal leaves every file as it was and exits with 2.
+    """
     if args.pdf is not None and render_pdf is None:
         return _problem("the PDF cannot be drawn here (the window's printing module is not available); "
                         "leave out --pdf.")
@@ -83,6 +110,15 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
         return _problem(f"--alpha must lie between 0 and 0.5, e.g. 0.05; got {args.alpha}.")
     if not args.signed_by.strip() or not args.role.strip():
         return _problem("--signed-by and --role need a name and a role; they cannot be blank.")
+    if args.input.is_file() and is_record_file(args.input):
+        return _problem(f"'{args.input}' is a Rankwise result record, not a readings file. To check that it is "
+                        f"unchanged since signing, run: rankwise verify \"{args.input}\"")
+    targets = [Target(args.out, "the signed record", ".xlsx")]
+    if args.pdf is not None:
+        targets.append(Target(args.pdf, "the PDF", ".pdf"))
+    refused = refusal(args.input, targets, replace=args.force)
+    if refused is not None:
+        return _problem(refused)
     try:
         reading_set = open_readings(args.input)
         sheet = ReadingSheet.from_reading_set(reading_set)
@@ -96,14 +132,14 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
                           comment=args.comment.strip(), signed_at=datetime.now().astimezone())
     record = ResultRecord.now(analysis, sheet.snapshot(), result, SignOff(prepared=signature))
     try:
-        write_record(args.out, record, overwrite_signed=args.force)
+        write_record(args.out, record, overwrite_signed=True)  # replacing was allowed above
     except RecordError as error:
-        return _problem(f"{error}" + (" Use --force to replace it." if "signed record" in str(error) else ""))
+        return _problem(str(error))
     if args.pdf is not None:
         try:
             render_pdf(args.pdf, record)
-        except OSError as error:
-            return _problem(f"the workbook was written, but the PDF could not be saved to '{args.pdf}': {error}")
+        except (OSError, ValueError) as error:
+            return _problem(f"the signed record was written to '{args.out}', but the PDF was not: {error}")
     verdict = describe(result, analysis)
     print(verdict.headline)
     for sentence in verdict.sentences:

@@ -123,6 +123,22 @@ def write_record(path: str | os.PathLike[str], record: ResultRecord, *, overwrit
         raise RecordError(f"The result could not be saved to '{target}': {error.strerror or error}.") from error
 
 
+def is_record_file(path: str | os.PathLike[str]) -> bool:
+    """True when ``path`` is a workbook holding a Rankwise record's program data (signed or not,
+    intact or not), whatever its file name ends with; False for anything else, including files
+    that cannot be read."""
+    try:
+        with open(path, "rb") as file:
+            workbook = load_workbook(file, read_only=True)
+            try:
+                return (PROGRAM_SHEET in workbook.sheetnames
+                        and workbook[PROGRAM_SHEET]["A1"].value == PROGRAM_MARKER)
+            finally:
+                workbook.close()
+    except Exception:  # openpyxl raises many kinds of error for files that are not workbooks
+        return False
+
+
 def _is_signed_record(path: Path) -> bool:
     """True when ``path`` holds a Rankwise record with a sign-off (damaged data count as signed)."""
     try:

@@ -111,12 +111,10 @@ class RecordActions(QObject):
         record = ResultRecord.now(self.window.last_analysis, self.window.sheet.snapshot(), self.window.last_result,
                                   SignOff(prepared=signature, reviewed=reviewed, revision=self.next_revision))
         stem = self.window.source_path.stem if self.window.source_path else "result"
-        path = dialogs.ask_save_path(self.window, "Save the signed result", f"{stem}-signed-rev{self.next_revision}.xlsx",
-                                     dialogs.RECORD_FILTER)
+        path = self._ask_target("Save the signed result", f"{stem}-signed-rev{self.next_revision}.xlsx",
+                                dialogs.RECORD_FILTER, "the signed record", ".xlsx")
         if path is None:
             return False
-        if path.suffix.lower() != ".xlsx":
-            path = path.with_suffix(".xlsx")
         if not self._write_asking_before_replacing(path, record):
             return False
         self._lock(record)
@@ -144,17 +142,38 @@ class RecordActions(QObject):
             record, signoff=dataclasses.replace(record.signoff, reviewed=reviewed),
             created_at=datetime.now().astimezone(), signed_fingerprint=None)
         stem = self.window.source_path.stem if self.window.source_path else "result"
-        path = dialogs.ask_save_path(self.window, "Save the countersigned result", f"{stem}-countersigned.xlsx",
-                                     dialogs.RECORD_FILTER)
+        path = self._ask_target("Save the countersigned result", f"{stem}-countersigned.xlsx",
+                                dialogs.RECORD_FILTER, "the countersigned record", ".xlsx")
         if path is None:
             return False
-        if path.suffix.lower() != ".xlsx":
-            path = path.with_suffix(".xlsx")
         if not self._write_asking_before_replacing(path, countersigned):
             return False
         self._lock(countersigned)
         self.window.statusBar().showMessage(f"Countersigned and saved to {path}.", 10000)
         return True
+
+    def _ask_target(self, title: str, suggested: str, file_filter: str, what: str, ending: str) -> Path | None:
+        """Ask where to save ``what``; None when cancelled or refused (with the reason shown).
+
+        The ending is added when missing (then a file of that name is replaced only when the user
+        agrees, as the platform dialog asked only about the name typed). The file the window
+        opened is never written over, and a PDF never over a record
+        (``rankwise.records.targets.refusal``).
+        """
+        from rankwise.records.targets import Target, refusal
+
+        chosen = dialogs.ask_save_path(self.window, title, suggested, file_filter)
+        if chosen is None:
+            return None
+        path = chosen if chosen.suffix.lower() == ending else chosen.with_name(chosen.name + ending)
+        refused = refusal(self.window.source_path, [Target(path, what, ending)], replace=True)
+        if refused is not None:
+            dialogs.show_problem(self.window, "Not saved", refused[0].upper() + refused[1:])
+            return None
+        if path != chosen and path.exists() and not dialogs.confirm(
+                self.window, "Replace a file?", f"{path.name} already exists. Replace it?", "Replace it", "Keep it"):
+            return None
+        return path
 
     def _write_asking_before_replacing(self, path: Path, record: ResultRecord) -> bool:
         """Write ``record`` to ``path``; a signed record there is replaced only when the user agrees."""
@@ -270,11 +289,9 @@ class RecordActions(QObject):
         from rankwise.ui.printing import write_verdict_pdf
 
         stem = self.window.source_path.stem if self.window.source_path else "verdict"
-        path = dialogs.ask_save_path(self.window, "Save the verdict as PDF", f"{stem}-verdict.pdf", dialogs.PDF_FILTER)
+        path = self._ask_target("Save the verdict as PDF", f"{stem}-verdict.pdf", dialogs.PDF_FILTER, "the PDF", ".pdf")
         if path is None:
             return None
-        if path.suffix.lower() != ".pdf":
-            path = path.with_suffix(".pdf")
         from PySide6.QtCore import QLocale
 
         page_size = "Letter" if QLocale().measurementSystem() == QLocale.MeasurementSystem.ImperialUSSystem else "A4"

@@ -3,13 +3,13 @@
 from __future__ import annotations
 
 import os
-import tempfile
 from pathlib import Path
 
 from PySide6.QtCore import QMarginsF, QRectF
 from PySide6.QtGui import QGuiApplication, QPageLayout, QPagedPaintDevice, QPageSize, QPainter, QPdfWriter
 
 from rankwise.records import fingerprint
+from rankwise.records.atomic import write_atomically
 from rankwise.ui.printing.page_content import gather
 from rankwise.ui.printing.page_layout import PagePlan, draw_verdict_page
 
@@ -43,46 +43,35 @@ def paint_record(device, record) -> PagePlan:
         painter.end()
 
 
-def _mode_for(target: Path) -> int:
-    """The replaced file's permissions, or those of a newly created file (the temporary is private)."""
-    if target.exists():
-        return target.stat().st_mode & 0o777
-    umask = os.umask(0)
-    os.umask(umask)
-    return 0o666 & ~umask
-
-
 def write_verdict_pdf(path, record, page_size: str = "A4") -> PagePlan:
     """Write the one-page verdict of ``record`` to ``path`` as PDF/A-1b, atomically.
 
     The page is written to a temporary file beside ``path`` and moved over it only when complete,
-    so an existing file is never left half-written. Needs a running QGuiApplication (see
+    so an existing file is never left half-written; a new file follows the user's umask, a replaced
+    one keeps its permissions (``rankwise.records.atomic``). Needs a running QGuiApplication (see
     ``render_pdf_for_cli``). Returns how the page was arranged.
     """
     target = Path(path)
     layout = page_layout(page_size)
     if not target.parent.is_dir():
         raise ValueError(f"path must be in an existing folder; {target.parent} does not exist.")
-    handle, temporary = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".part", dir=target.parent)
-    os.close(handle)
-    try:
-        writer = QPdfWriter(temporary)
+    plans = []
+
+    def draw(temporary: Path) -> None:
+        writer = QPdfWriter(str(temporary))
         writer.setPdfVersion(QPagedPaintDevice.PdfVersion.PdfVersion_A1b)
         writer.setResolution(PDF_RESOLUTION)
         writer.setPageLayout(layout)
         writer.setTitle(f"Verdict: {record.analysis.settings.characteristic or 'readings comparison'}")
         writer.setCreator(f"Rankwise {record.program_version}")
-        plan = paint_record(writer, record)
-        del writer
-        if os.path.getsize(temporary) == 0:
-            raise OSError(f"The PDF could not be written to {target}.")
-        os.chmod(temporary, _mode_for(target))
-        os.replace(temporary, target)
-    except BaseException:
-        if os.path.exists(temporary):
-            os.unlink(temporary)
-        raise
-    return plan
+        plans.append(paint_record(writer, record))
+        del writer  # the PDF is finished when its writer goes
+
+    try:
+        write_atomically(target, draw)
+    except OSError as error:
+        raise OSError(f"The PDF could not be written to {target}: {error.strerror or error}.") from error
+    return plans[0]
 
 
 def render_pdf_for_cli(path, record, page_size: str = "A4") -> PagePlan:
