@@ -44,6 +44,13 @@ _MODULE_OF = {
     "TwoGroupResult": "results",
     "run": "service",
     "compare_two": "two_groups",
+    "ADJUSTMENTS": "characteristics",
+    "adjust_p_values": "characteristics",
+    "benjamini_hochberg_adjust": "characteristics",
+    "compare_characteristics": "characteristics",
+    "Characteristic": "analysis",
+    "CharacteristicRow": "results",
+    "CharacteristicsResult": "results",
     "compare_several": "several",
     "holm_adjust": "several",
     "brunner_munzel": "shape",
@@ -59,7 +66,21 @@ __getattr__, __dir__ = load_on_first_use(__name__, _MODULE_OF, globals())
 
 
 if TYPE_CHECKING:
-    from rankwise.stats.analysis import ALTERNATIVES, METHODS, Analysis, GroupReadings, Question, Settings
+    from rankwise.stats.analysis import (
+        ALTERNATIVES,
+        METHODS,
+        Analysis,
+        Characteristic,
+        GroupReadings,
+        Question,
+        Settings,
+    )
+    from rankwise.stats.characteristics import (
+        ADJUSTMENTS,
+        adjust_p_values,
+        benjamini_hochberg_adjust,
+        compare_characteristics,
+    )
     from rankwise.stats.critical import critical_u
     from rankwise.stats.paired import compare_paired, critical_t
     from rankwise.stats.planning import plan_group_size, plan_paired_size, simulate_paired_power, simulate_power
@@ -67,6 +88,8 @@ if TYPE_CHECKING:
     from rankwise.stats.ranks import midranks
     from rankwise.stats.results import (
         BrunnerMunzelResult,
+        CharacteristicRow,
+        CharacteristicsResult,
         ConfidenceInterval,
         GroupSummary,
         MoodMedianResult,

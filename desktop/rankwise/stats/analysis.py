@@ -21,6 +21,8 @@ class Question(str, enum.Enum):
     """Three or more independent groups at once."""
     PLAN = "plan"
     """How many parts should be measured per group next time."""
+    CHARACTERISTICS = "characteristics"
+    """Two independent groups compared on many characteristics of one part at once."""
 
 
 ALTERNATIVES = ("two-sided", "b-greater", "b-less")
@@ -72,6 +74,8 @@ class Settings:
         plan_paired: planning only: plan for the same parts measured twice (signed-rank test)
             instead of two independent groups.
         characteristic: what is measured ("Ra after grinding"), for titles and records.
+        adjust: many characteristics only: how the p-values are adjusted for the number
+            compared, "holm", "fdr" (Benjamini-Hochberg) or "none".
     """
 
     alpha: float = 0.05
@@ -89,6 +93,24 @@ class Settings:
     ratio: float = 1.0
     plan_paired: bool = False
     characteristic: str = ""
+    adjust: str = "holm"
+
+
+@dataclass(frozen=True)
+class Characteristic:
+    """One characteristic of a many-characteristics comparison: its readings in A and in B.
+
+    Attributes:
+        name: the characteristic ("Bore diameter"); each group's ``name`` is the group's,
+            its ``unit``, limits and nominal are the characteristic's.
+        a, b: the readings of A (reference) and B (changed process), blanks as NaN.
+        margin: the equivalence margin in its unit ("same within +/- margin?"), or None.
+    """
+
+    name: str
+    a: GroupReadings
+    b: GroupReadings
+    margin: float | None = None
 
 
 @dataclass(frozen=True)
@@ -101,6 +123,8 @@ class Analysis:
     belong in the record beside the result. ``decimal_mark`` is how numbers are written for people
     ("." or ","), taken from the readings sheet, so that the verdict, the workbook's texts and the
     printout write numbers the way the technician typed them; it never changes a computation.
+    For the many-characteristics question, ``groups`` holds A and B without readings (their
+    names) and ``characteristics`` holds each characteristic's readings.
     """
 
     question: Question
@@ -108,3 +132,4 @@ class Analysis:
     settings: Settings = field(default_factory=Settings)
     notes: tuple[str, ...] = ()
     decimal_mark: str = "."
+    characteristics: tuple[Characteristic, ...] = ()

@@ -423,5 +423,57 @@ class PlanResult:
     warnings: tuple[str, ...]
 
 
-Result = TwoGroupResult | PairedResult | SeveralGroupsResult | PlanResult
+@dataclass(frozen=True)
+class CharacteristicRow:
+    """One characteristic of the comparison.
+
+    Attributes:
+        name: the characteristic as named in the file ("Bore diameter [mm]" less its unit).
+        result: the full two-group comparison of B against A for this characteristic.
+        p_adjusted: its p-value adjusted for the number of characteristics compared.
+        significant: p_adjusted <= alpha.
+    """
+
+    name: str
+    result: TwoGroupResult
+    p_adjusted: float
+    significant: bool
+
+
+@dataclass(frozen=True)
+class CharacteristicsResult:
+    """The two-group comparison repeated over many characteristics, with adjusted p-values.
+
+    Attributes:
+        name_a, name_b: the groups' names (A the reference, B the changed process).
+        rows: one per characteristic, in the order given.
+        adjust: "holm", "fdr" or "none"; adjust_method: the published method in words.
+        alternative, alpha, confidence: as for each characteristic.
+        warnings: plain-words notes about the comparison as a whole.
+    """
+
+    name_a: str
+    name_b: str
+    rows: tuple[CharacteristicRow, ...]
+    adjust: str
+    adjust_method: str
+    alternative: str
+    alpha: float
+    confidence: float
+    warnings: tuple[str, ...]
+
+    def row(self, name: str) -> CharacteristicRow:
+        """The row of the characteristic called ``name``; ``KeyError`` when there is none."""
+        for row in self.rows:
+            if row.name == name:
+                return row
+        raise KeyError(name)
+
+    @property
+    def n_significant(self) -> int:
+        """How many characteristics differ by the adjusted p-value."""
+        return sum(row.significant for row in self.rows)
+
+
+Result = TwoGroupResult | PairedResult | SeveralGroupsResult | PlanResult | CharacteristicsResult
 """Any answer the statistics service gives."""

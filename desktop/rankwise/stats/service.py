@@ -11,6 +11,7 @@ from collections.abc import Callable
 import numpy as np
 
 from rankwise.stats.analysis import Analysis, GroupReadings, Question
+from rankwise.stats.characteristics import compare_characteristics
 from rankwise.stats.paired import compare_paired
 from rankwise.stats.planning import plan_group_size, plan_paired_size
 from rankwise.stats.progress import SILENT, Monitor
@@ -123,10 +124,30 @@ def _plan(analysis: Analysis, monitor: Monitor) -> Result:
     )
 
 
+def _characteristics(analysis: Analysis, monitor: Monitor) -> Result:
+    """The two-group comparison on every characteristic, with p adjusted for how many were compared."""
+    group_a, group_b = _two_columns(
+        analysis, "Comparing characteristics needs exactly two groups (A the reference, B the changed process)")
+    settings = analysis.settings
+    return compare_characteristics(
+        [(item.name, _values(item.a), _values(item.b)) for item in analysis.characteristics],
+        alternative=settings.alternative,
+        alpha=settings.alpha,
+        adjust=settings.adjust,
+        confidence=settings.confidence,
+        margins=[item.margin for item in analysis.characteristics],
+        method=settings.method,
+        name_a=group_a.name,
+        name_b=group_b.name,
+        monitor=monitor,
+    )
+
+
 _ANSWERS: dict[Question, Callable[[Analysis, Monitor], Result]] = {
     Question.TWO_GROUPS: _two_groups,
     Question.PAIRED: _paired,
     Question.SEVERAL: _several,
     Question.PLAN: _plan,
+    Question.CHARACTERISTICS: _characteristics,
 }
 """Which function answers which question."""
