@@ -1,6 +1,6 @@
-"""Many characteristics compared at once: each row is compare_two on that column; adjusted p by the
-published definitions (Holm 1979; Benjamini & Hochberg 1995). statsmodels is not installed in the
-test environment, so the references are the definitions written out here step by step."""
+"""Many characteristics compared at once: each row is compare_two on that column; adjusted p checked
+against statsmodels.stats.multitest.multipletests (holm, fdr_bh) and against the published
+definitions (Holm 1979; Benjamini & Hochberg 1995) written out here step by step."""
 
 from __future__ import annotations
 
@@ -10,6 +10,7 @@ import numpy as np
 import pytest
 from hypothesis import given
 from hypothesis import strategies as st
+from statsmodels.stats.multitest import multipletests
 
 from rankwise import stats
 from rankwise.stats import (
@@ -84,6 +85,13 @@ def test_adjustments_match_the_published_definitions(p):
 
 
 @given(st.lists(st.floats(0.0, 1.0), min_size=1, max_size=30))
+def test_adjustments_match_statsmodels(p):
+    """statsmodels.stats.multitest.multipletests(p, alpha=0.05, method="holm" / "fdr_bh")[1]."""
+    assert adjust_p_values(p, "holm") == pytest.approx(multipletests(p, alpha=0.05, method="holm")[1], abs=1e-12)
+    assert adjust_p_values(p, "fdr") == pytest.approx(multipletests(p, alpha=0.05, method="fdr_bh")[1], abs=1e-12)
+
+
+@given(st.lists(st.floats(0.0, 1.0), min_size=1, max_size=30))
 def test_fdr_never_exceeds_holm_and_neither_goes_below_raw(p):
     """m / i <= m - i + 1 for 1 <= i <= m, so Benjamini-Hochberg never exceeds Holm (common practice, no source)."""
     holm, fdr = adjust_p_values(p, "holm"), adjust_p_values(p, "fdr")
@@ -100,6 +108,9 @@ def test_each_row_is_compare_two_on_that_column_in_input_order(adjust):
         assert row.result == compare_two(a, b, name_a="old die", name_b="new die")
     raw = [row.result.p_value for row in result.rows]
     expected = {"holm": holm_by_definition, "fdr": bh_by_definition, "none": list}[adjust](raw)
+    if adjust != "none":  # statsmodels multipletests(raw, method="holm" / "fdr_bh")[1]
+        reference = multipletests(raw, alpha=0.05, method={"holm": "holm", "fdr": "fdr_bh"}[adjust])[1]
+        assert [row.p_adjusted for row in result.rows] == pytest.approx(list(reference), abs=1e-12)
     assert [row.p_adjusted for row in result.rows] == pytest.approx(expected, abs=1e-15)
     assert [row.significant for row in result.rows] == [p <= 0.05 for p in expected]
     assert result.adjust == adjust and result.adjust_method
