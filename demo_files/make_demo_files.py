@@ -141,6 +141,54 @@ def gauge_sheet_bore(rng: np.random.Generator) -> None:
     write_atomically(HERE / "gauge_sheet_bore_diameter.xlsx", workbook_bytes(workbook))
 
 
+HOUSING_CHARACTERISTICS = (
+    # title, nominal, tolerance (+/-) or None, LSL, USL, decimals, mean, spread, shift of the new die
+    ("Bore diameter [mm]", 32.0, 0.012, None, None, 3, 32.001, 0.003, 0.0),
+    ("Bore depth [mm]", 18.0, 0.05, None, None, 2, 18.0, 0.012, 0.02),
+    ("Flange thickness [mm]", 6.0, 0.1, None, None, 2, 6.0, 0.02, 0.0),
+    ("Hole pitch [mm]", 48.0, 0.05, None, None, 2, 48.0, 0.01, 0.0),
+    ("Face flatness [mm]", None, None, 0.0, 0.05, 3, 0.018, 0.005, 0.009),
+    ("Runout [mm]", None, None, 0.0, 0.03, 3, 0.01, 0.003, 0.0),
+    ("Roughness Ra [µm]", None, None, 0.0, 1.6, 2, 0.8, 0.08, 0.0),
+    ("Hardness [HB]", 95.0, 10.0, None, None, 0, 96.0, 3.0, -4.0),
+    ("Mass [g]", 412.0, 3.0, None, None, 1, 412.2, 0.6, 0.0),
+    ("Wall thickness [mm]", 4.0, 0.15, None, None, 2, 4.0, 0.03, 0.0),
+    ("Thread depth [mm]", 12.0, 0.3, None, None, 1, 12.0, 0.06, 0.0),
+    ("Port diameter [mm]", 10.0, 0.015, None, None, 3, 10.0, 0.003, -0.004),
+)
+"""The pump housing's drawing characteristics; the new die moves depth, flatness, hardness and the port."""
+
+
+def housing_two_dies(rng: np.random.Generator) -> None:
+    """Twelve characteristics of a die-cast pump housing, 25 parts from the old die and 25 from the new one.
+
+    Nominal and tolerance (or LSL/USL) stand in rows above the column titles; a few readings are
+    blank or "n/a" (counted per characteristic, never zero).
+    """
+    text = lambda value, places: "" if value is None else f"{value:.{places}f}"  # noqa: E731
+    rows = [
+        [f"Pump housing PH-220, die-cast: old die against new die - {INVENTED}"] + [""] * 13,
+        ["Coordinate measuring machine export, 25 parts per die"] + [""] * 13,
+        ["nominal", ""] + [text(c[1], c[5]) for c in HOUSING_CHARACTERISTICS],
+        ["tolerance", ""] + [text(c[2], c[5]) for c in HOUSING_CHARACTERISTICS],
+        ["LSL", ""] + [text(c[3], c[5]) for c in HOUSING_CHARACTERISTICS],
+        ["USL", ""] + [text(c[4], c[5]) for c in HOUSING_CHARACTERISTICS],
+        ["Part", "Die"] + [c[0] for c in HOUSING_CHARACTERISTICS],
+    ]
+    columns = []
+    for title, _, _, _, _, places, mean, spread, shift in HOUSING_CHARACTERISTICS:
+        old, new = rng.normal(mean, spread, 25), rng.normal(mean + shift, spread, 25)
+        columns.append([text(v, places) for v in np.concatenate([old, new])])
+    columns[4][7] = ""
+    columns[4][31] = "n/a"
+    columns[8][40] = ""
+    columns[8][44] = ""
+    for part in range(50):
+        die = "old die" if part < 25 else "new die"
+        rows.append([f"PH-{part + 1:04d}", die] + [column[part] for column in columns])
+    write_atomically(HERE / "housing_two_dies.csv", csv_bytes(rows, ","))
+
+
 def main() -> None:
     rng = np.random.default_rng(SEED)
     two_wheels_roughness(rng)
@@ -148,6 +196,7 @@ def main() -> None:
     coating_before_after_cure(rng)
     long_export(rng)
     gauge_sheet_bore(rng)
+    housing_two_dies(np.random.default_rng(SEED + 13))
 
 
 if __name__ == "__main__":

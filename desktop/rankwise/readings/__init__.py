@@ -4,6 +4,8 @@
 - ``ReadingSheet``: groups of cells as typed; every edit one undoable step; ``subscribe`` for
   ``SheetChange`` notices; ``snapshot()`` / ``from_snapshot``; ``to_analysis(question, settings)``.
 - ``open_readings(path, ...) -> ReadingSet`` or ``ReadingsError``; ``ReadingSheet.from_reading_set``.
+- ``open_characteristics(path, by=...) -> CharacteristicsTable``: one row per part, a process column,
+  one column per characteristic; ``to_analysis(a, b)`` compares two processes on all of them.
 - ``save_sheet(sheet, path)``: the texts as typed, CSV or XLSX, written atomically.
 
 Every public name loads its module on first use (PEP 562), so the window starts without the file
@@ -22,6 +24,9 @@ _MODULE_OF = {
     "GroupCounts": "cells",
     "SkippedCell": "cells",
     "ReadingsError": "errors",
+    "CharacteristicColumn": "characteristics",
+    "CharacteristicsTable": "characteristics",
+    "open_characteristics": "characteristics",
     "open_readings": "open",
     "machine_decimal": "parse",
     "parse_reading": "parse",
@@ -45,6 +50,7 @@ __getattr__, __dir__ = load_on_first_use(__name__, _MODULE_OF, globals())
 
 if TYPE_CHECKING:
     from rankwise.readings.cells import Cell, CellKind, GroupCounts, SkippedCell
+    from rankwise.readings.characteristics import CharacteristicColumn, CharacteristicsTable, open_characteristics
     from rankwise.readings.errors import ReadingsError
     from rankwise.readings.open import open_readings
     from rankwise.readings.parse import machine_decimal, parse_reading
