@@ -30,7 +30,7 @@ def caution_in_view(window) -> bool:
 def test_the_offered_choice_gives_a_verdict_in_one_undo_step(qtbot, window):
     window.set_sheet(mixed_limits_sheet())
     panel = window.results_panel
-    qtbot.waitUntil(lambda: panel.choice_button.isVisible(), timeout=5000)
+    qtbot.waitUntil(lambda: panel.choice_button.isVisible(), timeout=60000)
     assert "different limits (0.05, 0.10)" in panel.sentences.text()
     assert panel.choice_button.text() == "Treat all as below the highest limit, <0.10"
     assert not window.below_highest_action.isChecked()
@@ -50,7 +50,7 @@ def test_the_offered_choice_gives_a_verdict_in_one_undo_step(qtbot, window):
     screenshot(window, "window-mixed-limits-chosen")
 
     window.undo()
-    qtbot.waitUntil(lambda: panel.choice_button.isVisible(), timeout=5000)
+    qtbot.waitUntil(lambda: panel.choice_button.isVisible(), timeout=60000)
     assert window.sheet.mixed_limits == "ask" and window.last_result is None
     assert not window.below_highest_action.isChecked()
     assert [group.cells[0].text for group in window.sheet.groups] == ["<0.05", "0.31"]
@@ -58,11 +58,11 @@ def test_the_offered_choice_gives_a_verdict_in_one_undo_step(qtbot, window):
 
 def test_the_edit_menu_holds_the_same_choice(qtbot, window):
     window.set_sheet(mixed_limits_sheet())
-    qtbot.waitUntil(lambda: window.results_panel.choice_button.isVisible(), timeout=5000)
+    qtbot.waitUntil(lambda: window.results_panel.choice_button.isVisible(), timeout=60000)
     window.below_highest_action.trigger()
     wait_for_verdict(qtbot, window)
     assert window.sheet.mixed_limits == "below-highest"
     window.below_highest_action.trigger()
-    qtbot.waitUntil(lambda: window.results_panel.choice_button.isVisible(), timeout=5000)
+    qtbot.waitUntil(lambda: window.results_panel.choice_button.isVisible(), timeout=60000)
     assert window.sheet.mixed_limits == "ask"
     assert not window.below_highest_action.isChecked()

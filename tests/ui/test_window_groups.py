@@ -25,7 +25,7 @@ def test_header_double_click_edits_name_unit_and_limits(qtbot, window, monkeypat
     group = window.sheet.groups[1]
     assert (group.name, group.unit, group.lsl, group.usl, group.nominal) == ("Wheel B", "µm", 0.2, 0.8, 0.5)
     assert window.sheet_model.headerData(1, Qt.Orientation.Horizontal) == "Wheel B\nµm"
-    qtbot.waitUntil(lambda: window.question_panel.group_b.currentText() == "Wheel B", timeout=2000)
+    qtbot.waitUntil(lambda: window.question_panel.group_b.currentText() == "Wheel B", timeout=60000)
 
 
 def test_lsl_above_usl_is_refused_in_plain_words(qtbot, window, answers, monkeypatch):
@@ -42,7 +42,7 @@ def test_margin_as_share_of_tolerance_uses_the_limits(qtbot, window, monkeypatch
     monkeypatch.setattr(GroupDetailsDialog, "ask", classmethod(lambda cls, parent, details: GroupDetails("A", "µm", 0.2, 0.8, None)))
     window.grid.move_to(0, 0)
     window.edit_group_details()
-    qtbot.waitUntil(lambda: window.question_panel.margin_unit.count() == 2, timeout=2000)
+    qtbot.waitUntil(lambda: window.question_panel.margin_unit.count() == 2, timeout=60000)
     window.question_panel.select_option("margin")
     window.question_panel.margin_unit.setCurrentIndex(window.question_panel.margin_unit.findData("tolerance"))
     window.question_panel.margin.setValue(10.0)
@@ -63,7 +63,7 @@ def test_add_move_and_remove_groups_with_undo(qtbot, window, answers):
     assert window.sheet.group_names == ["A", "B"]
     window.undo()
     assert window.sheet.group_names == ["A", "Group 1", "B"]
-    qtbot.waitUntil(lambda: window.question_panel.group_a.count() == 3, timeout=2000)
+    qtbot.waitUntil(lambda: window.question_panel.group_a.count() == 3, timeout=60000)
 
 
 def test_removing_a_group_with_readings_asks_first(qtbot, window, answers):

@@ -29,7 +29,7 @@ def test_the_notes_of_a_plan_follow_their_heading(qtbot, window):
     window.question_panel.select_option("plan")
     window.question_panel.planned_shift.setValue(0.03)
     window.question_panel.planned_spread.setValue(0.04)
-    qtbot.waitUntil(lambda: isinstance(window.last_result, PlanResult) and not window.runner.busy, timeout=20000)
+    qtbot.waitUntil(lambda: isinstance(window.last_result, PlanResult) and not window.runner.busy, timeout=60000)
     notes = window.results_panel.notes
     assert notes.isVisible() and notes.text().startswith("<b>Notes:</b>")
     document = QTextDocument()

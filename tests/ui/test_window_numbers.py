@@ -44,9 +44,11 @@ def test_every_key_number_value_is_shown_whole(qtbot, window):
     """Each value label gets at least the width and height its text needs (nothing wrapped away or cut)."""
     window.open_demo()
     wait_for_verdict(qtbot, window)
-    qtbot.wait(50)
     labels = window.results_panel._number_labels
     assert labels
+    qtbot.waitUntil(lambda: all(label.width() >= label.fontMetrics().boundingRect(label.text()).width()
+                                and label.height() >= label.fontMetrics().height()
+                                for label in labels.values()), timeout=60000)  # laid out
     for key, label in labels.items():
         needed = label.fontMetrics().boundingRect(label.text())
         assert label.width() >= needed.width(), key
@@ -64,7 +66,7 @@ def test_a_plan_for_the_same_parts_measured_twice(qtbot, window):
     panel.planned_spread.setValue(0.04)
     panel.plan_design.setCurrentIndex(panel.plan_design.findData(True))
     qtbot.waitUntil(lambda: isinstance(window.last_result, PlanResult) and window.last_result.paired
-                    and not window.runner.busy, timeout=20000)
+                    and not window.runner.busy, timeout=60000)
     assert window.last_analysis.settings.plan_paired is True
     assert panel._rows["spread"][0].text() == "Spread of the differences (SD)"
     assert "each part twice" in window.results_panel.headline.text()
@@ -79,6 +81,6 @@ def test_the_number_boxes_of_the_question_follow_the_readings_mark(qtbot, window
     wait_for_verdict(qtbot, window)
     window.question_panel.select_option("plan")
     window.question_panel.planned_shift.setValue(0.03)
-    qtbot.waitUntil(lambda: isinstance(window.last_result, PlanResult) and not window.runner.busy, timeout=20000)
+    qtbot.waitUntil(lambda: isinstance(window.last_result, PlanResult) and not window.runner.busy, timeout=60000)
     assert window.question_panel.planned_shift.text() == "0,030"
     assert window.question_panel.planned_shift.value() == 0.03

@@ -118,7 +118,7 @@ def test_a_signed_plan_checks_as_intact(qtbot, window, answers, monkeypatch, tmp
     window.question_panel.planned_shift.setValue(0.03)
     window.question_panel.planned_spread.setValue(0.04)
     qtbot.waitUntil(lambda: window.last_result is not None and window.last_analysis.question.value == "plan"
-                    and not window.runner.busy, timeout=20000)
+                    and not window.runner.busy, timeout=60000)
     _sign_with(monkeypatch)
     answers.save_path = tmp_path / "plan-signed.xlsx"
     assert window.records.sign_and_save()

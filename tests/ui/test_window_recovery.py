@@ -15,8 +15,8 @@ def test_recovery_file_restores_after_a_simulated_crash(qtbot, tmp_path, answers
     qtbot.addWidget(crashed)
     crashed.grid.paste_text("0,41\t0,47\nscrap\t0,52\n")
     crashed.question_panel.select_option("b-higher")
-    qtbot.waitUntil(path.exists, timeout=3000)
-    qtbot.waitUntil(lambda: RecoveryFile(path).load()["question"]["option"] == "b-higher", timeout=3000)
+    qtbot.waitUntil(path.exists, timeout=60000)
+    qtbot.waitUntil(lambda: RecoveryFile(path).load()["question"]["option"] == "b-higher", timeout=60000)
 
     answers.confirm = True
     restarted = MainWindow(recovery=RecoveryFile(path))

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import threading
 
+from PySide6.QtCore import QCoreApplication
+
 from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
 from rankwise.ui.worker import AnalysisRunner
 
@@ -22,8 +24,9 @@ def test_only_the_newest_request_is_answered(qtbot):
     newest = _paired(0.3)
     for analysis in (_paired(0.1), _paired(0.2), newest):
         runner.request(analysis)
-    qtbot.waitUntil(lambda: bool(answered) and not runner.busy, timeout=10000)
-    qtbot.wait(100)
+    qtbot.waitUntil(lambda: bool(answered) and not runner.busy, timeout=60000)
+    assert runner.wait_until_idle(60000)  # every job has ended: any stale answer is now queued
+    QCoreApplication.processEvents()
     assert answered == [newest]
 
 
@@ -40,7 +43,7 @@ def test_computation_runs_off_the_gui_thread(qtbot, monkeypatch):
 
     monkeypatch.setattr(service, "run", watched_run)
     runner = AnalysisRunner()
-    with qtbot.waitSignal(runner.result_ready, timeout=10000):
+    with qtbot.waitSignal(runner.result_ready, timeout=60000):
         runner.request_now(_paired(0.2))
     assert threads and threads[0] is not threading.main_thread()
 
@@ -50,7 +53,7 @@ def test_readings_the_statistics_refuse_come_back_as_a_problem_in_words(qtbot):
     runner = AnalysisRunner()
     uneven = Analysis(Question.PAIRED, (GroupReadings("before", (1.0, 2.0, 3.0)), GroupReadings("after", (1.0, 2.0))),
                       Settings())
-    with qtbot.waitSignal(runner.problem, timeout=10000) as signal:
+    with qtbot.waitSignal(runner.problem, timeout=60000) as signal:
         runner.request_now(uneven)
     assert signal.args[0] and "Traceback" not in signal.args[0]
     assert not runner.busy

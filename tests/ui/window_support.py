@@ -17,6 +17,10 @@ from rankwise.ui import dialogs
 from rankwise.ui.main_window import MainWindow
 from rankwise.ui.recovery import RecoveryFile
 
+PATIENCE_MS = 60_000
+"""How long a test waits for a condition: generous, so that a machine busy with other work does
+not fail a test; a passing condition ends the wait at once."""
+
 SCREENSHOTS = Path(__file__).resolve().parents[1] / "screenshots"
 DEMO_FILES = Path(__file__).resolve().parents[2] / "demo_files"
 
@@ -84,9 +88,9 @@ def type_column(qtbot, grid, column: int, texts: list[str], start_row: int = 0) 
         assert isinstance(editor, QLineEdit) and grid.state() == QAbstractItemView.State.EditingState
         qtbot.keyClicks(editor, text[1:])
         qtbot.keyClick(editor, Qt.Key.Key_Return)
-        qtbot.waitUntil(lambda r=row: grid.currentIndex().row() == r + 1, timeout=2000)
+        qtbot.waitUntil(lambda r=row: grid.currentIndex().row() == r + 1, timeout=PATIENCE_MS)
 
 
-def wait_for_verdict(qtbot, window, timeout: int = 10000) -> None:
+def wait_for_verdict(qtbot, window, timeout: int = PATIENCE_MS) -> None:
     """Wait until the newest entry has been analysed and its verdict is shown."""
     qtbot.waitUntil(lambda: not window.runner.busy and window.last_result is not None, timeout=timeout)
