@@ -43,7 +43,7 @@ def test_missing_readings_are_counted_per_characteristic_never_zero():
     analysis = table.to_analysis("old die", "new die")
     mass = next(item for item in analysis.characteristics if item.name == "Mass")
     assert len(mass.b.values) == 25 and sum(math.isnan(v) for v in mass.b.values) == 2
-    assert any(note.startswith("Mass: 2 in new die") for note in analysis.notes)
+    assert any(note.startswith("Face flatness: new die") and "'n/a'" in note for note in analysis.notes)
 
 
 def test_the_file_is_never_changed():
@@ -119,3 +119,25 @@ def test_the_process_column_can_be_named_and_a_missing_one_is_explained(tmp_path
     lonely.write_text("Gap [mm],Width [mm]\n0.31,5.1\n0.30,5.2\n", encoding="utf-8")
     with pytest.raises(ReadingsError, match="no column naming the process"):
         open_characteristics(lonely)
+
+
+def test_every_cell_is_read_as_parse_reading_reads_it():
+    """The shortcut for plain numbers gives the very cell that parse_reading gives (the readings' own rule)."""
+    from rankwise.readings import parse_reading
+
+    table = open_characteristics(DEMO)
+    for column in table.characteristics:
+        for cell in column.cells:
+            assert cell == parse_reading(cell.text, decimal=".", unit=column.unit)
+
+
+def test_the_analysis_comes_from_the_readings_as_entered():
+    from rankwise.readings.characteristics import analysis_from_snapshot
+
+    table = open_characteristics(DEMO)
+    analysis = table.to_analysis("old die", "new die", names=["Mass", "Runout"], margin_share=0.1)
+    snapshot = table.snapshot("old die", "new die", names=["Mass", "Runout"])
+    assert [g.name for g in snapshot.groups] == ["Mass: old die", "Mass: new die", "Runout: old die", "Runout: new die"]
+    rebuilt = analysis_from_snapshot(snapshot, ["Mass", "Runout"], "old die", "new die",
+                                     margins=[item.margin for item in analysis.characteristics])
+    assert rebuilt == analysis

@@ -13,6 +13,7 @@ never read as zero (common practice, no source).
 from __future__ import annotations
 
 import csv
+import dataclasses
 import os
 import re
 from collections import Counter
@@ -23,10 +24,12 @@ from pathlib import Path
 import numpy as np
 
 from rankwise.readings import open_csv, open_xlsx
-from rankwise.readings.cells import CellKind, SkippedCell
+from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, SkippedCell
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import guess_decimal, is_number_text, name_without_unit, unit_in_header
+from rankwise.readings.for_analysis import build_analysis
 from rankwise.readings.parse import check_decimal, parse_reading
+from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
 from rankwise.stats.analysis import Analysis, Characteristic, GroupReadings, Question, Settings
 
 MAX_PROCESS_LABELS = 12
@@ -52,8 +55,8 @@ class CharacteristicColumn:
 
     Attributes:
         header: the column title as written; name: without its bracketed unit; unit: that unit or "".
-        texts: every part row's cell text as in the file ("" for blank).
-        values: the readings per part row, NaN where blank or not a reading.
+        cells: every part row's cell as read (text kept).
+        values: the readings per part row, NaN where blank or not a plain reading.
         decimals: the most decimals written, the gauge's resolution, or None.
         nominal, lsl, usl: from the rows or title block that state them, or None.
         skipped: cells that are not readings (text, row number, reason).
@@ -62,7 +65,7 @@ class CharacteristicColumn:
     header: str
     name: str
     unit: str
-    texts: tuple[str, ...]
+    cells: tuple[Cell, ...] = field(repr=False)
     values: np.ndarray = field(compare=False, repr=False)
     decimals: int | None
     nominal: float | None
@@ -139,53 +142,106 @@ class CharacteristicsTable:
         ``names`` chooses characteristics (default: all); ``margins`` gives an equivalence margin
         per characteristic in its unit, ``margin_share`` one as a share of each tolerance width
         (for those with both limits). Characteristics without a reading in A or in B are left out
-        and named in the notes.
+        and named in the notes. The readings go through ``snapshot`` and
+        ``analysis_from_snapshot``, so a record's readings as entered give the same analysis.
         """
+        chosen, left_out = self._chosen(group_a, group_b, names)
+        margins = dict(margins or {})
+        margin_of = []
+        for column in chosen:
+            margin = margins.pop(column.name, None)
+            if margin is None and margin_share is not None and column.tolerance_width:
+                margin = margin_share * column.tolerance_width
+            margin_of.append(margin)
+        if margins:
+            raise ReadingsError(f"A margin is given for {', '.join(margins)}, which is not among the characteristics chosen.")
+        notes = (f"Left out for lack of readings in {group_a} or {group_b}: {', '.join(left_out)}.",) if left_out else ()
+        return analysis_from_snapshot(
+            self.snapshot(group_a, group_b, names=[column.name for column in chosen]),
+            [column.name for column in chosen], group_a, group_b, settings=settings, margins=margin_of, notes=notes,
+        )
+
+    def snapshot(self, group_a: str, group_b: str, *, names: Sequence[str] | None = None) -> SheetSnapshot:
+        """The readings as entered: per characteristic, A's cells then B's, each titled
+        "characteristic: process", with the characteristic's unit and limits."""
+        chosen = self.characteristics if names is None else tuple(self.characteristic(n) for n in names)
+        groups = []
+        for column in chosen:
+            for process in (group_a, group_b):
+                groups.append(GroupSnapshot(
+                    name=snapshot_title(column.name, process), unit=column.unit, lsl=column.lsl, usl=column.usl,
+                    nominal=column.nominal, cells=tuple(column.cells[row] for row in self.rows_of(process)),
+                ))
+        return SheetSnapshot(groups=tuple(groups), decimal=self.decimal)
+
+    def _chosen(self, group_a: str, group_b: str, names: Sequence[str] | None):
+        """The chosen characteristics with readings in both processes, and the names of those without."""
         if group_a == group_b:
             raise ReadingsError("Choose two different processes: A the reference and B the changed process.")
         rows_a, rows_b = self.rows_of(group_a), self.rows_of(group_b)
         chosen = self.characteristics if names is None else tuple(self.characteristic(n) for n in names)
         if not chosen:
             raise ReadingsError("Choose at least one characteristic to compare.")
-        margins = dict(margins or {})
-        items, notes, left_out = [], [], []
-        for column in chosen:
-            values_a, values_b = column.values[rows_a], column.values[rows_b]
-            if np.isnan(values_a).all() or np.isnan(values_b).all():
-                left_out.append(column.name)
-                continue
-            margin = margins.pop(column.name, None)
-            if margin is None and margin_share is not None and column.tolerance_width:
-                margin = margin_share * column.tolerance_width
-            items.append(Characteristic(
-                name=column.name,
-                a=_group(group_a, values_a, column),
-                b=_group(group_b, values_b, column),
-                margin=margin,
-            ))
-            missing = [(p, int(np.isnan(v).sum())) for p, v in ((group_a, values_a), (group_b, values_b))]
-            if any(count for _, count in missing):
-                said = " and ".join(f"{count} in {p}" for p, count in missing if count)
-                notes.append(f"{column.name}: {said} without a reading, left out of this characteristic only.")
-        if margins:
-            raise ReadingsError(f"A margin is given for {', '.join(margins)}, which is not among the characteristics chosen.")
-        if left_out:
-            notes.insert(0, f"Left out for lack of readings in {group_a} or {group_b}: {', '.join(left_out)}.")
-        if not items:
+        kept = [c for c in chosen if not (np.isnan(c.values[rows_a]).all() or np.isnan(c.values[rows_b]).all())]
+        if not kept:
             raise ReadingsError(f"None of the chosen characteristics has readings in both {group_a} and {group_b}.")
-        return Analysis(
-            question=Question.CHARACTERISTICS,
-            groups=(GroupReadings(group_a, ()), GroupReadings(group_b, ())),
-            settings=settings or Settings(),
-            notes=tuple(notes),
-            decimal_mark=self.decimal,
-            characteristics=tuple(items),
-        )
+        return kept, [c.name for c in chosen if c not in kept]
 
 
-def _group(process: str, values: np.ndarray, column: CharacteristicColumn) -> GroupReadings:
-    return GroupReadings(name=process, values=tuple(values.tolist()), unit=column.unit, lsl=column.lsl,
-                         usl=column.usl, nominal=column.nominal, decimals=column.decimals)
+def snapshot_title(characteristic: str, process: str) -> str:
+    """The title of one characteristic's readings of one process in the readings as entered."""
+    return f"{characteristic}: {process}"
+
+
+def analysis_from_snapshot(
+    snapshot: SheetSnapshot,
+    names: Sequence[str],
+    group_a: str,
+    group_b: str,
+    *,
+    settings: Settings | None = None,
+    margins: Sequence[float | None] | None = None,
+    notes: Sequence[str] = (),
+) -> Analysis:
+    """The many-characteristics analysis from readings as entered (A then B per characteristic).
+
+    Blanks, notes and readings below a detection limit follow the same rules as for one
+    characteristic (``build_analysis``); each characteristic's notes carry its name.
+    """
+    if len(snapshot.groups) != 2 * len(names):
+        raise ReadingsError("The readings as entered do not hold two processes for every characteristic.")
+    margins = list(margins) if margins is not None else [None] * len(names)
+    items, all_notes = [], list(notes)
+    for index, name in enumerate(names):
+        pair = snapshot.groups[2 * index: 2 * index + 2]
+        if [g.name for g in pair] != [snapshot_title(name, group_a), snapshot_title(name, group_b)]:
+            raise ReadingsError(f"The readings as entered do not hold {name} for {group_a} and {group_b}.")
+        columns = [_Column(g.name, g.unit, g.lsl, g.usl, g.nominal, list(g.cells)) for g in pair]
+        built = build_analysis(columns, Question.TWO_GROUPS, settings, decimal=snapshot.decimal,
+                               mixed_limits=snapshot.mixed_limits)
+        a, b = (dataclasses.replace(g, name=p) for g, p in zip(built.groups, (group_a, group_b)))
+        items.append(Characteristic(name=name, a=a, b=b, margin=margins[index]))
+        all_notes.extend(built.notes)
+    return Analysis(
+        question=Question.CHARACTERISTICS,
+        groups=(GroupReadings(group_a, ()), GroupReadings(group_b, ())),
+        settings=settings or Settings(),
+        notes=tuple(all_notes),
+        decimal_mark=snapshot.decimal if snapshot.decimal in (".", ",") else ".",
+        characteristics=tuple(items),
+    )
+
+
+@dataclass
+class _Column:
+    """What ``build_analysis`` reads of a sheet's column."""
+
+    name: str
+    unit: str
+    lsl: float | None
+    usl: float | None
+    nominal: float | None
+    cells: list[Cell]
 
 
 def open_characteristics(
@@ -331,21 +387,13 @@ def _part_column(headers: list[str], data_rows: list, process: int) -> int | Non
 
 def _characteristic(header: str, texts: list[str], data_rows: list, spec_rows: dict, j: int, decimal: str,
                     cache: dict) -> CharacteristicColumn:
-    """One characteristic column: readings, resolution, limits, and the cells that are not readings."""
+    """One characteristic column: cells, readings, resolution, limits, and the cells that are not readings."""
     unit = unit_in_header(header)
-    values = np.full(len(texts), np.nan)
-    decimals: int | None = None
-    skipped = []
-    for k, text in enumerate(texts):
-        if not text:
-            continue
-        value, places, reason = _reading(text, decimal, unit, cache)
-        if reason:
-            skipped.append(SkippedCell(text, reason, data_rows[k][0] + 1, header))
-            continue
-        values[k] = value
-        if places is not None:
-            decimals = places if decimals is None else max(decimals, places)
+    cells = tuple(_cell(text, decimal, unit, cache) for text in texts)
+    values = np.array([cell.value if cell.kind is CellKind.NUMBER else np.nan for cell in cells], dtype=float)
+    places = [cell.decimals for cell in cells if cell.kind is CellKind.NUMBER and cell.decimals is not None]
+    skipped = tuple(SkippedCell(cell.text, cell.reason or "not a reading", data_rows[k][0] + 1, header)
+                    for k, cell in enumerate(cells) if cell.is_skipped)
     spec = {key: _spec_number(row[j] if j < len(row) else "", decimal, unit, cache) for key, row in spec_rows.items()}
     nominal, lsl, usl = spec.get("nominal"), spec.get("lsl"), spec.get("usl")
     tolerance = spec.get("tolerance")
@@ -355,31 +403,27 @@ def _characteristic(header: str, texts: list[str], data_rows: list, spec_rows: d
     if lsl is not None and usl is not None and lsl > usl:
         lsl = usl = None
     return CharacteristicColumn(
-        header=header, name=name_without_unit(header), unit=unit, texts=tuple(texts), values=values,
-        decimals=decimals, nominal=nominal, lsl=lsl, usl=usl, skipped=tuple(skipped),
+        header=header, name=name_without_unit(header), unit=unit, cells=cells, values=values,
+        decimals=max(places) if places else None, nominal=nominal, lsl=lsl, usl=usl, skipped=skipped,
     )
 
 
-def _reading(text: str, decimal: str, unit: str, cache: dict) -> tuple[float, int | None, str]:
-    """(value, decimals, "") for a reading; (NaN, None, reason) for a cell that is not one."""
+def _cell(text: str, decimal: str, unit: str, cache: dict) -> Cell:
+    """The cell for ``text`` as ``parse_reading`` reads it; plain numbers such as "10.005" take a
+    shortcut to the same cell, and every distinct text is read once."""
+    if not text:
+        return EMPTY_CELL
     known = cache.get(text)
-    if known is not None:
-        return known
-    plain = _PLAIN_NUMBER.fullmatch(text) if decimal == "." else None
-    if plain:
-        found = (float(text), len(plain[1]) if plain[1] else 0, "")
-    else:
-        cell = parse_reading(text, decimal=decimal, unit=unit)
-        if cell.kind is CellKind.NUMBER and cell.value is not None:
-            found = (cell.value, cell.decimals, "")
-        elif cell.kind is CellKind.CENSORED:
-            found = (np.nan, None, "a reading below or above a detection limit is not compared here")
+    if known is None:
+        plain = _PLAIN_NUMBER.fullmatch(text) if decimal == "." else None
+        if plain:
+            known = Cell(text, CellKind.NUMBER, value=float(text), decimals=len(plain[1]) if plain[1] else 0)
         else:
-            found = (np.nan, None, cell.reason or "not a number")
-    cache[text] = found
-    return found
+            known = parse_reading(text, decimal=decimal, unit=unit)
+        cache[text] = known
+    return known
 
 
 def _spec_number(text: str, decimal: str, unit: str, cache: dict) -> float | None:
-    value, _, reason = _reading(text.strip(), decimal, unit, cache) if text.strip() else (np.nan, None, "blank")
-    return None if reason or not np.isfinite(value) else float(value)
+    cell = _cell(text.strip(), decimal, unit, cache)
+    return cell.value if cell.kind is CellKind.NUMBER else None
