@@ -119,9 +119,9 @@ def test_recent_menu_lists_opened_files_and_can_be_cleared(qtbot, window, answer
 
 def test_missing_demo_files_give_a_plain_message(qtbot, window, answers, monkeypatch, tmp_path):
     """Installed without the demo folder, the demo entry says where it looked and what to do instead."""
-    from rankwise.ui import main_window
+    from rankwise.ui import window_files
 
-    monkeypatch.setattr(main_window, "demo_folder", lambda: tmp_path / "no-demo-here")
+    monkeypatch.setattr(window_files, "demo_folder", lambda: tmp_path / "no-demo-here")
     assert not window.open_demo()
     title, text = answers.problems[-1]
     assert title == "Demo readings not found" and "no-demo-here" in text and "open any CSV or XLSX" in text

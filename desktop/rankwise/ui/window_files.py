@@ -1,0 +1,134 @@
+"""Opening readings (CSV/XLSX or a signed record), the demo, saving readings as typed, new sheets."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import rankwise
+from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError
+from rankwise.stats.analysis import Question
+from rankwise.ui import dialogs
+from rankwise.ui.recent_files import remember_file
+
+DEMO_FILE_NAME = "two_wheels_roughness.csv"
+"""The demo readings opened by ``rankwise --demo`` and the Help menu (invented data)."""
+
+
+def demo_folder() -> Path:
+    """The repository's demo_files folder (the package is installed editable from desktop/)."""
+    return Path(rankwise.__file__).resolve().parents[2] / "demo_files"
+
+
+def empty_sheet() -> ReadingSheet:
+    """A new entry: two empty groups, A (the reference) and B (the changed process)."""
+    return ReadingSheet([GroupColumn("A"), GroupColumn("B")])
+
+
+class WindowFiles:
+    """Mixin of ``MainWindow``: files in and out, asking before unsaved readings are replaced."""
+
+    def _may_replace_sheet(self) -> bool:
+        """True when the current entry may be replaced (saved, empty, or the user agreed)."""
+        if not self.has_unsaved_readings():
+            return True
+        answer = dialogs.ask_keep_changes(self, "The readings in the sheet are not saved. Save them before going on?")
+        if answer == "save":
+            return self.save_readings()
+        return answer == "discard"
+
+    def has_unsaved_readings(self) -> bool:
+        """True when the sheet holds typed text that is not saved (a restored entry counts as unsaved)."""
+        has_text = any(cell.text for group in self.sheet.groups for cell in group.cells)
+        return has_text and (self.sheet.is_modified or self.restored_unsaved)
+
+    def new_sheet(self) -> None:
+        """Start an empty sheet (after asking about unsaved readings)."""
+        if self._may_replace_sheet():
+            self.set_sheet(empty_sheet())
+            self.recovery.clear()
+
+    def ask_and_open(self) -> None:
+        """File > Open: ask for a file, then show the open dialog (or reopen a signed record)."""
+        path = dialogs.ask_open_path(self, "Open readings or a signed result")
+        if path is not None:
+            self.open_path(path, show_dialog=True)
+
+    def open_path(self, path: Path, show_dialog: bool = False) -> bool:
+        """Open readings (CSV/XLSX) or a signed result workbook; True when something was loaded.
+
+        With ``show_dialog`` the open dialog shows the preview and the layout found and lets the
+        user change them; without it the dialog's automatic choices are used.
+        """
+        path = Path(path)
+        if not path.is_file():
+            dialogs.show_problem(self, "Cannot open the file", f"There is no file {path}. Check the name and the folder.")
+            return False
+        if not self._may_replace_sheet():
+            return False
+        if path.suffix.lower() in (".xlsx", ".xlsm") and self.records.try_reopen(path):
+            remember_file(path)
+            return True
+        from rankwise.readings import open_readings
+        from rankwise.ui.open_dialog import OpenReadingsDialog
+
+        try:
+            reading_set = OpenReadingsDialog.ask(self, path) if show_dialog else open_readings(path)
+        except ReadingsError as error:
+            dialogs.show_problem(self, "Cannot open the file", str(error))
+            return False
+        if reading_set is None:
+            return False
+        self.load_reading_set(reading_set, path)
+        remember_file(path)
+        return True
+
+    def load_reading_set(self, reading_set, path: Path) -> None:
+        """Put opened readings into the sheet and analyse them."""
+        sheet = ReadingSheet.from_reading_set(reading_set)
+        sheet.mark_saved()
+        several = len(sheet.groups) >= 3
+        if several != (self.question_panel.option.question is Question.SEVERAL):
+            self.question_panel.select_option("several" if several else "differ")
+        self.set_sheet(sheet, path)
+        self.recovery.clear()
+        used = sum(len(group.values) for group in reading_set.groups)
+        skipped = sum(len(group.skipped) for group in reading_set.groups)
+        self.statusBar().showMessage(
+            f"Opened {path.name}: {used} readings in {len(reading_set.groups)} groups"
+            + (f", {skipped} cell{'s' if skipped != 1 else ''} skipped (hover over them in the sheet to see why)."
+               if skipped else "."), 15000)
+
+    def open_demo(self) -> bool:
+        """Open the demo readings (surface roughness from two grinding wheels; invented data)."""
+        path = demo_folder() / DEMO_FILE_NAME
+        if not path.is_file():
+            dialogs.show_problem(
+                self, "Demo readings not found",
+                f"The demo readings ({DEMO_FILE_NAME}) are not next to this installation (looked in {path.parent}). "
+                "They come with the Rankwise source folder; open any CSV or XLSX export instead.",
+            )
+            return False
+        return self.open_path(path)
+
+    def save_readings(self) -> bool:
+        """Save the readings exactly as typed (CSV or XLSX); True when saved."""
+        from rankwise.readings import save_sheet
+
+        suggested = (self.source_path.stem if self.source_path else "readings") + ".csv"
+        path = dialogs.ask_save_path(self, "Save readings as typed", suggested, dialogs.SAVE_READINGS_FILTER)
+        if path is None:
+            return False
+        if path.suffix.lower() not in (".csv", ".xlsx"):
+            path = path.with_suffix(".csv")
+        try:
+            save_sheet(self.sheet, path)
+        except (ReadingsError, OSError) as error:
+            dialogs.show_problem(self, "Cannot save the readings", str(error))
+            return False
+        self.sheet.mark_saved()
+        self.restored_unsaved = False
+        self.source_path = path
+        remember_file(path)
+        self.recovery.clear()
+        self.update_title()
+        return True
