@@ -12,6 +12,7 @@ from openpyxl.worksheet.worksheet import Worksheet
 import rankwise
 from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.records.canonical import canonical_bytes, encode, sha256_hex
+from rankwise.records.characteristics_check import characteristics_readings_differences
 from rankwise.records.compare import data_differences, sheet_differences
 from rankwise.records.errors import RecordError
 from rankwise.records.record import (
@@ -30,7 +31,7 @@ from rankwise.records.workbook import (
     read_signed_listing,
     rebuilt_visible_sheets,
 )
-from rankwise.stats.analysis import GroupReadings
+from rankwise.stats.analysis import GroupReadings, Question
 from rankwise.stats.results import Result
 from rankwise.stats.service import run
 
@@ -172,6 +173,8 @@ def _rebuilt_sheets_differences(record: ResultRecord, fingerprint: str, visible_
 def _readings_differences(record: ResultRecord) -> list[str]:
     """The readings as entered, read again, must give the stored analysis's groups."""
     analysis = record.analysis
+    if analysis.question is Question.CHARACTERISTICS:
+        return characteristics_readings_differences(record)
     names = [group.name for group in record.snapshot.groups]
     try:
         indices = [names.index(group.name) for group in analysis.groups]

@@ -12,6 +12,7 @@ from openpyxl import Workbook, load_workbook
 
 from rankwise.records.atomic import write_atomically
 from rankwise.records.canonical import canonical_bytes, sha256_hex
+from rankwise.records.characteristics_sheets import fill_characteristics_workbook
 from rankwise.records.compare import saved_and_reloaded
 from rankwise.records.details_sheet import SHEET_TITLE as DETAILS_TITLE
 from rankwise.records.details_sheet import fill_details_sheet
@@ -24,6 +25,7 @@ from rankwise.records.sheet_cells import put
 from rankwise.records.sheet_listing import pack_listing, sheet_listing, unpack_listing
 from rankwise.records.verdict_sheet import SHEET_TITLE as VERDICT_TITLE
 from rankwise.records.verdict_sheet import fill_verdict_sheet
+from rankwise.stats.results import CharacteristicsResult
 
 PROGRAM_SHEET = "Program data"
 PROGRAM_MARKER = "Rankwise result record: data for the program. Do not edit."
@@ -69,6 +71,9 @@ def rebuilt_visible_sheets(record: ResultRecord, fingerprint: str) -> Workbook:
 def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
     """A workbook holding only the visible sheets of ``record``, showing ``fingerprint``."""
     workbook = Workbook()
+    if isinstance(record.result, CharacteristicsResult):
+        fill_characteristics_workbook(workbook, record, fingerprint)
+        return workbook
     verdict = workbook.active
     verdict.title = VERDICT_TITLE
     fill_verdict_sheet(verdict, record, fingerprint)

@@ -7,6 +7,7 @@ from dataclasses import replace
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import (
+    CharacteristicsResult,
     ConfidenceInterval,
     GroupSummary,
     PairedResult,
@@ -15,6 +16,7 @@ from rankwise.stats.results import (
     SeveralGroupsResult,
     TwoGroupResult,
 )
+from rankwise.wording.characteristics import characteristics_key_numbers
 from rankwise.wording.numbers import (
     MISSING,
     format_centre,
@@ -302,5 +304,6 @@ def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
                       "The chance found by simulating the exact test at the planned sizes.", r.simulated_power)
 
 
-_LISTERS = {TwoGroupResult: _two_groups, PairedResult: _paired, SeveralGroupsResult: _several, PlanResult: _plan}
+_LISTERS = {TwoGroupResult: _two_groups, PairedResult: _paired, SeveralGroupsResult: _several, PlanResult: _plan,
+            CharacteristicsResult: characteristics_key_numbers}
 """The key numbers of each kind of result."""

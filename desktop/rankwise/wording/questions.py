@@ -11,6 +11,7 @@ QUESTION_TITLES: dict[Question, str] = {
     Question.PAIRED: "Did the same parts read differently the second time? (before / after)",
     Question.SEVERAL: "Do several groups read alike? (machines, cavities, shifts)",
     Question.PLAN: "How many parts should I measure?",
+    Question.CHARACTERISTICS: "Did the change move any characteristic of the part? (many characteristics)",
 }
 """Short plain-words title of each question, for the picker, the workbook and the printout."""
 

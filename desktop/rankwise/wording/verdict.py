@@ -5,7 +5,15 @@ from __future__ import annotations
 from dataclasses import replace
 
 from rankwise.stats.analysis import Analysis
-from rankwise.stats.results import PairedResult, PlanResult, Result, SeveralGroupsResult, TwoGroupResult
+from rankwise.stats.results import (
+    CharacteristicsResult,
+    PairedResult,
+    PlanResult,
+    Result,
+    SeveralGroupsResult,
+    TwoGroupResult,
+)
+from rankwise.wording.characteristics import describe_characteristics
 from rankwise.wording.paired import describe_paired
 from rankwise.wording.planning import describe_plan
 from rankwise.wording.questions import in_typed_mark
@@ -14,7 +22,8 @@ from rankwise.wording.two_groups import describe_two_groups
 from rankwise.wording.verdict_types import Verdict
 
 _DESCRIBERS = {TwoGroupResult: describe_two_groups, PairedResult: describe_paired,
-               SeveralGroupsResult: describe_several, PlanResult: describe_plan}
+               SeveralGroupsResult: describe_several, PlanResult: describe_plan,
+               CharacteristicsResult: describe_characteristics}
 """The wording of each kind of result."""
 
 

@@ -1,0 +1,107 @@
+"""A signed record of a many-characteristics comparison: written, read back, verified, and edits found."""
+
+from pathlib import Path
+
+import pytest
+from openpyxl import load_workbook
+
+from rankwise.readings import open_characteristics
+from rankwise.records import read_record, verify_record, write_record
+from rankwise.records.canonical import encode
+from rankwise.records.characteristics_sheets import DETAILS_TITLE, SUMMARY_TITLE
+from rankwise.records.readings_sheet import FIRST_ENTRY_ROW
+from rankwise.records.readings_sheet import SHEET_TITLE as READINGS_TITLE
+from rankwise.records.record import ResultRecord
+from rankwise.stats import CharacteristicsResult, Question, Settings, compare_two, run
+from rankwise.stats.results import Result
+from rankwise.wording import CAUTION_SHORT
+
+from record_builders import signoff
+
+DEMO = Path(__file__).resolve().parents[2] / "demo_files" / "housing_two_dies.csv"
+CHOSEN = ["Bore depth", "Face flatness", "Mass", "Hardness"]
+
+
+def housing_record(adjust="holm"):
+    table = open_characteristics(DEMO)
+    analysis = table.to_analysis("old die", "new die", names=CHOSEN, settings=Settings(adjust=adjust))
+    return ResultRecord.now(analysis, table.snapshot("old die", "new die", names=CHOSEN), run(analysis), signoff())
+
+
+@pytest.fixture(scope="module")
+def written(tmp_path_factory):
+    path = tmp_path_factory.mktemp("characteristics") / "housing.xlsx"
+    record = housing_record()
+    write_record(path, record)
+    return path, record
+
+
+def test_the_record_reads_back_as_the_characteristics_result(written):
+    path, record = written
+    back = read_record(path)
+    assert back.analysis.question is Question.CHARACTERISTICS
+    assert isinstance(back.result, CharacteristicsResult)
+    assert encode(back.result, Result) == encode(record.result, Result)
+    assert back.analysis == record.analysis and back.snapshot == record.snapshot
+    mass = back.analysis.characteristics[2]
+    assert mass.name == "Mass"
+    assert back.result.row("Mass").result == compare_two(mass.a.values, mass.b.values, name_a="old die", name_b="new die")
+
+
+def test_an_untouched_record_is_intact(written):
+    verification = verify_record(written[0])
+    assert verification.status == "intact", verification.differences
+
+
+def test_the_sheets_hold_summary_details_and_readings(written):
+    path, record = written
+    book = load_workbook(path)
+    assert [s.title for s in book.worksheets if s.sheet_state == "visible"] == [SUMMARY_TITLE, DETAILS_TITLE, READINGS_TITLE]
+    summary = [str(c.value) for row in book[SUMMARY_TITLE].iter_rows() for c in row if c.value is not None]
+    assert CAUTION_SHORT in summary
+    assert any(text.startswith("3 of 4 characteristics were shown to move") for text in summary)
+    assert "moved up" in summary and "moved down" in summary and "no change shown" in summary
+    assert any("Holm (1979)" in text for text in summary)
+    details = [str(c.value) for row in book[DETAILS_TITLE].iter_rows() for c in row if c.value is not None]
+    assert "Mass (g)" in details and "Adjusted p-value" in details
+    readings = book[READINGS_TITLE]
+    titles = [readings.cell(row=FIRST_ENTRY_ROW - 1, column=c).value for c in range(2, 10)]
+    assert titles == [f"{name}: {die}" for name in CHOSEN for die in ("old die", "new die")]
+
+
+def _edited(path, tmp_path, edit):
+    book = load_workbook(path)
+    edit(book)
+    target = tmp_path / "edited.xlsx"
+    book.save(target)
+    return target
+
+
+def test_an_edited_reading_is_found(written, tmp_path):
+    def edit(book):
+        cell = book[READINGS_TITLE].cell(row=FIRST_ENTRY_ROW, column=2)
+        cell.value = cell.value + 0.01
+
+    verification = verify_record(_edited(written[0], tmp_path, edit))
+    assert verification.status == "changed"
+
+
+def test_an_edited_adjusted_p_on_the_summary_is_found(written, tmp_path):
+    def edit(book):
+        sheet = book[SUMMARY_TITLE]
+        target = next(c for row in sheet.iter_rows() for c in row if c.value == "moved down")
+        target.value = "no change shown"
+
+    verification = verify_record(_edited(written[0], tmp_path, edit))
+    assert verification.status == "changed"
+    assert any("Summary" in difference for difference in verification.differences)
+
+
+def test_the_adjustment_is_stored_and_stated(tmp_path):
+    record = housing_record(adjust="fdr")
+    path = tmp_path / "fdr.xlsx"
+    write_record(path, record)
+    back = read_record(path)
+    assert back.analysis.settings.adjust == "fdr" and back.result.adjust == "fdr"
+    summary = [str(c.value) for row in load_workbook(path)[SUMMARY_TITLE].iter_rows() for c in row if c.value]
+    assert any("Benjamini-Hochberg (1995)" in text for text in summary)
