@@ -78,7 +78,7 @@ def test_a_chain_of_edits_unwinds_in_order():
 def test_paste_extends_rows_and_groups():
     sheet = make_sheet(["1"], names=["A"])
     sheet.paste_block(0, 1, [["2", "20"], ["3", "30", "300"]])
-    assert sheet.group_names == ["A", "Group 1", "Group 2"]
+    assert sheet.group_names == ["A", "B", "C"]  # new groups continue the naming
     assert texts(sheet, 0) == ["1", "2", "3"]
     assert texts(sheet, 2) == ["", "", "300"]
     assert sheet.undo_label == "Undo pasting 5 cells into A"

@@ -54,15 +54,15 @@ def test_margin_as_share_of_tolerance_uses_the_limits(qtbot, window, monkeypatch
 def test_add_move_and_remove_groups_with_undo(qtbot, window, answers):
     """A group added at the right can be moved left and removed; undo brings it back."""
     window.add_group()
-    assert window.sheet.group_names == ["A", "B", "Group 1"]
+    assert window.sheet.group_names == ["A", "B", "C"]
     window.grid.move_to(0, 2)
     window.move_group(-1)
-    assert window.sheet.group_names == ["A", "Group 1", "B"]
+    assert window.sheet.group_names == ["A", "C", "B"]
     window.grid.move_to(0, 1)
     window.remove_group()
     assert window.sheet.group_names == ["A", "B"]
     window.undo()
-    assert window.sheet.group_names == ["A", "Group 1", "B"]
+    assert window.sheet.group_names == ["A", "C", "B"]
     qtbot.waitUntil(lambda: window.question_panel.group_a.count() == 3, timeout=60000)
 
 

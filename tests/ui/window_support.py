@@ -94,3 +94,25 @@ def type_column(qtbot, grid, column: int, texts: list[str], start_row: int = 0) 
 def wait_for_verdict(qtbot, window, timeout: int = PATIENCE_MS) -> None:
     """Wait until the newest entry has been analysed and its verdict is shown."""
     qtbot.waitUntil(lambda: not window.runner.busy and window.last_result is not None, timeout=timeout)
+
+
+def press(qtbot, *keys) -> None:
+    """Send keys as a person types them, each to whichever widget has the keyboard at that moment,
+    letting the window handle each key (queued commits included) before the next one comes.
+
+    Each item is a string (typed character by character), a ``Qt.Key``, or a ``(Qt.Key, modifiers)``
+    pair. Nothing is sent to a chosen widget: a key lost because the focus went astray stays lost.
+    """
+    for key in keys:
+        if isinstance(key, str):
+            for character in key:
+                focused = QApplication.focusWidget()
+                assert focused is not None, f"no widget has the keyboard before {character!r}"
+                qtbot.keyClicks(focused, character)
+                QApplication.processEvents()
+            continue
+        code, modifiers = key if isinstance(key, tuple) else (key, Qt.KeyboardModifier.NoModifier)
+        focused = QApplication.focusWidget()
+        assert focused is not None, f"no widget has the keyboard before {code!r}"
+        qtbot.keyClick(focused, code, modifiers)
+        QApplication.processEvents()

@@ -15,6 +15,7 @@ from typing import TYPE_CHECKING
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.censored import check_mixed_limits
+from rankwise.readings.group_names import next_group_names
 from rankwise.readings.parse import check_decimal, parse_reading
 from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
 from rankwise.readings.suspicious import flag_readings
@@ -445,7 +446,7 @@ class ReadingSheet:
     # ----- edits: groups ----------------------------------------------------------------------
 
     def add_group(self, name: str | None = None, index: int | None = None) -> int:
-        """Add an empty group (named "Group N" when no name is given) at ``index`` (the end by default)."""
+        """Add an empty group (named after the sheet's other groups, e.g. C after A and B, when no name is given) at ``index`` (the end by default)."""
         where = len(self.groups) if index is None else self._group_index(index, allow_end=True)
         name = self._new_names(1)[0] if name is None else name.strip()
         _check_details(name, None, None, self.group_names)
@@ -598,15 +599,7 @@ class ReadingSheet:
             raise ValueError(f"row must be a row number, 0 or more; got {row!r}.")
 
     def _new_names(self, count: int) -> list[str]:
-        taken = set(self.group_names)
-        names, number = [], 1
-        while len(names) < count:
-            candidate = f"Group {number}"
-            if candidate not in taken:
-                names.append(candidate)
-                taken.add(candidate)
-            number += 1
-        return names
+        return next_group_names(self.group_names, count)
 
 
 def _check_details(name: str, lsl: float | None, usl: float | None, other_names: Sequence[str]) -> None:

@@ -73,6 +73,7 @@ class ReadingsGrid(QTableView):
         model.modelAboutToBeReset.connect(self._remember_current)
         model.modelReset.connect(self._restore_current)
         model.modelReset.connect(self._fit_columns_to_titles)
+        model.columnsInserted.connect(self._fit_columns_to_titles)
         self.setCurrentIndex(model.index(0, 0))
         self._fit_columns_to_titles()
 
@@ -126,9 +127,90 @@ class ReadingsGrid(QTableView):
         else:
             super().closeEditor(editor, hint)
 
+    def _filled(self, row: int, column: int) -> bool:
+        sheet = self.sheet_model().sheet
+        return column < len(sheet.groups) and row < len(sheet.groups[column].cells) and bool(sheet.cell(column, row).text)
+
+    def _jump(self, row: int, column: int, step_row: int, step_column: int) -> tuple[int, int]:
+        """Where Ctrl+arrow goes, as in any spreadsheet: to the end of the run of filled cells, or
+        over empty cells to the next filled one, or to the sheet's edge when there is none."""
+        model = self.model()
+        last_row, last_column = model.rowCount() - 1, model.columnCount() - 1
+
+        def inside(r: int, c: int) -> bool:
+            return 0 <= r <= last_row and 0 <= c <= last_column
+
+        next_row, next_column = row + step_row, column + step_column
+        if not inside(next_row, next_column):
+            return row, column
+        if self._filled(row, column) and self._filled(next_row, next_column):
+            while inside(next_row + step_row, next_column + step_column) and self._filled(next_row + step_row, next_column + step_column):
+                next_row, next_column = next_row + step_row, next_column + step_column
+            return next_row, next_column
+        while inside(next_row, next_column) and not self._filled(next_row, next_column):
+            if not inside(next_row + step_row, next_column + step_column):
+                return next_row, next_column
+            next_row, next_column = next_row + step_row, next_column + step_column
+        return next_row, next_column
+
+    def _last_filled(self) -> tuple[int, int]:
+        """The bottom-right corner of the readings (Ctrl+End)."""
+        sheet = self.sheet_model().sheet
+        return max(0, sheet.row_count - 1), max(0, len(sheet.groups) - 1)
+
+    def _navigate(self, event: QKeyEvent) -> bool:
+        """Ctrl+arrows, Ctrl+Home/End and Ctrl+Tab as in any spreadsheet; True when handled.
+        Shift with them extends the selection from the current cell."""
+        control = bool(event.modifiers() & Qt.KeyboardModifier.ControlModifier)
+        shift = bool(event.modifiers() & Qt.KeyboardModifier.ShiftModifier)
+        key = event.key()
+        if control and key in (Qt.Key.Key_Tab, Qt.Key.Key_Backtab):
+            self.leave(forward=key == Qt.Key.Key_Tab and not shift)
+            return True
+        current = self.currentIndex()
+        row, column = max(0, current.row()), max(0, current.column())
+        steps = {Qt.Key.Key_Up: (-1, 0), Qt.Key.Key_Down: (1, 0), Qt.Key.Key_Left: (0, -1), Qt.Key.Key_Right: (0, 1)}
+        if control and key in steps:
+            target = self._jump(row, column, *steps[key])
+        elif control and key == Qt.Key.Key_Home:
+            target = (0, 0)
+        elif control and key == Qt.Key.Key_End:
+            target = self._last_filled()
+        else:
+            return False
+        if shift:
+            start = self._selection_anchor(current)
+            end = self.model().index(*target)
+            self.selectionModel().setCurrentIndex(end, QItemSelectionModel.SelectionFlag.NoUpdate)
+            self.selectionModel().select(QItemSelection(start, end), QItemSelectionModel.SelectionFlag.ClearAndSelect)
+            self.scrollTo(end)
+        else:
+            self.move_to(*target)
+        return True
+
+    def _selection_anchor(self, current):
+        """The fixed corner of the selection: the one opposite the current cell."""
+        selection = self.selectionModel().selection()
+        if not selection.count():
+            return current
+        block = selection[0]
+        row = block.top() if current.row() == block.bottom() else block.bottom()
+        column = block.left() if current.column() == block.right() else block.right()
+        return self.model().index(row, column)
+
+    def leave(self, forward: bool = True) -> None:
+        """Give the keyboard to the next (or previous) control after the sheet (Ctrl+Tab, Ctrl+Shift+Tab)."""
+        self.setTabKeyNavigation(False)
+        try:
+            self.focusNextPrevChild(forward)
+        finally:
+            self.setTabKeyNavigation(True)
+
     def keyPressEvent(self, event: QKeyEvent) -> None:  # noqa: N802 - Qt API
-        """Enter moves down, Delete/Backspace clears, copy/cut/paste work on blocks."""
+        """Enter moves down, Delete/Backspace clears, copy/cut/paste work on blocks, Ctrl+arrows jump."""
         if self.state() != QAbstractItemView.State.EditingState:
+            if self._navigate(event):
+                return
             if event.key() in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
                 step = -1 if event.modifiers() & Qt.KeyboardModifier.ShiftModifier else 1
                 current = self.currentIndex()

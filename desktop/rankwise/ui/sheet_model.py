@@ -46,6 +46,7 @@ class SheetModel(QAbstractTableModel):
         self._columns = len(sheet.groups) + 1
         self._flags: dict[int, dict[int, tuple[str, ...]]] = {}
         self.read_only = False
+        self._appending = False
         sheet.subscribe(self._on_sheet_change, before=True)
 
     # -- the sheet -------------------------------------------------------------------------------
@@ -78,7 +79,9 @@ class SheetModel(QAbstractTableModel):
         self._flags.clear()
 
     def _on_sheet_change(self, change) -> None:
-        if change.kind in ("groups", "reset"):
+        if change.kind == "groups" and self._appends_groups(change):
+            self._append_group_columns(change)
+        elif change.kind in ("groups", "reset"):
             if change.before:
                 self.beginResetModel()
             else:
@@ -100,6 +103,25 @@ class SheetModel(QAbstractTableModel):
             self._fit_spare_rows()
             last_row = min(change.last_row, self._rows - 1)
             self.dataChanged.emit(self.index(change.first_row, change.first_group), self.index(last_row, change.last_group))
+
+    def _appends_groups(self, change) -> bool:
+        """True for groups added at the right end (typing or pasting into the spare column)."""
+        if change.before:
+            self._appending = change.first_group == len(self._sheet.groups) == self._columns - 1
+        return self._appending
+
+    def _append_group_columns(self, change) -> None:
+        """The spare column becomes the first new group and new columns follow it, so that an editor
+        open in the spare column (the technician typing there) stays where it is; no reset."""
+        added = change.last_group - change.first_group + 1
+        if change.before:
+            self.beginInsertColumns(QModelIndex(), self._columns, self._columns + added - 1)
+            return
+        self._appending = False
+        self._columns += added
+        self._flags.clear()
+        self.endInsertColumns()
+        self.headerDataChanged.emit(Qt.Orientation.Horizontal, change.first_group, self._columns - 1)
 
     def _fit_spare_rows(self) -> None:
         """Keep ``SPARE_ROWS`` empty rows below the data (adding or removing rows at the end)."""
