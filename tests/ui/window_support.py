@@ -30,6 +30,7 @@ class Answers:
     """What the replaced dialogs answer, and what they were told."""
 
     confirm: bool = False
+    restore: str = "restore"
     keep_changes: str = "discard"
     open_path: Path | None = None
     save_path: Path | None = None
@@ -47,7 +48,12 @@ def answers(monkeypatch) -> Answers:
         given.questions.append(text)
         return given.confirm
 
+    def offer_restore(parent, text):
+        given.questions.append(text)
+        return given.restore
+
     monkeypatch.setattr(dialogs, "confirm", confirm)
+    monkeypatch.setattr(dialogs, "offer_restore", offer_restore)
     monkeypatch.setattr(dialogs, "ask_keep_changes", lambda parent, text: given.keep_changes)
     monkeypatch.setattr(dialogs, "ask_open_path", lambda parent, title, file_filter=None: given.open_path)
     monkeypatch.setattr(dialogs, "ask_save_path", lambda parent, title, suggested, file_filter: given.save_path)
@@ -59,7 +65,7 @@ def answers(monkeypatch) -> Answers:
 @pytest.fixture
 def window(qtbot, tmp_path, answers) -> MainWindow:
     """A real main window, shown offscreen, with its own recovery file."""
-    shown = MainWindow(recovery=RecoveryFile(tmp_path / "recovery.json"))
+    shown = MainWindow(recovery=RecoveryFile.for_new_window(tmp_path))
     qtbot.addWidget(shown)
     shown.resize(1440, 900)  # the offscreen screen is small; pictures are taken at a desktop size
     shown.show()

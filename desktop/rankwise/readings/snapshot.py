@@ -40,8 +40,9 @@ class SheetSnapshot:
     decimal: str = "auto"
     mixed_limits: str = "ask"
 
-    def to_dict(self) -> dict[str, Any]:
-        """Plain data (dicts, lists, str, float, int, None) that ``json.dumps`` accepts.
+    def to_dict(self, with_cells: bool = True) -> dict[str, Any]:
+        """Plain data (dicts, lists, str, float, int, None) that ``json.dumps`` accepts; without the
+        cells when ``with_cells`` is False (the entry journal writes them in pieces).
 
         The mixed-limits setting is written only when it is not the default "ask", so the data of a
         sheet without it (and the fingerprints of records written before it existed) stay as they were.
@@ -56,7 +57,7 @@ class SheetSnapshot:
                     "lsl": group.lsl,
                     "usl": group.usl,
                     "nominal": group.nominal,
-                    "cells": [_cell_to_dict(cell) for cell in group.cells],
+                    **({"cells": [cell_to_dict(cell) for cell in group.cells]} if with_cells else {}),
                 }
                 for group in self.groups
             ],
@@ -87,7 +88,7 @@ class SheetSnapshot:
                     lsl=_optional_number(group["lsl"]),
                     usl=_optional_number(group["usl"]),
                     nominal=_optional_number(group["nominal"]),
-                    cells=tuple(_cell_from_dict(cell) for cell in group["cells"]),
+                    cells=tuple(cell_from_dict(cell) for cell in group["cells"]),
                 )
                 for group in data["groups"]
             )
@@ -100,7 +101,8 @@ class SheetSnapshot:
         return cls(groups=groups, decimal=decimal, mixed_limits=mixed_limits)
 
 
-def _cell_to_dict(cell: Cell) -> dict[str, Any]:
+def cell_to_dict(cell: Cell) -> dict[str, Any]:
+    """One cell as plain data: its text and kind, and its number, limit, decimals and reason when set."""
     data: dict[str, Any] = {"text": cell.text, "kind": cell.kind.value}
     for name in ("value", "limit", "decimals"):
         if getattr(cell, name) is not None:
@@ -110,7 +112,8 @@ def _cell_to_dict(cell: Cell) -> dict[str, Any]:
     return data
 
 
-def _cell_from_dict(data: dict[str, Any]) -> Cell:
+def cell_from_dict(data: dict[str, Any]) -> Cell:
+    """The cell ``cell_to_dict`` wrote; data that do not fit together raise ``ValueError`` or ``TypeError``."""
     kind = CellKind(data["kind"])
     text = data["text"]
     if not isinstance(text, str):

@@ -42,6 +42,27 @@ def confirm(parent: QWidget | None, title: str, text: str, yes: str = "Yes", no:
     return box.clickedButton() is yes_button
 
 
+def restore_question(parent: QWidget | None, text: str) -> tuple[QMessageBox, object]:
+    """The question that offers back a kept entry, with "Restore" as the default button."""
+    box = QMessageBox(QMessageBox.Icon.Question, "Restore unsaved readings?", text,
+                      QMessageBox.StandardButton.NoButton, parent)
+    restore_button = box.addButton("&Restore them", QMessageBox.ButtonRole.AcceptRole)
+    box.addButton("&Discard them", QMessageBox.ButtonRole.DestructiveRole)
+    box.setDefaultButton(restore_button)
+    return box, restore_button
+
+
+def offer_restore(parent: QWidget | None, text: str) -> str:
+    """Offer back a kept entry: "restore" (the default answer), "discard", or "later" when the
+    question is closed without an answer (the entry is offered again at the next start)."""
+    box, restore_button = restore_question(parent, text)
+    box.exec()
+    clicked = box.clickedButton()
+    if clicked is None:
+        return "later"
+    return "restore" if clicked is restore_button else "discard"
+
+
 def ask_keep_changes(parent: QWidget | None, text: str) -> str:
     """Ask what to do with unsaved readings: "save", "discard" or "cancel"."""
     box = QMessageBox(QMessageBox.Icon.Warning, "Unsaved readings", text, QMessageBox.StandardButton.NoButton, parent)

@@ -25,7 +25,7 @@ from rankwise.ui.question_panel import QuestionPanel
 from rankwise.ui.rank_table import RankTable
 from rankwise.ui.readings_grid import ReadingsGrid
 from rankwise.ui.record_actions import RecordActions
-from rankwise.ui.recovery import RecoveryFile
+from rankwise.ui.recovery import RecoveryFile, RecoveryKeeper
 from rankwise.ui.results_panel import ResultsPanel
 from rankwise.ui.sheet_model import SheetModel
 from rankwise.ui.window_analysis import PROGRESS_DELAY_MS, WindowAnalysis
@@ -37,16 +37,12 @@ from rankwise.ui.window_recovery import WindowRecovery
 from rankwise.ui.window_sheet import WindowSheet
 from rankwise.ui.worker import AnalysisRunner
 
-RECOVERY_DELAY_MS = 300
-"""The recovery file is written this long after the last edit."""
-
-
 class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnalysis, WindowFiles, WindowRecovery,
                  QMainWindow):
     """The Rankwise window. ``MainWindow()`` opens an empty sheet.
 
     Args:
-        recovery: where the unsaved entry is kept (tests give each window its own file).
+        recovery: this window's recovery file (by default a file of its own in the recovery folder).
     """
 
     def __init__(self, recovery: RecoveryFile | None = None) -> None:
@@ -55,9 +51,11 @@ class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnal
         self.setWindowTitle("Rankwise")
         self.setStyleSheet(style_sheet())
         self._fit_to_screen()
-        self.recovery = recovery if recovery is not None else RecoveryFile()
+        self.recovery = recovery if recovery is not None else RecoveryFile.for_new_window()
         self.source_path: Path | None = None
         self.restored_unsaved = False
+        self.restored_windows: list[MainWindow] = []
+        """Further windows opened at start for entries restored beyond the first."""
         self.last_result = None
         self.last_analysis: Analysis | None = None
         self.mixed_limits_problem: MixedLimitsError | None = None
@@ -71,6 +69,10 @@ class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnal
         self.rank_table = RankTable()
         self.runner = AnalysisRunner(self)
         self.records = RecordActions(self)
+        self.keeper = RecoveryKeeper(
+            self.recovery, question=self.question_panel.to_dict, unsaved=self.has_unsaved_readings,
+            source=lambda: str(self.source_path) if self.source_path else "", parent=self)
+        self.keeper.problem.connect(self.recovery_problem)
         self._build_layout()
         self._build_menus()
         self._wire()
@@ -79,8 +81,6 @@ class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnal
         self._progress = 0.0
         self._edit_timer = QTimer(self, singleShot=True, interval=0)
         self._edit_timer.timeout.connect(lambda: self._refresh_after_edit(immediately=False))
-        self._recovery_timer = QTimer(self, singleShot=True, interval=RECOVERY_DELAY_MS)
-        self._recovery_timer.timeout.connect(self.save_recovery)
         self._show_tabs_for_question()
         self._on_sheet_replaced()
         self.grid.setFocus()  # keyboard first: typing starts in the sheet
@@ -102,8 +102,7 @@ class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnal
         if not self._may_replace_sheet():
             event.ignore()
             return
-        self._recovery_timer.stop()
         self.runner.cancel()
         self.runner.wait_until_idle(3000)
-        self.recovery.clear()
+        self.keeper.close()
         event.accept()

@@ -76,7 +76,7 @@ class WindowAnalysis:
             self.runner.request(analysis)
 
     def _on_question_changed(self) -> None:
-        self._recovery_timer.start()
+        self.keeper.question_changed()
         self.request_analysis(immediately=True)
         self._show_tabs_for_question()
 

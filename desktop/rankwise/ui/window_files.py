@@ -45,7 +45,6 @@ class WindowFiles:
         """Start an empty sheet (after asking about unsaved readings)."""
         if self._may_replace_sheet():
             self.set_sheet(empty_sheet())
-            self.recovery.clear()
 
     def ask_and_open(self) -> None:
         """File > Open: ask for a file, then show the open dialog (or reopen a signed record)."""
@@ -90,7 +89,6 @@ class WindowFiles:
         if several != (self.question_panel.option.question is Question.SEVERAL):
             self.question_panel.select_option("several" if several else "differ")
         self.set_sheet(sheet, path)
-        self.recovery.clear()
         used = sum(len(group.values) for group in reading_set.groups)
         skipped = sum(len(group.skipped) for group in reading_set.groups)
         self.statusBar().showMessage(
@@ -129,6 +127,6 @@ class WindowFiles:
         self.restored_unsaved = False
         self.source_path = path
         remember_file(path)
-        self.recovery.clear()
+        self.keeper.settle()
         self.update_title()
         return True

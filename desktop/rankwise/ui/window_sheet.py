@@ -22,14 +22,15 @@ class WindowSheet:
     def _on_sheet_replaced(self) -> None:
         self.restored_unsaved = False
         self.sheet.subscribe(self._on_sheet_changed)
+        self.keeper.follow(self.sheet)
         self.update_title()
         self._refresh_after_edit(immediately=True)
 
     def _on_sheet_changed(self, change) -> None:
         # The sheet sends its notices while an edit is under way (its undo history and saved state
-        # are updated after them), so the window refreshes once the edit has finished.
+        # are updated after them), so the window refreshes once the edit has finished. The recovery
+        # keeper follows the sheet's notices itself: each edit reaches the recovery file at once.
         self._edit_timer.start()
-        self._recovery_timer.start()
 
     def _refresh_after_edit(self, immediately: bool) -> None:
         self.question_panel.set_groups(
@@ -40,6 +41,7 @@ class WindowSheet:
         self.update_undo_actions()
         self.below_highest_action.setChecked(self.sheet.mixed_limits == "below-highest")
         self.update_title()
+        self.keeper.settle()
         self.request_analysis(immediately)
 
     def _update_status(self) -> None:
