@@ -12,7 +12,7 @@ import pytest
 
 from rankwise.readings import ReadingsError, open_readings
 from rankwise.readings import open as open_module
-from rankwise.readings import open_xlsx
+from rankwise.readings import open_xlsx, workbook_check
 
 DEMO = pathlib.Path(__file__).resolve().parents[2] / "demo_files"
 NOBODY = 65534
@@ -214,7 +214,7 @@ def test_zip_bomb_by_packing_ratio(tmp_path, unchanged):
 
 
 def test_zip_bomb_by_total_size(tmp_path, monkeypatch):
-    monkeypatch.setattr(open_xlsx, "MAX_UNPACKED_BYTES", 1_000_000)
+    monkeypatch.setattr(workbook_check, "MAX_UNPACKED_BYTES", 1_000_000)
     path = tmp_path / "big.xlsx"
     with zipfile.ZipFile(path, "w", zipfile.ZIP_STORED) as archive:
         archive.writestr("xl/workbook.xml", os.urandom(1_200_000))

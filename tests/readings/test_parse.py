@@ -56,24 +56,63 @@ def test_numbers_are_read_with_their_typed_resolution(point_machine, text, value
     assert cell.reason == ""
 
 
-def test_ambiguous_thousands_follow_the_machine_locale_in_auto(point_machine):
-    """'1,234' is one thousand two hundred and thirty-four on a decimal-point machine."""
-    assert parse_reading("1,234").value == 1234.0
+def test_a_number_that_reads_two_ways_is_read_with_the_machine_mark_or_flagged(point_machine):
+    """On a decimal-point machine '1.234' is 1.234; '1,234' could be 1234 or 1.234: flagged, never
+    read as 1234 (common practice, no source: the other mark changes the reading a thousandfold)."""
     assert parse_reading("1.234").value == pytest.approx(1.234)
+    cell = parse_reading("1,234")
+    assert cell.kind is CellKind.INVALID and cell.value is None
+    assert "its comma could group thousands (1234) or mark decimals (1.234)" in cell.reason
 
 
-def test_ambiguous_thousands_on_a_decimal_comma_machine(comma_machine):
-    """'1,234' is one point two three four on a decimal-comma machine."""
+def test_the_same_on_a_decimal_comma_machine(comma_machine):
     assert parse_reading("1,234").value == pytest.approx(1.234)
     assert parse_reading("1,234").decimals == 3
-    assert parse_reading("1.234").value == 1234.0
+    cell = parse_reading("1.234")
+    assert cell.kind is CellKind.INVALID and "(1234) or mark decimals (1,234)" in cell.reason
 
 
-def test_an_explicit_decimal_setting_decides():
-    """With the sheet set to a decimal comma, '1,234' is 1.234 and '1.234' is a thousands-grouped 1234."""
+@pytest.mark.parametrize(
+    ("text", "mark"),
+    [("0,42", ","), ("0.42", "."), ("1,234.5", "."), ("1.234,5", ","), ("12,5", ","), ("<0,05", ","),
+     ("1,234", None), ("1.234", None), ("12", None), ("1,234,567", None), ("scrap", None), ("0,42 µm", ",")],
+)
+def test_the_decimal_mark_a_number_shows(text, mark):
+    assert parse_module.decimal_shown(text) == mark
+
+
+def test_an_explicit_decimal_setting_decides_and_flags_the_other_mark():
+    """With a decimal comma '1,234' is 1.234; '1.234' would be 1234 there but may mean 1.234: flagged."""
     assert parse_reading("1,234", decimal=",").value == pytest.approx(1.234)
-    assert parse_reading("1.234", decimal=",").value == 1234.0
-    assert parse_reading("1,234", decimal=".").value == 1234.0
+    assert parse_reading("1.234", decimal=".").value == pytest.approx(1.234)
+    point = parse_reading("1,002", decimal=".")
+    assert point.kind is CellKind.INVALID
+    assert "its comma would group thousands (1002), but it may mark decimals (1.002)" in point.reason
+    comma = parse_reading("1.002", decimal=",")
+    assert comma.kind is CellKind.INVALID
+    assert "type 1002 or 1,002 to say which" in comma.reason
+    assert parse_reading("1,234,567", decimal=".").value == 1234567.0  # two commas: only thousands
+    assert parse_reading("1.234.567", decimal=",").value == 1234567.0
+
+
+@pytest.mark.parametrize(
+    ("text", "why"),
+    [("2e-400", "too small"), ("1e-310", "too small"), ("-3E-330", "too small"), ("1e309", "too large"),
+     ("inf", "not a finite number"), ("-Infinity", "not a finite number"), ("NaN", "not a finite number"),
+     ("\u221e", "not a finite number"), ("0." + "0" * 400 + "1", "too long"), ("0." + "0" * 180 + "1e-200", "too small")],
+)
+@pytest.mark.parametrize("decimal", ["auto", ".", ","])
+def test_numbers_a_float_cannot_hold_are_flagged_not_turned_into_zero_or_infinity(text, why, decimal):
+    """A binary64 float holds magnitudes from about 2.2e-308 (normal) to 1.8e308 (IEEE 754; from memory)."""
+    cell = parse_reading(text.replace(".", decimal) if decimal == "," else text, decimal=decimal)
+    assert cell.kind is CellKind.INVALID and cell.value is None
+    assert why in cell.reason
+
+
+def test_a_written_zero_is_still_zero():
+    assert parse_reading("0.000", decimal=".").value == 0.0
+    assert parse_reading("0e-400", decimal=".").value == 0.0
+    assert parse_reading("-0,0", decimal=",").value == 0.0
 
 
 def test_a_comma_in_a_decimal_point_sheet_is_refused_with_advice():
@@ -93,9 +132,9 @@ def test_broken_numbers_are_invalid_and_keep_their_text(point_machine, text):
     assert text.strip()[:3] in cell.reason
 
 
-@pytest.mark.parametrize("text", ["n/a", "scrap", "re-measure", "-", "NaN", "inf", "\u2014", "re-measure 2"])
+@pytest.mark.parametrize("text", ["n/a", "scrap", "re-measure", "-", "\u2014", "re-measure 2", "information"])
 def test_text_notes_are_kept_as_notes(text):
-    """Words are notes: skipped with a reason, never turned into numbers (not even 'NaN' or 'inf')."""
+    """Words are notes: skipped with a reason, never turned into numbers."""
     cell = parse_reading(text)
     assert cell.kind is CellKind.NOTE
     assert cell.value is None

@@ -11,6 +11,7 @@ take seconds and are rarely all needed.
 from __future__ import annotations
 
 import functools
+import math
 import re
 from collections.abc import Callable
 from dataclasses import dataclass, field
@@ -19,7 +20,7 @@ import numpy as np
 
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind
 from rankwise.readings.errors import ReadingsError
-from rankwise.readings.parse import parse_reading
+from rankwise.readings.parse import SMALLEST_NORMAL, parse_reading
 from rankwise.stats.grid import find_grid
 
 _PLAIN_NUMBER = re.compile(r"[+-]?[0-9]+(?:[.,][0-9]*)?|[+-]?[.,][0-9]+")
@@ -133,9 +134,11 @@ def parse_column(raw: RawColumn, decimal: str) -> ParsedColumn:
         for row in np.flatnonzero(filled):
             text = texts[row]
             if _PLAIN_NUMBER.fullmatch(text) and ("," if decimal == "." else ".") not in text:
-                values[row] = float(text.replace(",", "."))
-                decimals = max(decimals, _decimals_of(text))
-                continue
+                value = float(text.replace(",", "."))
+                if _keeps_its_digits(value, text):
+                    values[row] = value
+                    decimals = max(decimals, _decimals_of(text))
+                    continue
             cell = parse_reading(text, decimal=decimal)
             if cell.kind is CellKind.NUMBER:
                 values[row] = cell.value
@@ -168,7 +171,17 @@ def _read_plain_numbers(texts: np.ndarray, joined: str, decimal: str) -> np.ndar
         values = texts.astype(np.float64)
     except ValueError:
         return None
+    magnitude = np.abs(values)
+    if not (np.isfinite(magnitude) & ((magnitude >= SMALLEST_NORMAL) | (magnitude == 0))).all() or "0" * 300 in joined:
+        return None  # too many digits for a float, or too small for one: read cell by cell, which flags them
     return values
+
+
+def _keeps_its_digits(value: float, text: str) -> bool:
+    """True when a number read from plain digits is what they say: finite, and not too small for a float."""
+    if value == 0:
+        return not any(ch in "123456789" for ch in text)
+    return math.isfinite(value) and abs(value) >= SMALLEST_NORMAL
 
 
 def check_texts_match(header: str, texts: np.ndarray, numbers: np.ndarray, decimal: str) -> np.ndarray:

@@ -167,12 +167,17 @@ def find_shape(rows: Sequence[Sequence[str]], numeric: Sequence[Sequence[bool]] 
 def unique_headers(names: Sequence[str], width: int) -> tuple[str, ...]:
     """Column names: the header texts, "Column N" for blanks, "(2)" added to repeats."""
     result: list[str] = []
+    taken: set[str] = set()
+    next_count: dict[str, int] = {}
     for j in range(width):
         name = names[j].strip() if j < len(names) and names[j].strip() else f"Column {j + 1}"
-        base, count = name, 2
-        while name in result:
+        if name in taken:
+            base, count = name, next_count.get(name, 2)
+            while f"{base} ({count})" in taken:
+                count += 1
             name = f"{base} ({count})"
-            count += 1
+            next_count[base] = count + 1
+        taken.add(name)
         result.append(name)
     return tuple(result)
 
@@ -256,7 +261,8 @@ def choose_layout(
         chosen = tuple(value_columns) if value_columns else tuple(readings)
         if not chosen:
             raise _no_readings()
-        unused = [headers[j] for j in range(len(headers)) if j not in chosen and profiles[j].filled]
+        used = set(chosen)
+        unused = [headers[j] for j in range(len(headers)) if j not in used and profiles[j].filled]
         notes = [f"Each column of readings is a group: {_quoted(headers[j] for j in chosen)}."]
         if unused:
             notes.append(f"Columns not used as readings: {_quoted(unused)}.")

@@ -57,6 +57,8 @@ class _Table:
     decimal_note: str
     load: Callable[[TableShape, list[int], list[int]], list[RawColumn]]
     """Loads the wanted columns; the second list names the columns expected to hold readings."""
+    sheet_notes: tuple[str, ...] = ()
+    """Which sheet of a workbook was read when that was not plain, and merged labels spread down."""
 
 
 def open_readings(
@@ -139,6 +141,7 @@ def _read_head(path: Path) -> bytes:
 
 
 def _text_table(path: Path, head: bytes, decimal: str, encoding: str | None) -> _Table:
+    open_csv.check_size(path)
     chosen = encoding or open_csv.find_encoding(head, path)
     sample = open_csv.read_sample(path, chosen)
     rows = sample.rows
@@ -175,10 +178,9 @@ def _text_table(path: Path, head: bytes, decimal: str, encoding: str | None) -> 
 
 
 def _workbook_table(path: Path, sheet: str | int | None, decimal: str) -> _Table:
-    open_xlsx.check_container(path)
     read = open_xlsx.read_sheet(path, sheet)
     head_rows = read.rows[:SAMPLE_ROWS]
-    typed = [[isinstance(v, (int, float)) and not isinstance(v, bool) for v in row] for row in head_rows]
+    typed = [[open_xlsx.is_stored_number(v) for v in row] for row in head_rows]
     texts = [[open_xlsx.value_text(v) for v in row] for row in head_rows]
     if decimal == "auto":
         typed_texts = [t for row, marks in zip(texts, typed) for t, m in zip(row, marks) if t and not m]
@@ -193,7 +195,7 @@ def _workbook_table(path: Path, sheet: str | int | None, decimal: str) -> _Table
         return open_xlsx.raw_columns(read.rows, shape.first_data_row, list(shape.headers), decimal, wanted)
 
     source = {"format": "xlsx", "sheet": read.name, "sheet_names": read.names}
-    return _Table(source, texts, numeric, decimal, note, load)
+    return _Table(source, texts, numeric, decimal, note, load, read.notes)
 
 
 def _column_index(name: str | int, headers: Sequence[str], argument: str) -> int:
@@ -226,6 +228,11 @@ def _read_groups(
             f"'{path.name}' holds no readings: no column has numbers in it; check that this is the right export."
         )
     headers = shape.headers
+    if len(headers) > open_csv.MAX_COLUMNS:
+        raise ReadingsError(
+            f"'{path.name}' has {len(headers):,} columns, more than a spreadsheet sheet can hold "
+            f"({open_csv.MAX_COLUMNS:,}); check that this is the right file."
+        )
     if value_column is None:
         values = None
     elif isinstance(value_column, (str, int)):
@@ -349,7 +356,7 @@ def _notes(
     shape: TableShape, table: _Table, choice: LayoutChoice, groups: list[ReadingGroup], unlabelled: list[SkippedCell]
 ) -> list[str]:
     """Plain words on what was chosen, assumed and skipped."""
-    notes = list(choice.notes)
+    notes = list(table.sheet_notes) + list(choice.notes)
     if shape.header_row == 1:
         notes.append("Row 1, above the header, was taken as a title and skipped.")
     elif shape.header_row > 1:

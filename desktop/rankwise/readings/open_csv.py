@@ -19,6 +19,7 @@ import numpy as np
 import pandas as pd
 
 from rankwise.readings.errors import ReadingsError
+from rankwise.readings.parse import SMALLEST_NORMAL
 
 SAMPLE_CHARACTERS = 1 << 18
 """How much of a text file is looked at to find its encoding, separator, header and layout."""
@@ -26,6 +27,12 @@ SAMPLE_ROWS = 120
 """Rows looked at to find the header, the decimal mark and the layout."""
 MAX_CELL_CHARACTERS = 10_000
 """A cell longer than this is not part of a readings export."""
+MAX_TEXT_BYTES = 1 << 30
+"""A text file larger than this (1 GiB) is not a readings export."""
+MAX_ROWS = 5_000_000
+"""A text file with more lines than this is not a readings export (a spreadsheet holds 1,048,576 rows)."""
+MAX_COLUMNS = 16_384
+"""A table with more columns than a spreadsheet sheet can have (XFD) is not a readings export."""
 
 DELIMITERS = (";", "\t", "|", ",")
 """Candidate separators, in order of preference when they split the lines equally well."""
@@ -89,6 +96,27 @@ def not_a_spreadsheet(path: Path) -> ReadingsError:
     )
 
 
+def check_size(path: Path) -> None:
+    """Refuse a text file too big, or with too many lines, to be a readings export, before any reader loads it."""
+    size = path.stat().st_size
+    if size > MAX_TEXT_BYTES:
+        raise ReadingsError(
+            f"'{path.name}' is {size / 1e9:,.1f} GB, far more than a readings export (at most "
+            f"{MAX_TEXT_BYTES / 1e9:,.1f} GB); check that this is the right file, or split it."
+        )
+    if size <= MAX_ROWS:
+        return
+    lines = 0
+    with open(path, "rb") as stream:
+        while piece := stream.read(16 << 20):
+            lines += piece.count(b"\n") or piece.count(b"\r")
+            if lines > MAX_ROWS:
+                raise ReadingsError(
+                    f"'{path.name}' has more than {MAX_ROWS:,} lines, more than a readings export holds; "
+                    "check that this is the right file, or split it."
+                )
+
+
 def read_sample(path: Path, encoding: str) -> TextSample:
     """The first rows of a text file, split with the separator that fits them best."""
     try:
@@ -114,7 +142,7 @@ def read_sample(path: Path, encoding: str) -> TextSample:
         lines.pop()
     lines = lines[:SAMPLE_ROWS]
     delimiter = find_delimiter(lines)
-    rows = split_lines(lines, delimiter)
+    rows = split_lines(lines, delimiter, path)
     return TextSample(encoding, delimiter, rows, complete and len(lines) < SAMPLE_ROWS)
 
 
@@ -129,7 +157,10 @@ def find_delimiter(lines: list[str]) -> str:
         candidates = list(DELIMITERS)
     best, best_score = "", 0.0
     for delimiter in candidates:
-        widths = [len(row) for row in csv.reader(filled, delimiter=delimiter)]
+        try:
+            widths = [len(row) for row in csv.reader(filled, delimiter=delimiter)]
+        except csv.Error:  # a field longer than the csv module takes: not this separator's table
+            continue
         width, count = Counter(widths).most_common(1)[0]
         score = count / len(widths) if width > 1 else 0.0
         if score > best_score + 1e-9:
@@ -137,9 +168,19 @@ def find_delimiter(lines: list[str]) -> str:
     return best
 
 
-def split_lines(lines: list[str], delimiter: str) -> list[list[str]]:
-    """Lines split into fields (quotes honoured); a single column when there is no separator."""
-    return [row if row else [""] for row in csv.reader(lines, delimiter=delimiter or _NO_DELIMITER)]
+def split_lines(lines: list[str], delimiter: str, path: Path | None = None) -> list[list[str]]:
+    """Lines split into fields (quotes honoured); a single column when there is no separator.
+
+    A field longer than the csv module takes (131,072 characters) raises ``ReadingsError``.
+    """
+    try:
+        return [row if row else [""] for row in csv.reader(lines, delimiter=delimiter or _NO_DELIMITER)]
+    except csv.Error as error:
+        name = f"'{path.name}'" if path is not None else "The text"
+        raise ReadingsError(
+            f"{name} holds a cell of more than {csv.field_size_limit():,} characters, far too long for a reading; "
+            "check that this is the right file."
+        ) from error
 
 
 def read_columns(
@@ -183,8 +224,25 @@ def read_number_columns(
     numbers = {j: frame[j].to_numpy(dtype=np.float64) for j in numeric}
     if any(np.isinf(column).any() for column in numbers.values()):
         return None
+    if any((np.abs(column) < SMALLEST_NORMAL).any() for column in numbers.values()) and _may_underflow(path):
+        return None  # a zero or tiny number may stand for a text too small for a float: read the texts
     texts = {j: frame[j].to_numpy(dtype=object) for j in wanted if j not in numeric}
     return texts, numbers
+
+
+_TOO_SMALL = re.compile(rb"[0-9.,][eE]-0*[1-9][0-9]{2}|[.,]0{300}")
+"""Number texts that may be too small for a float (2e-400, or 0. and 300 zeros): such a file is read as texts."""
+
+
+def _may_underflow(path: Path) -> bool:
+    """True when the file holds a number text that may be too small for a float (it would read as 0)."""
+    tail = b""
+    with open(path, "rb") as stream:
+        while piece := stream.read(16 << 20):
+            if _TOO_SMALL.search(tail + piece):
+                return True
+            tail = piece[-400:]
+    return False
 
 
 def _csv_options(sample: TextSample, first_data_row: int, width: int, wanted: list[int]) -> dict:
@@ -210,7 +268,7 @@ def _read_columns_slowly(path: Path, sample: TextSample, first_data_row: int, wa
             f"'{path.name}' is not {sample.encoding} text throughout; choose the file's encoding "
             "(for example cp1252) when opening it."
         ) from error
-    rows = split_lines(lines[first_data_row:], sample.delimiter)
+    rows = split_lines(lines[first_data_row:], sample.delimiter, path)
     return {j: _column(rows, j) for j in wanted}
 
 

@@ -2,7 +2,8 @@
 
 The text is never changed; the result is a ``Cell`` that keeps it beside the number, or beside
 the plain-words reason why it is not one. Thousands separators are accepted only where they
-cannot be mistaken for a decimal mark.
+cannot be mistaken for a decimal mark. Infinity, not-a-number, and numbers too large or too
+small for a binary float (1e309, 2e-400) are flagged, never turned into inf or 0.
 """
 
 from __future__ import annotations
@@ -16,7 +17,8 @@ import re
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind
 
 DECIMAL_CHOICES = ("auto", ".", ",")
-"""Allowed decimal settings: guess per value (machine locale first), a point, or a comma."""
+"""Allowed decimal settings: take the mark each value shows (the machine's for "1,234"), a point,
+or a comma."""
 
 MAX_TEXT_LENGTH = 200
 """Longer cell texts are not readings (a pasted paragraph, a huge cell in a damaged export)."""
@@ -37,6 +39,10 @@ _DATE_OR_TIME = re.compile(
     r"|\d{1,2}:\d{2}(?::\d{2}(?:[.,]\d+)?)?(?:\s*[AaPp][Mm])?"
 )
 """Dates ("2026-03-02", "02.03.2026", "3/2/26") and times ("14:05", "14:05:30"): never readings."""
+_NOT_FINITE = re.compile(r"[+" + re.escape(_MINUS_SIGNS) + r"]?\s*(?:inf|infinity|nan|\u221e)", re.IGNORECASE)
+"""Infinity and not-a-number, as programs write them: flagged, never a reading."""
+SMALLEST_NORMAL = 2.2250738585072014e-308
+"""The smallest positive normal binary64 number (IEEE 754; sys.float_info.min): below it digits are lost."""
 
 _COMMA_LANGUAGES = frozenset(
     "af az be bg bs ca cs da de el es et eu fi fo fr gl hr hu hy id is it ka kk ky lt lv mk mn nb "
@@ -83,7 +89,9 @@ def parse_reading(text: str, *, decimal: str = "auto", unit: str = "") -> Cell:
     Args:
         text: the text exactly as typed or read.
         decimal: "." or "," for the decimal mark, or "auto" (an unambiguous mark is taken as it
-            is; for "1,234" or "1.234" the machine's locale decides).
+            is; "1,234" or "1.234" is read with the machine's mark). A number whose only separator
+            is not the decimal mark and could group thousands ("1,002" with a decimal point) is
+            flagged, never read as 1002: the person may have meant 1.002.
         unit: the group's unit; a number followed by this unit ("0,42 µm") is a reading, a
             number followed by any other text is not.
     """
@@ -103,6 +111,8 @@ def parse_reading(text: str, *, decimal: str = "auto", unit: str = "") -> Cell:
             f"'{_short(text)}' is above a limit; only readings below a detection limit can be ranked, "
             "so type the measured value or a note.",
         )
+    if _NOT_FINITE.fullmatch(stripped):
+        return _invalid(text, f"'{_short(text)}' is not a finite number, so it cannot be a reading.")
     if _DATE_OR_TIME.fullmatch(stripped):
         return Cell(text, CellKind.NOTE, reason=f"'{_short(text)}' is a date or a time, not a reading.")
     read = _read_number(stripped, decimal, unit)
@@ -154,6 +164,8 @@ def _read_number(stripped: str, decimal: str, unit: str) -> tuple[float, int] | 
     value = float(f"{'-' if negative else ''}{whole or '0'}.{fraction or '0'}e{exponent}")
     if not math.isfinite(value):
         return f"'{_short(stripped)}' is too large to be a reading."
+    if abs(value) < SMALLEST_NORMAL and (whole.strip("0") or fraction.strip("0")):
+        return f"'{_short(stripped)}' is too small to be kept as a number (it would read as 0 or lose digits)."
     return value, max(0, len(fraction) - exponent)
 
 
@@ -175,16 +187,26 @@ def _split_mantissa(mantissa: str, decimal: str) -> tuple[str, str] | str:
         elif decimal == sign:
             mark = sign
         elif decimal != "auto":
+            name = "comma" if sign == "," else "point"
             if not _is_grouped(mantissa, sign):
-                name = "comma" if sign == "," else "point"
                 return (
                     f"it has a {name}, but this sheet reads a decimal '{decimal}'; "
                     "change the sheet's decimal mark or retype it."
                 )
-            mark = None
+            grouped, decimal_form = _both_readings(mantissa, sign)
+            return (
+                f"with this sheet's decimal {'point' if decimal == '.' else 'comma'} its {name} would group "
+                f"thousands ({grouped}), but it may mark decimals ({decimal_form}); type {grouped} or {decimal_form} to say which."
+            )
         else:
-            ambiguous = _is_grouped(mantissa, sign)
-            mark = sign if not ambiguous or sign == machine_decimal() else None
+            if _is_grouped(mantissa, sign) and sign != machine_decimal():
+                grouped, decimal_form = _both_readings(mantissa, sign)
+                name = "comma" if sign == "," else "point"
+                return (
+                    f"its {name} could group thousands ({grouped}) or mark decimals ({decimal_form}), and no reading "
+                    f"shows the sheet's decimal mark yet; type {grouped} or {decimal_form}, or choose the decimal mark."
+                )
+            mark = sign
     else:
         mark = None
     if mark is None:
@@ -200,6 +222,32 @@ def _split_mantissa(mantissa: str, decimal: str) -> tuple[str, str] | str:
     if not (whole or fraction):
         return "it has no digits."
     return whole, fraction
+
+
+def decimal_shown(text: str) -> str | None:
+    """The decimal mark a typed number shows beyond doubt ("0,42" a comma, "1,234.5" a point), else None.
+
+    "1,234" and "1.234" show none: the separator may group thousands or mark decimals.
+    """
+    stripped = text.strip().lstrip("<\u2264").strip()
+    match = _NUMBER_START.fullmatch(stripped)
+    if match is None or len(stripped) > MAX_TEXT_LENGTH:
+        return None
+    mantissa = match["mantissa"].strip(_GROUP_SPACES)
+    points, commas = mantissa.count("."), mantissa.count(",")
+    if points and commas:
+        return "." if mantissa.rfind(".") > mantissa.rfind(",") else ","
+    if points + commas != 1:
+        return None
+    sign = "." if points else ","
+    return None if _is_grouped(mantissa, sign) else sign
+
+
+def _both_readings(mantissa: str, sign: str) -> tuple[str, str]:
+    """A number with one separator read both ways: grouped thousands ("1002") and with the separator as the
+    decimal mark, written with the other mark ("1.002" for "1,002")."""
+    whole, _, fraction = mantissa.partition(sign)
+    return whole + fraction, f"{whole}{'.' if sign == ',' else ','}{fraction}"
 
 
 def _is_grouped(digits: str, separator: str | None) -> bool:

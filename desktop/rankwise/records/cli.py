@@ -121,6 +121,12 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
         return _problem(refused)
     try:
         reading_set = open_readings(args.input)
+    except ReadingsError as error:
+        return _problem(str(error))
+    except Exception as error:  # noqa: BLE001 - any other failure of a reader still gets a plain answer and exit 2
+        return _problem(f"'{args.input.name}' could not be read as readings ({type(error).__name__}); check that it is "
+                        "a CSV or XLSX export of readings, or open it in a spreadsheet program and save it again.")
+    try:
         sheet = ReadingSheet.from_reading_set(reading_set)
         chosen = _chosen_groups(sheet.group_names, args.groups)
         settings = Settings(alpha=args.alpha, alternative=args.alternative)
