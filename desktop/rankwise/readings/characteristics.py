@@ -323,7 +323,6 @@ def _all_rows(path: Path, sheet: str | int | None, encoding: str | None) -> tupl
     if not head:
         raise ReadingsError(f"'{path.name}' is empty; choose the file that holds the readings.")
     if head.startswith((b"PK\x03\x04", b"PK\x05\x06")):
-        open_xlsx.check_container(path)
         read = open_xlsx.read_sheet(path, sheet)
         return [[open_xlsx.value_text(v) for v in row] for row in read.rows], read.name, "."
     chosen = encoding or open_csv.find_encoding(head, path)
