@@ -46,13 +46,13 @@ def record_parser() -> argparse.ArgumentParser:
 
 def run_record_command(argv: Sequence[str]) -> int:
     """Run ``report`` or ``verify``; the PDF of ``report`` is drawn by the window's printing module."""
-    from rankwise.records.cli import run_report, run_verify
+    from rankwise.records.cli import page_size, run_report, run_verify
 
     args = record_parser().parse_args(list(argv))
     if args.command == "report":
         from rankwise.ui.printing import render_pdf_for_cli
 
-        return run_report(args, render_pdf=render_pdf_for_cli)
+        return run_report(args, render_pdf=lambda path, record: render_pdf_for_cli(path, record, page_size(args)))
     return run_verify(args)
 
 

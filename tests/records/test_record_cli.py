@@ -38,7 +38,7 @@ def report(*words):
 def test_report_writes_a_signed_record_that_verifies_intact(readings, tmp_path, capsys):
     out = tmp_path / "result.xlsx"
     code = run_report(report(readings, "--out", out, "--signed-by", "Ann Lee", "--role", "process technician",
-                             "--decision", "accept the change"))
+                             "--decision", "accept the change", "--question", "two-groups"))
     assert code == 0
     printed = capsys.readouterr().out
     assert "Wheel B reads higher than Wheel A" in printed

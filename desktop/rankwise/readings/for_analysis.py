@@ -9,6 +9,8 @@ from typing import TYPE_CHECKING
 from rankwise.readings.censored import censoring_for
 from rankwise.readings.cells import Cell, CellKind
 from rankwise.readings.parse import machine_decimal
+from rankwise.readings.snapshot import RowParts
+from rankwise.wording import pairing as words
 from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
 
 if TYPE_CHECKING:
@@ -16,7 +18,7 @@ if TYPE_CHECKING:
 
 
 def build_analysis(columns: Sequence[GroupColumn], question: Question, settings: Settings | None,
-                   decimal: str = "auto", mixed_limits: str = "ask") -> Analysis:
+                   decimal: str = "auto", mixed_limits: str = "ask", parts: RowParts | None = None) -> Analysis:
     """The ``Analysis`` for these groups.
 
     Each group's values follow entry order; blanks, notes and unreadable entries become NaN (the
@@ -28,6 +30,9 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     pair up by row and a missing partner shows as a blank in its row.
     ``decimal`` is the sheet's decimal setting; the analysis writes numbers for people with that
     mark, or with "auto" the mark the readings were typed with (see ``typed_decimal_mark``).
+    ``parts`` says which part each row is; the notes then say how the readings were paired and
+    name the parts left out, or caution when the same parts are compared as separate groups (see
+    ``question_notes``).
     """
     question = Question(question)
     censoring = censoring_for([(column.name, column.cells) for column in columns], mixed_limits)
@@ -61,6 +66,8 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
             notes.append(f"{column.name}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}.")
     if censoring is not None:
         notes.insert(0, censoring.note)
+    groups, question_remarks = question_notes(question, groups, parts or RowParts())
+    notes[:0] = question_remarks
     mark = decimal if decimal in (".", ",") else typed_decimal_mark(columns)
     return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes),
                     decimal_mark=mark)
@@ -90,3 +97,52 @@ def _decimal_mark_of(cell: Cell) -> str | None:
     mantissa = cell.text.lower().split("e")[0]
     last = max(mantissa.rfind("."), mantissa.rfind(","))
     return mantissa[last] if last >= 0 else None
+
+
+def question_notes(question: Question, groups: list[GroupReadings], parts: RowParts
+                   ) -> tuple[list[GroupReadings], list[str]]:
+    """The groups the question uses, and the notes the record keeps on how the readings fit it.
+
+    Same parts: how the rows were paired (by identifier or by row) and, by identifier, the parts
+    with a reading at one stage only. Two groups of rows known to be the same parts: a caution
+    that the pairing is ignored. Several groups: empty groups left out, groups with a single
+    reading named in a warning.
+    """
+    if question is Question.PAIRED and len(groups) == 2:
+        if parts.ids is None:
+            return groups, [words.paired_by_row()]
+        return groups, _part_pairing_notes(groups, parts)
+    if question is Question.TWO_GROUPS and parts.ids is not None:
+        return groups, [words.same_parts_as_separate_groups(parts.column)]
+    if question is Question.SEVERAL:
+        notes = []
+        kept = []
+        for group in groups:
+            count = sum(1 for value in group.values if not math.isnan(value))
+            if count == 0:
+                notes.append(words.empty_group_left_out(group.name))
+                continue
+            if count == 1:
+                notes.append(words.small_group(group.name, count))
+            kept.append(group)
+        return kept, notes
+    return groups, []
+
+
+def _part_pairing_notes(groups: list[GroupReadings], parts: RowParts) -> list[str]:
+    """How many parts pair by identifier, and the parts with a reading at one stage only."""
+    first, second = groups
+    rows = max(len(first.values), len(second.values))
+    paired = 0
+    unpaired = []
+    for row in range(rows):
+        has = [row < len(g.values) and not math.isnan(g.values[row]) for g in groups]
+        part = parts.id_of(row) or f"row {row + 1} (no identifier)"
+        if all(has):
+            paired += 1
+        elif any(has):
+            unpaired.append((part, first.name if has[0] else second.name))
+    notes = [words.paired_by_part(paired, parts.column)]
+    if unpaired:
+        notes.append(words.unpaired_parts(unpaired, "parts"))
+    return notes

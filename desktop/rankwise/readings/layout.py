@@ -27,7 +27,11 @@ _POINT_DECIMAL = re.compile(r"[+-]?(?:\d*\.\d{1,2}|\d*\.\d{4,}|0\.\d+|\d{4,}\.\d
 _IDENTIFIER_HEADER = re.compile(r"(?i)\b(?:part|no|nr|number|id|serial|item|pos|position|row|index|count)\b|#")
 _GROUP_HEADER = re.compile(
     r"(?i)\b(?:group|press|machine|wheel|line|tool|lot|batch|shift|cavity|station|supplier|die|mou?ld|nest|"
-    r"spindle|furnace|oven|cell|setting|recipe|version|condition|state|before|after)\b"
+    r"spindle|furnace|oven|cell|setting|recipe|version|condition|state|stage|step|phase|before|after)\b"
+)
+_ROW_COUNTER_HEADER = re.compile(r"(?i)\s*(?:no\.?|nr\.?|#|row|index|pos\.?|position|count|line no\.?|entry)\s*")
+_PART_HEADER = re.compile(
+    r"(?i)\b(?:part|parts|serial|s/n|sn|sample|specimen|piece|id|ident|identifier)\b|\b\w+\s*(?:no|nr|number|#)\b\.?"
 )
 
 
@@ -87,7 +91,15 @@ class ColumnProfile:
         steps = {b - a for a, b in zip(self.whole_numbers, self.whole_numbers[1:])}
         if len(self.whole_numbers) >= 3 and steps == {1.0}:
             return True
+        if _names_parts(self.header):
+            return True
         return bool(_IDENTIFIER_HEADER.search(self.header)) and len(set(self.whole_numbers)) == self.numbers
+
+
+def _names_parts(header: str) -> bool:
+    """A title naming part identifiers ("Serial", "Spring no."), not a group, a unit or a row count."""
+    return (bool(_PART_HEADER.search(header)) and not _GROUP_HEADER.search(header)
+            and not unit_in_header(header) and not _ROW_COUNTER_HEADER.fullmatch(header))
 
 
 @dataclass(frozen=True)
@@ -284,9 +296,49 @@ def choose_layout(
     return LayoutChoice("stacked", (value,), group_column, tuple(notes))
 
 
+def find_part_column(profiles: Sequence[ColumnProfile], used: Sequence[int]) -> int | None:
+    """The column of part identifiers (serial, part or sample number, ID) among the unused columns, or None.
+
+    A part column is filled on most rows and either has a title naming an identifier ("Part",
+    "Serial", "Spring no.", "ID") or holds labels with digits that are mostly all different
+    ("C-01", "BS-26-0007"). A column titled only "No.", "#" or "Row" counting 1, 2, 3... is a row
+    count, not a part identifier: pairing by it would pair by position.
+    """
+    found = []
+    for profile in profiles:
+        if profile.index in used or profile.filled < 0.8 * profile.rows or profile.dates:
+            continue
+        texts = list(profile.labels)
+        named = _names_parts(profile.header)
+        if profile.numbers and not profile.is_identifier and not named:
+            continue
+        if profile.numbers and _ROW_COUNTER_HEADER.fullmatch(profile.header):
+            continue
+        distinct = len(texts) + len(set(profile.whole_numbers))
+        labelled = sum(profile.labels.values()) + len(profile.whole_numbers)
+        if labelled < 0.8 * profile.filled or distinct < 2:
+            continue
+        with_digits = sum(1 for t in texts if any(ch.isdigit() for ch in t)) + len(profile.whole_numbers)
+        if named or (with_digits >= 0.8 * distinct and distinct >= 0.3 * labelled):
+            found.append((not named, profile.index))
+    return min(found)[1] if found else None
+
+
+def part_noun(header: str) -> str:
+    """What the parts are called, plural, from the part column's title: "Spring no." gives "springs"."""
+    words = re.findall(r"[^\W\d_]+", header)
+    if len(words) >= 2 and words[-1].lower() in ("no", "nr", "number", "id") \
+            and words[-2].lower() not in ("part", "serial", "sample", "item"):
+        noun = words[-2].lower()
+        return noun if noun.endswith("s") else noun + "s"
+    return "parts"
+
+
 def _could_group(profile: ColumnProfile, readings: list[int], value_columns: Sequence[int] | None) -> bool:
-    """A text column, filled on most rows, with a few labels that repeat."""
+    """A text column, filled on most rows, with a few labels that repeat (not part identifiers)."""
     if profile.index in readings or (value_columns and profile.index in value_columns):
+        return False
+    if _names_parts(profile.header):
         return False
     labelled = sum(profile.labels.values())
     if labelled == 0 or labelled < 0.8 * profile.rows:

@@ -22,10 +22,12 @@ from rankwise.readings.cells import CellKind, SkippedCell
 from rankwise.readings.columns import ParsedColumn, RawColumn, check_texts_match, parse_column
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import (
-    LAYOUTS, LayoutChoice, TableShape, choose_layout, find_shape, guess_decimal, is_number_text, profile_columns,
+    LAYOUTS, LayoutChoice, TableShape, choose_layout, find_part_column, find_shape, guess_decimal, is_number_text,
+    profile_columns,
     name_without_unit,
     unit_in_header,
 )
+from rankwise.readings.same_parts import pair_by_part, suggest
 from rankwise.readings.parse import check_decimal
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
 from rankwise.readings.title_block import TitleBlockDetails, read_title_block
@@ -244,14 +246,18 @@ def _read_groups(
     sample_marks = table.numeric[shape.first_data_row:]
     profiles = profile_columns(sample_rows, sample_marks, headers, table.decimal)
     choice = choose_layout(profiles, layout, values, group)
-    wanted = sorted(set(choice.value_columns) | ({choice.group_column} if choice.group_column is not None else set()))
+    used = set(choice.value_columns) | ({choice.group_column} if choice.group_column is not None else set())
+    part_column = find_part_column(profiles, sorted(used))
+    wanted = sorted(used | ({part_column} if part_column is not None else set()))
     raw = dict(zip(wanted, table.load(shape, wanted, list(choice.value_columns))))
     first_row_number = shape.first_data_row + 1
+    ids = _part_texts(raw[part_column]) if part_column is not None else None
     if choice.layout == "wide":
-        groups = [_wide_group(raw[j], table.decimal, first_row_number) for j in choice.value_columns]
+        groups = [_wide_group(raw[j], table.decimal, first_row_number, ids) for j in choice.value_columns]
         unlabelled: list[SkippedCell] = []
     else:
-        groups, unlabelled = _stacked_groups(raw[choice.value_columns[0]], raw[choice.group_column], table.decimal, first_row_number)
+        groups, unlabelled = _stacked_groups(raw[choice.value_columns[0]], raw[choice.group_column], table.decimal,
+                                             first_row_number, ids)
     if not any(g.values.size for g in groups) and not any(
         c.kind is CellKind.CENSORED for g in groups for c in g.cells
     ):
@@ -265,6 +271,12 @@ def _read_groups(
     if title.note:
         notes.append(title.note)
     groups = [_with_title_details(g, title) for g in groups]
+    pairing, problem = (None, "")
+    if part_column is not None:
+        pairing, problem = pair_by_part(groups, headers[part_column], first_row_number)
+    suggestion = suggest(groups, pairing)
+    if problem:
+        notes.append(problem)
     source = SourceInfo(
         path=str(path),
         layout=choice.layout,
@@ -276,7 +288,20 @@ def _read_groups(
         preview=tuple(tuple(row) for row in table.rows[:PREVIEW_ROWS]),
         **table.source,
     )
-    return ReadingSet(groups=tuple(groups), source=source, notes=tuple(notes))
+    return ReadingSet(groups=tuple(groups), source=source, notes=tuple(notes), suggested_question=suggestion.question,
+                      pairing=pairing, pairing_problem=problem, found=suggestion.found)
+
+
+def _part_texts(raw: RawColumn) -> np.ndarray:
+    """The part column's identifiers as stripped texts, one per data row."""
+    return np.array([str(text).strip() for text in raw.cell_texts], dtype=object)
+
+
+def _ids_for(ids: np.ndarray | None, rows: np.ndarray | range) -> tuple[str, ...] | None:
+    """The identifiers of these data rows ("" past the end of the part column), or None without a part column."""
+    if ids is None:
+        return None
+    return tuple(ids[r] if r < len(ids) else "" for r in rows)
 
 
 def _with_title_details(group: ReadingGroup, title: TitleBlockDetails) -> ReadingGroup:
@@ -286,15 +311,19 @@ def _with_title_details(group: ReadingGroup, title: TitleBlockDetails) -> Readin
     )
 
 
-def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingGroup:
+def _wide_group(raw: RawColumn, decimal: str, first_row_number: int, ids: np.ndarray | None) -> ReadingGroup:
     parsed = parse_column(raw, decimal)
     length = parsed.length
     values = parsed.values[:length]
     blank = np.isnan(values)
+    cell_ids = _ids_for(ids, range(length))
     return ReadingGroup(
         name=name_without_unit(raw.header),
         unit=unit_in_header(raw.header),
         values=values[~blank] if blank.any() else values,
+        part_ids=None if cell_ids is None else tuple(p for p, gap in zip(cell_ids, blank) if not gap),
+        cell_part_ids=cell_ids,
+        make_rows=lambda: tuple(range(first_row_number, first_row_number + length)),
         skipped=_skipped(parsed, raw.header, first_row_number),
         make_decimals=lambda: parsed.decimals,
         make_cells=lambda: tuple(parsed.cell(row) for row in range(length)),
@@ -302,7 +331,7 @@ def _wide_group(raw: RawColumn, decimal: str, first_row_number: int) -> ReadingG
 
 
 def _stacked_groups(
-    value: RawColumn, label: RawColumn, decimal: str, first_row_number: int
+    value: RawColumn, label: RawColumn, decimal: str, first_row_number: int, ids: np.ndarray | None
 ) -> tuple[list[ReadingGroup], list[SkippedCell]]:
     """Groups by label, in order of first appearance; labels differing only in outer spaces are one group."""
     parsed = parse_column(value, decimal)
@@ -331,11 +360,16 @@ def _stacked_groups(
             ]
             continue
         values = parsed.values[rows]
+        gaps = np.isnan(values)
+        cell_ids = _ids_for(ids, rows)
         groups.append(
             ReadingGroup(
                 name=name,
                 unit=unit_in_header(value.header),
-                values=values[~np.isnan(values)],
+                values=values[~gaps],
+                part_ids=None if cell_ids is None else tuple(p for p, gap in zip(cell_ids, gaps) if not gap),
+                cell_part_ids=cell_ids,
+                make_rows=lambda rows=rows: tuple(int(r) + first_row_number for r in rows),
                 skipped=tuple(skipped.get(k, ())),
                 make_decimals=lambda: parsed.decimals,
                 make_cells=lambda rows=rows: tuple(parsed.cell(int(r)) for r in rows),

@@ -9,6 +9,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from rankwise.readings.cells import Cell, SkippedCell
+from rankwise.stats.analysis import Question
 
 
 @dataclass(frozen=True)
@@ -24,6 +25,9 @@ class ReadingGroup:
         unit: the readings' unit when the column title names one in brackets ("Force (kN)"), or
             the title block does; else "".
         lsl, usl, nominal: specification limits and nominal stated in the file's title block, or None.
+        part_ids: the part identifier of each of ``values`` (same order), from the file's part
+            column, or None when the file has none.
+        cell_part_ids: the part identifier of each of ``cells`` (same order), or None.
     """
 
     name: str
@@ -33,10 +37,19 @@ class ReadingGroup:
     lsl: float | None = None
     usl: float | None = None
     nominal: float | None = None
+    part_ids: tuple[str, ...] | None = None
+    cell_part_ids: tuple[str, ...] | None = field(default=None, repr=False, compare=False)
     make_cells: Callable[[], tuple[Cell, ...]] = field(default=tuple, repr=False, compare=False)
     """Builds ``cells`` on first use (a million cells take time to build and are rarely all needed)."""
     make_decimals: Callable[[], int | None] = field(default=lambda: None, repr=False, compare=False)
     """Finds ``decimals`` on first use."""
+    make_rows: Callable[[], tuple[int, ...]] = field(default=tuple, repr=False, compare=False)
+    """Builds ``file_rows`` on first use."""
+
+    @functools.cached_property
+    def file_rows(self) -> tuple[int, ...]:
+        """The file's row number (1-based) of each of ``cells``; () when not known."""
+        return tuple(self.make_rows())
 
     @functools.cached_property
     def decimals(self) -> int | None:
@@ -84,12 +97,44 @@ class SourceInfo:
 
 
 @dataclass(frozen=True)
+class PartPairing:
+    """The same parts measured twice, matched by their identifiers (never by position).
+
+    Attributes:
+        part_column: the header of the column of part identifiers.
+        noun: what the parts are called, plural ("springs" from "Spring no."; else "parts").
+        parts: every identifier, in order of first appearance in the file; one sheet row each.
+        paired: how many parts have a reading (or a cell) at both stages.
+        unpaired: (identifier, the only stage it appears in) for each part present once.
+    """
+
+    part_column: str
+    noun: str
+    parts: tuple[str, ...]
+    paired: int
+    unpaired: tuple[tuple[str, str], ...] = ()
+
+
+@dataclass(frozen=True)
 class ReadingSet:
-    """The readings of an opened file: groups, where they came from, and plain-words notes."""
+    """The readings of an opened file: groups, where they came from, and plain-words notes.
+
+    Attributes:
+        suggested_question: the question the readings fit: the same parts measured twice when
+            they pair by part identifier, several groups for three or more, else two groups.
+        pairing: how the two groups' readings pair part by part, or None.
+        pairing_problem: plain words on why readings recognised as the same parts cannot be
+            paired (an identifier repeated within one stage), else "".
+        found: one sentence on what was recognised, for the open dialog, or "".
+    """
 
     groups: tuple[ReadingGroup, ...]
     source: SourceInfo
     notes: tuple[str, ...] = ()
+    suggested_question: Question = Question.TWO_GROUPS
+    pairing: PartPairing | None = None
+    pairing_problem: str = ""
+    found: str = ""
 
     @property
     def group_names(self) -> list[str]:

@@ -17,7 +17,7 @@ from rankwise.readings.errors import ReadingsError
 from rankwise.readings.censored import check_mixed_limits
 from rankwise.readings.group_names import next_group_names
 from rankwise.readings.parse import check_decimal, parse_reading
-from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
+from rankwise.readings.snapshot import GroupSnapshot, RowParts, SheetSnapshot
 from rankwise.readings.suspicious import flag_readings
 
 if TYPE_CHECKING:
@@ -98,8 +98,11 @@ class _Step:
 class ReadingSheet:
     """Groups of readings as typed, with undo/redo of every edit and notices of every change."""
 
-    def __init__(self, groups: Iterable[GroupColumn] = (), *, decimal: str = "auto", mixed_limits: str = "ask") -> None:
+    def __init__(self, groups: Iterable[GroupColumn] = (), *, decimal: str = "auto", mixed_limits: str = "ask",
+                 parts: RowParts | None = None) -> None:
         self.groups: list[GroupColumn] = [group.copy() for group in groups]
+        self.parts = parts if parts is not None else RowParts()
+        """Which part each row is (when a file paired the readings by part), or why rows are not parts."""
         self._decimal = check_decimal(decimal)
         self._mixed_limits = check_mixed_limits(mixed_limits)
         for position, group in enumerate(self.groups):
@@ -122,18 +125,31 @@ class ReadingSheet:
             ),
             decimal=snapshot.decimal,
             mixed_limits=snapshot.mixed_limits,
+            parts=snapshot.parts,
         )
 
     @classmethod
     def from_reading_set(cls, reading_set: ReadingSet) -> ReadingSheet:
-        """A sheet holding the groups of an opened file, cells as read, with the file's decimal mark and units."""
+        """A sheet holding the groups of an opened file, cells as read, with the file's decimal mark and units.
+
+        When the file holds the same parts measured twice (``reading_set.pairing``), each row is one
+        part, matched by its identifier: a blank where a part has no cell at one stage.
+        """
+        from rankwise.readings.same_parts import rows_by_part, rows_not_parts
+
+        pairing = reading_set.pairing
+        cells = rows_by_part(reading_set.groups, pairing.parts) if pairing is not None else [
+            list(group.cells) for group in reading_set.groups]
+        parts = (RowParts(pairing.part_column, pairing.parts) if pairing is not None
+                 else RowParts(not_parts=rows_not_parts(reading_set)))
         return cls(
             (
                 GroupColumn(group.name, unit=group.unit, lsl=group.lsl, usl=group.usl, nominal=group.nominal,
-                            cells=list(group.cells))
-                for group in reading_set.groups
+                            cells=column)
+                for group, column in zip(reading_set.groups, cells)
             ),
             decimal=reading_set.source.decimal,
+            parts=parts,
         )
 
     def snapshot(self) -> SheetSnapshot:
@@ -144,6 +160,7 @@ class ReadingSheet:
             ),
             decimal=self._decimal,
             mixed_limits=self._mixed_limits,
+            parts=self.parts,
         )
 
     # ----- reading ----------------------------------------------------------------------------
@@ -216,7 +233,24 @@ class ReadingSheet:
         if len(set(chosen)) != len(chosen):
             raise ValueError(f"groups must not repeat a group; got {list(groups or [])}.")
         return build_analysis([self.groups[g] for g in chosen], question, settings, decimal=self._decimal,
-                              mixed_limits=self._mixed_limits)
+                              mixed_limits=self._mixed_limits, parts=self.parts)
+
+    def pairing_refusal(self, groups: Sequence[int]) -> str:
+        """Why the same-parts question cannot be asked of these two groups, in plain words; "" when it can.
+
+        Rows pair up when a file matched them by part identifier, or, typed or opened without
+        identifiers, when each row is one part and both groups have as many rows.
+        """
+        from rankwise.wording.pairing import rows_are_not_parts, rows_do_not_pair
+
+        if self.parts.ids is not None:
+            return ""
+        if self.parts.not_parts:
+            return rows_are_not_parts(self.parts.not_parts)
+        first, second = (self.groups[self._group_index(g)] for g in groups)
+        if len(first.cells) != len(second.cells):
+            return rows_do_not_pair(first.name, len(first.cells), second.name, len(second.cells))
+        return ""
 
     # ----- change notices ---------------------------------------------------------------------
 
@@ -396,15 +430,19 @@ class ReadingSheet:
         if not self._rows_in_reach(row, count):
             return
 
+        parts = self.parts
+
         def apply() -> None:
             for group in self.groups:
                 if row < len(group.cells):
                     group.cells[row:row] = [EMPTY_CELL] * count
+            self.parts = parts.with_rows_inserted(row, count)
 
         def revert() -> None:
             for group in self.groups:
                 if row < len(group.cells):
                     del group.cells[row:row + count]
+            self.parts = parts
 
         last = row + count - 1
         operation = _Operation(
@@ -420,6 +458,7 @@ class ReadingSheet:
             return
         count = min(count, self.row_count - row)
         removed: list[list[Cell]] = []
+        parts = self.parts
 
         def apply() -> None:
             removed.clear()
@@ -427,8 +466,10 @@ class ReadingSheet:
                 removed.append(group.cells[row:row + count])
                 del group.cells[row:row + count]
                 _trim(group.cells)
+            self.parts = parts.with_rows_deleted(row, count)
 
         def revert() -> None:
+            self.parts = parts
             for group, cells in zip(self.groups, removed):
                 if cells:
                     if len(group.cells) < row:

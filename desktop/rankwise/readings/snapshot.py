@@ -7,7 +7,7 @@ record reopened on a machine with another locale shows the same numbers.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Any
 
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind
@@ -32,20 +32,73 @@ class GroupSnapshot:
 
 
 @dataclass(frozen=True)
+class RowParts:
+    """Which part each row of the sheet is, or why its rows are not parts.
+
+    Attributes:
+        column: the file's column of part identifiers the rows were matched by, or "".
+        ids: the part identifier of each row (rows past the end have none), or None when the
+            rows were not matched by identifier (typed, or opened without a part column).
+        not_parts: plain words on why the rows cannot be paired as parts (a stacked export
+            without identifiers), or "" when a row may be taken as one part.
+    """
+
+    column: str = ""
+    ids: tuple[str, ...] | None = None
+    not_parts: str = ""
+
+    def with_rows_inserted(self, row: int, count: int) -> RowParts:
+        """The same parts with ``count`` rows without an identifier inserted before ``row``."""
+        if self.ids is None or row >= len(self.ids):
+            return self
+        return replace(self, ids=self.ids[:row] + ("",) * count + self.ids[row:])
+
+    def with_rows_deleted(self, row: int, count: int) -> RowParts:
+        """The same parts with rows ``row`` to ``row + count - 1`` deleted."""
+        if self.ids is None:
+            return self
+        return replace(self, ids=self.ids[:row] + self.ids[row + count:])
+
+    def id_of(self, row: int) -> str:
+        """The part identifier of a row, or "" when it has none."""
+        return self.ids[row] if self.ids is not None and row < len(self.ids) else ""
+
+    def to_dict(self) -> dict[str, Any]:
+        """Plain data for the snapshot's JSON form."""
+        data: dict[str, Any] = {}
+        if self.ids is not None:
+            data.update(column=self.column, ids=list(self.ids))
+        if self.not_parts:
+            data["not_parts"] = self.not_parts
+        return data
+
+    @classmethod
+    def from_dict(cls, data: Any) -> RowParts:
+        """Rebuild from ``to_dict`` data; ``TypeError`` or ``ValueError`` when damaged."""
+        ids = data.get("ids")
+        if ids is not None and not all(isinstance(part, str) for part in ids):
+            raise TypeError("part identifiers")
+        return cls(str(data.get("column", "")), None if ids is None else tuple(ids), str(data.get("not_parts", "")))
+
+
+@dataclass(frozen=True)
 class SheetSnapshot:
-    """The whole sheet as it stood: its groups, its decimal setting ("auto", "." or ",") and how
-    readings below different detection limits are treated ("ask" or "below-highest")."""
+    """The whole sheet as it stood: its groups, its decimal setting ("auto", "." or ","), how
+    readings below different detection limits are treated ("ask" or "below-highest"), and which
+    part each row is (see ``RowParts``)."""
 
     groups: tuple[GroupSnapshot, ...] = ()
     decimal: str = "auto"
     mixed_limits: str = "ask"
+    parts: RowParts = RowParts()
 
     def to_dict(self, with_cells: bool = True) -> dict[str, Any]:
         """Plain data (dicts, lists, str, float, int, None) that ``json.dumps`` accepts; without the
         cells when ``with_cells`` is False (the entry journal writes them in pieces).
 
-        The mixed-limits setting is written only when it is not the default "ask", so the data of a
-        sheet without it (and the fingerprints of records written before it existed) stay as they were.
+        The mixed-limits setting and the rows' parts are written only when they are not the defaults,
+        so the data of a sheet without them (and the fingerprints of records written before they
+        existed) stay as they were.
         """
         data: dict[str, Any] = {
             "format": FORMAT_VERSION,
@@ -64,6 +117,8 @@ class SheetSnapshot:
         }
         if self.mixed_limits != "ask":
             data["mixed_limits"] = self.mixed_limits
+        if self.parts.to_dict():
+            data["parts"] = self.parts.to_dict()
         return data
 
     @classmethod
@@ -81,6 +136,7 @@ class SheetSnapshot:
             if decimal not in DECIMAL_CHOICES:
                 raise ValueError(decimal)
             mixed_limits = check_mixed_limits(data.get("mixed_limits", "ask"))
+            parts = RowParts.from_dict(data.get("parts", {}))
             groups = tuple(
                 GroupSnapshot(
                     name=str(group["name"]),
@@ -98,7 +154,7 @@ class SheetSnapshot:
             raise ReadingsError(
                 "The stored readings are damaged and cannot be restored; use the original file or retype them."
             ) from error
-        return cls(groups=groups, decimal=decimal, mixed_limits=mixed_limits)
+        return cls(groups=groups, decimal=decimal, mixed_limits=mixed_limits, parts=parts)
 
 
 def cell_to_dict(cell: Cell) -> dict[str, Any]:
