@@ -156,9 +156,9 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
         chosen = _chosen_groups(sheet.group_names, args.groups, question)
         settings = _settings(args, question, sheet.group_names)
         if question is Question.PAIRED:
-            refusal = sheet.pairing_refusal(chosen)
-            if refusal:
-                raise ValueError(refusal)
+            cannot_pair = sheet.pairing_refusal(chosen)
+            if cannot_pair:
+                raise ValueError(cannot_pair)
         analysis = sheet.to_analysis(question, settings, groups=chosen)
         result = run(analysis)
     except (ReadingsError, ValueError) as error:
