@@ -6,7 +6,7 @@ import math
 
 import pytest
 
-from rankwise.records.canonical import canonical_bytes, decode, encode, sha256_hex
+from rankwise.records.canonical import canonical_bytes, decode, encode, sha256_hex, with_defaults
 from rankwise.records.errors import RecordError
 from rankwise.records.record import fingerprint, record_from_data, record_to_data
 from rankwise.stats.results import ConfidenceInterval
@@ -22,10 +22,24 @@ def test_canonical_text_has_sorted_keys_no_spaces_repr_floats_and_utf8():
 
 
 def test_floats_are_written_as_floats_whatever_type_they_arrive_as():
-    interval = ConfidenceInterval(low=1, high=math.inf, level=0.95, method="m")
+    interval = ConfidenceInterval(low=1, high=math.inf, level=0.95, method="m", high_included=False)
     assert encode(interval, ConfidenceInterval) == {
-        "low": 1.0, "high": "Infinity", "level": 0.95, "method": "m", "attained_level": None}
+        "low": 1.0, "high": "Infinity", "level": 0.95, "method": "m", "attained_level": None,
+        "low_included": True, "high_included": False}
     assert decode(encode(interval, ConfidenceInterval), ConfidenceInterval) == interval
+
+
+def test_an_interval_stored_before_open_ends_were_kept_reads_back_closed():
+    """A record written before intervals had open ends holds no low_included / high_included: its
+    intervals read back with both ends closed, as they were meant; unknown fields stay refused."""
+    older = {"low": 0.0, "high": 0.4, "level": 0.95, "method": "m", "attained_level": None}
+    back = decode(older, ConfidenceInterval)
+    assert back.low_included is True and back.high_included is True
+    assert with_defaults(older, ConfidenceInterval) == {**older, "low_included": True, "high_included": True}
+    with pytest.raises(RecordError):
+        decode({**older, "colour": "red"}, ConfidenceInterval)
+    with pytest.raises(RecordError):
+        decode({"high": 0.4, "level": 0.95, "method": "m"}, ConfidenceInterval)
 
 
 @pytest.mark.parametrize("build", [paired_record, several_record])

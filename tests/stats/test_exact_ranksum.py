@@ -104,5 +104,5 @@ def test_an_exact_count_too_big_for_memory_is_refused_in_the_window_s_words(monk
 
     monkeypatch.setattr(exact_ranksum, "MAX_TABLE_CELLS", 10)
     with pytest.raises(ValueError, match="by the normal approximation") as refusal:
-        compare_two([1.0, 2.0, 3.0, 4.0], [2.5, 3.5, 5.0], method="exact")
+        compare_two([1.0, 2.0, 3.0, 4.0, 5.0, 6.0], [1.5, 2.5, 3.5, 4.5, 5.5, 6.5], method="exact")
     assert not re.search(r"method|=|'normal'", str(refusal.value))

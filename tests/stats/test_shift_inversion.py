@@ -6,7 +6,7 @@ import numpy as np
 
 from rankwise.stats.critical import critical_u
 from rankwise.stats.hodges_lehmann import moses_interval
-from rankwise.stats.shift_inversion import tie_aware_interval
+from rankwise.stats.shift_inversion import accepted_shifts
 
 DRAWS = 200
 
@@ -23,9 +23,11 @@ def test_coverage_keeps_the_level_and_the_interval_is_narrower_than_the_no_ties_
     for _ in range(DRAWS):
         a = np.sort(np.round(rng.normal(0.0, 1.5, 12)))
         b = np.sort(np.round(rng.normal(0.0, 1.5, 15)) + 2.0)
-        low, high = tie_aware_interval(a, b, 0.95)
+        accepted = accepted_shifts(a, b, 0.95)
+        low, high = accepted.low, accepted.high
         moses_low, moses_high = moses_interval(a, b, c)
-        covered += low <= 2.0 <= high
+        covered += (low < 2.0 or (accepted.low_included and low == 2.0)) and (
+            2.0 < high or (accepted.high_included and high == 2.0))
         assert moses_low <= low and high <= moses_high
         widths.append(high - low)
         moses_widths.append(moses_high - moses_low)
@@ -36,7 +38,7 @@ def test_coverage_keeps_the_level_and_the_interval_is_narrower_than_the_no_ties_
 def test_it_steps_aside_where_it_cannot_answer():
     """None (the caller keeps the order statistics) for readings off the gauge's whole steps, for
     groups too small for any significance (every shift accepted), and beyond its work limit."""
-    assert tie_aware_interval(np.array([1.0, 1.5, 2.0]), np.array([2.0, 3.0, 3.0]), 0.95) is None
-    assert tie_aware_interval(np.array([1.0, 2.0]), np.array([2.0, 3.0]), 0.95) is None
+    assert accepted_shifts(np.array([1.0, 1.5, 2.0]), np.array([2.0, 3.0, 3.0]), 0.95) is None
+    assert accepted_shifts(np.array([1.0, 2.0]), np.array([2.0, 3.0]), 0.95) is None
     many = np.round(np.random.default_rng(2).normal(0.0, 30.0, 400))
-    assert tie_aware_interval(many, many + 3.0, 0.95) is None
+    assert accepted_shifts(many, many + 3.0, 0.95) is None

@@ -4,7 +4,8 @@ Objects are turned into plain JSON data guided by their type annotations, so tha
 written the same way whatever Python or numpy type it arrived as (a float field always as a float,
 written by ``repr``). Non-finite floats are written as the strings "NaN", "Infinity" and
 "-Infinity". The canonical text has sorted keys, no whitespace and is encoded as UTF-8; the
-decision record resources/decisions/record-fingerprint.md describes it.
+decision record resources/decisions/record-fingerprint.md describes it. A field added to a type
+later, with a default, may be missing from data written before; it reads back as its default.
 """
 
 from __future__ import annotations
@@ -85,10 +86,9 @@ def _decode(data: Any, hint: Any) -> Any:
     if dataclasses.is_dataclass(hint):
         _require(data, dict)
         hints = typing.get_type_hints(hint)
-        names = {f.name for f in dataclasses.fields(hint)}
-        if set(data) != names:
+        if not _required_fields(hint) <= set(data) <= {f.name for f in dataclasses.fields(hint)}:
             raise ValueError(f"fields of {hint.__name__} do not match")
-        return hint(**{name: _decode(data[name], hints[name]) for name in names})
+        return hint(**{name: _decode(data[name], hints[name]) for name in data})
     if isinstance(hint, type) and issubclass(hint, enum.Enum):
         return hint(data)
     if hint is bool:
@@ -108,6 +108,45 @@ def _decode(data: Any, hint: Any) -> Any:
     if hint is datetime:
         return datetime.fromisoformat(_require(data, str))
     raise ValueError(f"no canonical form for {hint!r}")
+
+
+def with_defaults(data: Any, hint: Any) -> Any:
+    """``data`` (as ``encode`` wrote it for type ``hint``) with every field added since it was
+    written filled in with the field's default, e.g. a record written before confidence intervals
+    had open ends reads back with closed ends; data that do not fit ``hint`` are returned as they are."""
+    arms = _union_arms(hint)
+    if arms is not None:
+        if data is None:
+            return None
+        if len(arms) == 1:
+            return with_defaults(data, arms[0])
+        chosen = next((arm for arm in arms if isinstance(data, dict) and dataclasses.is_dataclass(arm)
+                       and arm.__name__ == data.get("type")), None)
+        if chosen is None:
+            return data
+        return {**data, "fields": with_defaults(data.get("fields"), chosen)}
+    if typing.get_origin(hint) is tuple and isinstance(data, list):
+        try:
+            item_hints = _item_hints(hint, len(data))
+        except ValueError:
+            return data
+        return [with_defaults(item, item_hint) for item, item_hint in zip(data, item_hints)]
+    if dataclasses.is_dataclass(hint) and isinstance(data, dict):
+        hints = typing.get_type_hints(hint)
+        completed = {}
+        for field in dataclasses.fields(hint):
+            if field.name in data:
+                completed[field.name] = with_defaults(data[field.name], hints[field.name])
+            elif field.default is not dataclasses.MISSING:
+                completed[field.name] = encode(field.default, hints[field.name])
+        return {**data, **completed}
+    return data
+
+
+def _required_fields(hint: Any) -> set[str]:
+    """The fields of a dataclass that have no default (every record holds them)."""
+    return {f.name for f in dataclasses.fields(hint)
+            if f.default is dataclasses.MISSING and f.default_factory is dataclasses.MISSING}
 
 
 def _union_arms(hint: Any) -> list[Any] | None:

@@ -11,7 +11,7 @@ from openpyxl.worksheet.worksheet import Worksheet
 
 import rankwise
 from rankwise.readings import ReadingSheet, ReadingsError
-from rankwise.records.canonical import canonical_bytes, encode, sha256_hex
+from rankwise.records.canonical import canonical_bytes, encode, sha256_hex, with_defaults
 from rankwise.records.characteristics_check import characteristics_readings_differences
 from rankwise.records.compare import data_differences, sheet_differences
 from rankwise.records.errors import RecordError
@@ -97,6 +97,7 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
                         stored_fingerprint)
     as_read = {key: value for key, value in data.items() if key != VISIBLE_SHEETS_KEY}
     as_read["analysis"] = with_later_fields(data.get("analysis"))
+    as_read["result"] = with_defaults(data.get("result"), Result)
     if canonical_bytes(record_to_data(record)) != canonical_bytes(as_read):
         differences.append("The program data hold entries that do not belong to a record.")
 

@@ -17,6 +17,7 @@ from scipy.stats import norm
 
 from rankwise.stats.analysis import ALTERNATIVES
 from rankwise.stats.inputs import check_choice, check_level
+from rankwise.stats.progress import SILENT, Monitor
 
 EXACT_WORK_LIMIT = 100_000_000
 """Largest (smaller size) x (truncation point) counted exactly (about 0.3 s; e.g. 580 + 580)."""
@@ -57,11 +58,12 @@ def _check_sizes(n_a: int, n_b: int) -> tuple[int, int]:
     return int(n_a), int(n_b)
 
 
-def lower_tail_probabilities(n_a: int, n_b: int, u_max: int) -> np.ndarray:
+def lower_tail_probabilities(n_a: int, n_b: int, u_max: int, monitor: Monitor = SILENT) -> np.ndarray:
     """P(U = u) for u = 0..u_max with no ties (U of either group: the distribution is symmetric).
 
     The series of [N choose m]_q is built in floating point and rescaled after every step (the
     counts themselves would overflow past N of about 1000); the last step divides by C(N, m).
+    ``monitor`` sees the progress after every step and may stop the count.
     """
     n_a, n_b = _check_sizes(n_a, n_b)
     m, n = min(n_a, n_b), max(n_a, n_b)
@@ -82,6 +84,7 @@ def lower_tail_probabilities(n_a: int, n_b: int, u_max: int) -> np.ndarray:
         top = series.max()
         series /= top
         log_scale += log(top)
+        monitor.step(j / m)
     log_total = lgamma(m + n + 1) - lgamma(m + 1) - lgamma(n + 1)
     return series * np.exp(log_scale - log_total)
 

@@ -10,6 +10,17 @@ Probabilities, not counts, are carried: after i readings, a cell holds the chanc
 i readings contain k of the tracked group with a given partial sum. Every entry stays in [0, 1], so
 nothing overflows at large N (counts such as C(1200, 600) would). Each reading costs a few
 vectorised updates: the rows k are taken in about a dozen bands, each over its own columns.
+
+Two shapes of data have much cheaper exact counts, and the cheapest of the three is used
+(``exact_count_seconds`` estimates each from measured costs on the development machine):
+
+- no ties: the counts of U are the coefficients of the Gaussian binomial coefficient
+  (Mann & Whitney 1947; ``rankwise.stats.critical.lower_tail_probabilities``), m steps over half
+  the support, m the smaller group: 3 readings against 100,000 take about a millisecond;
+- few distinct values (a coarse gauge): the count runs over the tie blocks instead of the
+  readings, the number of the tracked group's readings in each block following the
+  hypergeometric law given those still to place, and only the (readings, sum) pairs that occur
+  are kept: 400 readings on a 3-value gauge take a few milliseconds.
 """
 
 from __future__ import annotations
@@ -17,7 +28,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import numpy as np
+from scipy.special import gammaln
 
+from rankwise.stats.critical import lower_tail_probabilities
 from rankwise.stats.progress import SILENT, Monitor
 
 _BANDS = 12
@@ -70,7 +83,14 @@ def rank_sum_distribution(doubled_ranks: np.ndarray, n_a: int, monitor: Monitor 
     n_b = n_total - n_a
     # Track the smaller group: fewer rows, and every partial sum stays within a small range.
     n_tracked = min(n_a, n_b)
-    sums = _tracked_sum_distribution(doubled, n_tracked, monitor)
+    costs = _costs(block_sizes_of(doubled), n_tracked, n_total)
+    way = min(costs, key=costs.get)
+    if way == "no ties":
+        sums = _no_ties_sum_distribution(n_total, n_tracked, monitor)
+    elif way == "blocks":
+        sums = _block_sum_distribution(doubled, n_tracked, monitor)
+    else:
+        sums = _tracked_sum_distribution(doubled, n_tracked, monitor)
     twice_u_tracked = sums.doubled_sums - n_tracked * (n_tracked + 1)
     twice_u_a = twice_u_tracked if n_tracked == n_a else 2 * n_a * n_b - twice_u_tracked
     order = np.argsort(twice_u_a)
@@ -82,6 +102,128 @@ def no_ties_distribution(n_a: int, n_b: int, monitor: Monitor = SILENT) -> RankS
     if n_a < 1 or n_b < 1:
         raise ValueError(f"n_a and n_b must be at least 1; got {n_a} and {n_b}.")
     return rank_sum_distribution(2 * np.arange(1, n_a + n_b + 1), n_a, monitor)
+
+
+_SECONDS_PER_SERIES_CELL = 4e-9
+_SECONDS_PER_BLOCK_STATE = 2.5e-7
+_SECONDS_PER_BLOCK = 4e-5
+_SECONDS_PER_TABLE_CELL = 5e-10
+_SECONDS_PER_READING = 2.5e-5
+_SECONDS_PER_COUNT = 1.5e-4
+"""Measured costs on the development machine (tests/benchmarks/bench_two_groups.py): a cell of the
+no-ties series per step, a (readings, sum) pair made in the count by tie blocks, one tie block, a
+unit of the reading-by-reading table work (n_small^2 n_large N of them), one reading's updates,
+and what every count costs whatever its way (ranking, sorting, looking up)."""
+
+
+def exact_count_seconds(block_sizes: np.ndarray | None, n_tracked: int, n_total: int) -> float:
+    """Estimated seconds of the cheapest exact count.
+
+    ``block_sizes``: how many readings share each distinct value, in ascending order of value
+    (None when no two readings tie); ``n_tracked``: the smaller group's size; ``n_total``: N.
+    """
+    return min(_costs(block_sizes, n_tracked, n_total).values()) + _SECONDS_PER_COUNT
+
+
+def block_sizes_of(doubled_ranks: np.ndarray) -> np.ndarray | None:
+    """The sizes of the tie blocks (singles included) in ascending order, or None without ties."""
+    _, sizes = np.unique(np.asarray(doubled_ranks), return_counts=True)
+    return None if sizes.size == np.asarray(doubled_ranks).size else sizes
+
+
+def _costs(block_sizes: np.ndarray | None, n_tracked: int, n_total: int) -> dict[str, float]:
+    """Estimated seconds of each way to count."""
+    small, large = n_tracked, n_total - n_tracked
+    costs = {"readings": small * small * large * n_total * _SECONDS_PER_TABLE_CELL + n_total * _SECONDS_PER_READING}
+    if block_sizes is None:
+        costs["no ties"] = small * (small * large // 2 + 1) * _SECONDS_PER_SERIES_CELL
+    else:
+        costs["blocks"] = (_block_states(block_sizes, n_tracked, n_total) * _SECONDS_PER_BLOCK_STATE
+                           + len(block_sizes) * _SECONDS_PER_BLOCK)
+    return costs
+
+
+def _block_states(sizes: np.ndarray, n_tracked: int, n_total: int) -> float:
+    """An upper bound on the (readings, sum) pairs the count by tie blocks makes (the last block
+    takes whatever is left, one way)."""
+    states, made = 1.0, 0.0
+    span = 0
+    for size in np.asarray(sizes)[:-1].tolist():
+        choices = min(size, n_tracked) + 1
+        made += states * choices
+        span += min(size, n_tracked) * 2 * n_total
+        states = min(states * choices, (n_tracked + 1.0) * (span + 1.0))
+        if made > 1e12:
+            break
+    return made + states
+
+
+def _no_ties_sum_distribution(n_total: int, n_tracked: int, monitor: Monitor) -> _SumDistribution:
+    """Doubled rank sums of n_tracked of the ranks 1..N without ties: the series of the Gaussian
+    binomial coefficient over the lower half of U, mirrored (the distribution is symmetric)."""
+    n_other = n_total - n_tracked
+    top = n_tracked * n_other
+    if top // 2 + 1 > MAX_TABLE_CELLS:
+        raise ValueError(_too_big(n_total))
+    lower = lower_tail_probabilities(n_tracked, n_other, top // 2, monitor)
+    counts = np.concatenate([lower, lower[: top + 1 - lower.size][::-1]])
+    probabilities = counts / counts.sum()
+    doubled_sums = 2 * np.arange(top + 1, dtype=np.int64) + n_tracked * (n_tracked + 1)
+    return _SumDistribution(doubled_sums=doubled_sums, probabilities=probabilities)
+
+
+def _block_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Monitor) -> _SumDistribution:
+    """Doubled rank sums of n_tracked readings drawn at random, counted over the tie blocks.
+
+    Given k tracked readings placed before a block of t readings, with R readings left, the block
+    holds j tracked ones with the hypergeometric chance C(t, j) C(R - t, q - j) / C(R, q), q = n_tracked - k.
+    Only the (k, sum) pairs that occur are kept, merged after every block.
+    """
+    scores, sizes = np.unique(doubled, return_counts=True)
+    log_factorial = gammaln(np.arange(doubled.size + 2, dtype=float))
+    placed = np.zeros(1, dtype=np.int64)
+    sums = np.zeros(1, dtype=np.int64)
+    probabilities = np.ones(1)
+    remaining = doubled.size
+    for index, (score, size) in enumerate(zip(scores.tolist(), sizes.tolist())):
+        to_place = n_tracked - placed
+        # j from the fewest the rest can still take up to the most this block can hold.
+        fewest = np.maximum(0, to_place - (remaining - size))
+        most = np.minimum(size, to_place)
+        width = int((most - fewest).max()) + 1
+        j = fewest[:, None] + np.arange(width)[None, :]
+        possible = j <= most[:, None]
+        j = np.where(possible, j, fewest[:, None])
+        log_chance = (_log_choose(log_factorial, size, j) + _log_choose(log_factorial, remaining - size, to_place[:, None] - j)
+                      - _log_choose(log_factorial, remaining, to_place)[:, None])
+        chance = np.where(possible, np.exp(log_chance), 0.0) * probabilities[:, None]
+        if possible.sum() > MAX_TABLE_CELLS:
+            raise ValueError(_too_big(doubled.size))
+        new_placed = (placed[:, None] + j)[possible]
+        new_sums = (sums[:, None] + j * score)[possible]
+        key = new_placed * (int(new_sums.max()) + 1) + new_sums
+        unique_keys, where = np.unique(key, return_inverse=True)
+        probabilities = np.bincount(where, weights=chance[possible])
+        first = np.zeros(unique_keys.size, dtype=np.int64)
+        first[where] = np.arange(where.size)
+        placed, sums = new_placed[first], new_sums[first]
+        remaining -= size
+        monitor.step(index / scores.size)
+    monitor.step(1.0)
+    reachable = probabilities > 0.0
+    probabilities = probabilities[reachable] / probabilities[reachable].sum()
+    return _SumDistribution(doubled_sums=sums[reachable], probabilities=probabilities)
+
+
+def _too_big(n_total: int) -> str:
+    """The refusal of an exact count beyond the working memory, in the words of the window's method picker."""
+    return (f"The exact p-value for these {n_total} readings would need more memory than this program "
+            "allows; choose to compute the p-value by the normal approximation instead.")
+
+
+def _log_choose(log_factorial: np.ndarray, n, k):
+    """log C(n, k) from a table of log factorials (k within 0..n)."""
+    return log_factorial[n + 1] - log_factorial[k + 1] - log_factorial[n - k + 1]
 
 
 @dataclass(frozen=True)
@@ -110,10 +252,7 @@ def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Moni
     width = room_below + room_above + 1 + 2 * pad
     origin = room_below + pad
     if (n_tracked + 1) * width > MAX_TABLE_CELLS:
-        raise ValueError(
-            f"The exact p-value for these {n_total} readings would need more memory than this program "
-            "allows; choose to compute the p-value by the normal approximation instead."
-        )
+        raise ValueError(_too_big(n_total))
     table = np.zeros((n_tracked + 1, width))
     table[0, origin] = 1.0
     # Columns that may hold mass, per row (inclusive); rows are updated in bands of a few rows,

@@ -24,6 +24,10 @@ from collections.abc import Sequence
 import numpy as np
 from scipy import stats as _dist
 
+from rankwise.stats.change_inversion import accepted_changes
+from rankwise.stats.exact_signed_rank import exact_cost as _exact_cost
+from rankwise.stats.exact_signed_rank import exact_p as _exact_p
+from rankwise.stats.exact_signed_rank import signed_rank_null
 from rankwise.stats.grid import find_grid
 from rankwise.stats.hodges_lehmann import select_walsh_sums
 from rankwise.stats.inputs import check_choice, check_level
@@ -38,6 +42,8 @@ EXACT_BUDGET = 4e7
 NULL_CHART_LIMIT = 200
 """Largest number of non-zero differences for which the null distribution is kept for the chart."""
 _EXACT_CRITICAL_LIMIT = 400
+_P_TOLERANCE = 1e-12
+"""Sums of exact probabilities carry rounding noise; p within this of alpha counts as equal."""
 """Largest n for which critical_t counts the exact no-ties distribution (normal beyond)."""
 
 
@@ -143,7 +149,7 @@ def compare_paired(
 
     sorted_d = np.sort(d_counts)
     shift = float(grid.to_readings(_walsh_median(sorted_d)) / 2.0)
-    shift_ci = _walsh_interval(sorted_d, grid, confidence, "")
+    shift_ci = _walsh_interval(sorted_d, grid, confidence, "", alternative, zero_method)
     if shift_ci is None:
         warnings.append(
             f"Too few pairs for a {confidence:.0%} distribution-free interval of the pseudo-median."
@@ -152,13 +158,13 @@ def compare_paired(
     equivalence_ci = None
     if margin is not None:
         equivalence_ci = _walsh_interval(
-            sorted_d, grid, 1.0 - 2.0 * alpha, " (two one-sided tests)"
+            sorted_d, grid, 1.0 - 2.0 * alpha, " (two one-sided tests)", "two-sided", zero_method
         )
         if equivalence_ci is None:
             warnings.append("Too few pairs to show equivalence at this significance level.")
             equivalent = False
         else:
-            equivalent = bool(-margin < equivalence_ci.low and equivalence_ci.high < margin)
+            equivalent = equivalence_ci.lies_strictly_inside(-margin, margin)
 
     return PairedResult(
         name_a=name_a,
@@ -184,7 +190,7 @@ def compare_paired(
         p_normal=p_normal,
         z=z,
         critical_t=critical,
-        significant=bool(p_value <= alpha),
+        significant=bool(p_value <= alpha + _P_TOLERANCE),
         shift=shift,
         shift_ci=shift_ci,
         summary_a=summarize(name_a, values_a, len(dropped_rows)),
@@ -240,55 +246,6 @@ def _abs_ranks(d_counts: np.ndarray, differences: np.ndarray, ranked: np.ndarray
         within[part] = r
     ranks[ranked] = within
     return ranks, blocks
-
-
-def _exact_cost(doubled_ranks: np.ndarray) -> float:
-    """Work of the sign-flip count: steps times the length of the reduced support."""
-    if doubled_ranks.size == 0:
-        return 0.0
-    step = np.gcd.reduce(doubled_ranks)
-    return float(doubled_ranks.size) * float(doubled_ranks.sum() // step)
-
-
-def signed_rank_null(doubled_ranks: np.ndarray, monitor: Monitor = SILENT) -> tuple[np.ndarray, np.ndarray]:
-    """Exact distribution of W+ when each rank's sign is + or - with chance 1/2, independently.
-
-    ``doubled_ranks`` are twice the (mid-)ranks of the non-zero |d|, so whole numbers. The
-    count runs over sums in units of their greatest common divisor, one rank at a time, in
-    floating-point probabilities (nothing overflows). Returns the values W+ can take (in rank
-    units, ascending) and their probabilities. Cancellable through ``monitor``.
-    """
-    doubled_ranks = np.asarray(doubled_ranks, dtype=np.int64)
-    if doubled_ranks.size == 0:
-        return np.array([0.0]), np.array([1.0])
-    step = int(np.gcd.reduce(doubled_ranks))
-    reduced = doubled_ranks // step
-    total = int(reduced.sum())
-    probabilities = np.zeros(total + 1)
-    probabilities[0] = 1.0
-    reach = 0
-    for index, r in enumerate(np.sort(reduced)):
-        monitor.step(index / reduced.size)
-        r = int(r)
-        head = probabilities[: reach + 1].copy()
-        probabilities[: reach + 1] *= 0.5
-        probabilities[r : r + reach + 1] += 0.5 * head
-        reach += r
-    monitor.step(1.0)
-    support = np.flatnonzero(probabilities > 0.0)
-    return support * step / 2.0, probabilities[support]
-
-
-def _exact_p(support: np.ndarray, probabilities: np.ndarray, w_plus: float, alternative: str) -> float:
-    """One- or two-sided (doubling) p of the observed W+ under its exact null distribution."""
-    tolerance = 1e-9
-    lower = float(probabilities[support <= w_plus + tolerance].sum())
-    upper = float(probabilities[support >= w_plus - tolerance].sum())
-    if alternative == "b-greater":
-        return min(1.0, upper)
-    if alternative == "b-less":
-        return min(1.0, lower)
-    return min(1.0, 2.0 * min(lower, upper))
 
 
 def _normal_p(w_plus, ranks, d_counts, ranked, pratt_zeros, alternative) -> tuple[float, float]:
@@ -379,26 +336,51 @@ def _walsh_median(sorted_counts: np.ndarray) -> float:
     return float(np.mean(select_walsh_sums(sorted_counts, [(total + 1) // 2, total // 2 + 1])))
 
 
-def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, purpose: str) -> ConfidenceInterval | None:
-    """Distribution-free interval [W_(C+1), W_(M-C)] of the pseudo-median, or None if too few pairs.
+def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, purpose: str, alternative: str,
+                    zero_method: str) -> ConfidenceInterval | None:
+    """The changes per part that fit the readings at ``level``, or None if too few pairs.
 
-    C is the two-sided critical T at 1 - level for n differences without ties (Hollander & Wolfe
-    1999, section 3.3); W are the sorted Walsh averages; zeros count as differences. With tied
-    differences the coverage is close to, not exactly, the attained level. ``purpose`` is added
-    to the method's description.
+    Without tied or zero changes: [W_(C+1), W_(M-C)] over the sorted Walsh averages W, C the
+    two-sided critical T at 1 - level for n differences without ties (Hollander & Wolfe 1999,
+    section 3.3); for "b-greater" the lower bound W_(C+1) alone and for "b-less" the upper bound
+    W_(M-C) alone, C the one-sided critical T. With tied or zero changes on a gauge grid, where it
+    is affordable, every shift the exact signed-rank test given the ties accepts, with the test's
+    own zero convention and open or closed ends (``rankwise.stats.change_inversion``); otherwise
+    the same order statistics as an approximation (zeros counted as differences). ``purpose`` is
+    added to the method's description.
     """
     n = sorted_counts.size
-    c = critical_t(n, 1.0 - level, "two-sided")
+    one_sided = {"b-greater": "lower bound: ", "b-less": "upper bound: "}.get(alternative, "")
+    magnitudes = np.abs(sorted_counts)
+    tied = bool(np.any(sorted_counts == 0)) or np.unique(magnitudes).size < n
+    if tied and grid.decimals is not None:
+        accepted = accepted_changes(sorted_counts, level, alternative, zero_method)
+        if accepted is not None:
+            zeros = ("left out, as the test leaves out parts with no change" if zero_method == "wilcox"
+                     else "ranked and given no sign, as the test treats parts with no change (Pratt)")
+            return ConfidenceInterval(
+                low=float(grid.to_readings(accepted.low)),
+                high=float(grid.to_readings(accepted.high)),
+                level=float(level),
+                method=f"{one_sided}every change the exact signed-rank test given the ties accepts (test "
+                       f"inversion; parts whose change equals the one tried are {zeros}){purpose}",
+                low_included=accepted.low_included,
+                high_included=accepted.high_included,
+            )
+    c = critical_t(n, 1.0 - level, alternative)
     if c is None:
         return None
     total = n * (n + 1) // 2
     low, high = select_walsh_sums(sorted_counts, [c + 1, total - c])
-    attained = 1.0 - 2.0 * _no_ties_tail(n, c)
+    attained = 1.0 - (2.0 if alternative == "two-sided" else 1.0) * _no_ties_tail(n, c)
+    approximate = " (changes tie or are zero: approximate)" if tied else ""
     return ConfidenceInterval(
-        low=float(grid.to_readings(low)) / 2.0,
-        high=float(grid.to_readings(high)) / 2.0,
+        low=-np.inf if alternative == "b-less" else float(grid.to_readings(low)) / 2.0,
+        high=np.inf if alternative == "b-greater" else float(grid.to_readings(high)) / 2.0,
         level=float(level),
-        method=f"Walsh averages, {'exact' if n <= _EXACT_CRITICAL_LIMIT else 'normal-approximation'} "
-        f"no-ties critical value{purpose}",
+        method=f"{one_sided}Walsh averages, {'exact' if n <= _EXACT_CRITICAL_LIMIT else 'normal-approximation'} "
+        f"no-ties critical value{approximate}{purpose}",
         attained_level=attained if abs(attained - level) > 1e-12 else None,
+        low_included=alternative != "b-less",
+        high_included=alternative != "b-greater",
     )

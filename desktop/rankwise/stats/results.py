@@ -13,14 +13,18 @@ from typing import Iterator
 
 @dataclass(frozen=True)
 class ConfidenceInterval:
-    """An interval for an estimate.
+    """A confidence set for an estimate: an interval whose ends may be open or closed.
 
     Attributes:
-        low, high: the end points, in the readings' unit.
+        low, high: the end points, in the readings' unit; ``low`` is -inf for an upper bound
+            alone and ``high`` +inf for a lower bound alone (one-sided questions).
         level: the intended coverage (e.g. 0.95).
         method: how it was found, in words (e.g. "Moses, exact critical value").
         attained_level: the coverage actually achieved where it differs from ``level``
             (distribution-free intervals step in discrete jumps), else None.
+        low_included, high_included: True when the end itself belongs to the set (a closed
+            end), False when only values beyond it do (an open end: the test rejects the end
+            itself but accepts every value just inside). An infinite end is never included.
     """
 
     low: float
@@ -28,11 +32,26 @@ class ConfidenceInterval:
     level: float
     method: str
     attained_level: float | None = None
+    low_included: bool = True
+    high_included: bool = True
 
     def __iter__(self) -> Iterator[float]:
         """Unpack as ``low, high = interval``."""
         yield self.low
         yield self.high
+
+    def contains(self, value: float) -> bool:
+        """True when ``value`` belongs to the set, open and closed ends respected."""
+        above = value > self.low or (self.low_included and value == self.low)
+        below = value < self.high or (self.high_included and value == self.high)
+        return bool(above and below)
+
+    def lies_strictly_inside(self, low: float, high: float) -> bool:
+        """True when every value of the set lies strictly between ``low`` and ``high`` (an open
+        end may touch them)."""
+        above = self.low > low or (self.low == low and not self.low_included)
+        below = self.high < high or (self.high == high and not self.high_included)
+        return bool(above and below)
 
 
 @dataclass(frozen=True)
@@ -166,7 +185,8 @@ class TwoGroupResult:
         attained_alpha: the true size of the exact test at the critical value (<= alpha), or None.
         significant: p_value <= alpha.
         shift: Hodges-Lehmann estimate of B - A (median of all b_j - a_i), or None when skipped.
-        shift_ci: its confidence interval at ``confidence``, or None.
+        shift_ci: its confidence set at ``confidence``, or None: two-sided for "two-sided", a
+            lower bound (high = +inf) for "b-greater", an upper bound (low = -inf) for "b-less".
         prob_b_greater: P(B > A) + 0.5 P(B = A) over all pairs.
         rank_biserial: 2 prob_b_greater - 1 (Kerby 2014: favourable minus unfavourable pairs).
         summary_a, summary_b: medians, quartiles, extremes.

@@ -1,29 +1,30 @@
-"""The shift's interval when readings tie: inversion of the exact rank-sum test given the ties.
+"""The shift's confidence set when readings tie: every shift the exact rank-sum test given the ties accepts.
 
 A shift d belongs to the confidence set when the exact conditional test of A against B - d (the
-permutation distribution given that comparison's own ties, two-sided p by doubling) does not
-reject at 1 - level; the interval is the set's closed hull (inverting a test into an interval as in
-Lehmann 1975, Nonparametrics, ch. 2, and Bauer 1972, JASA 67, 687-690; both cited from memory). Between
-two neighbouring pairwise differences B - A the comparison, and so p, stays the same, so every
-difference and one shift inside each gap between them are tried, walking in from both ends to
-the outermost accepted ones; readings must be whole numbers of the gauge step so that every
-comparison is exact. Each try costs one exact count, so the inversion is run only while trying
-every shift would stay affordable.
+permutation distribution given that comparison's own ties; two-sided p by doubling, or the
+one-sided p of the question asked) does not reject at 1 - level (inverting a test into a
+confidence set as in Lehmann 1975, Nonparametrics, ch. 2, and Bauer 1972, JASA 67, 687-690; both
+cited from memory). Between two neighbouring pairwise differences B - A the comparison, and so p,
+stays the same; at a difference itself some pairs tie and p can differ. So every difference and
+one shift inside each gap between them are tried, and the set is reported with each end open
+(the end is a difference the test rejects, the gap beside it is accepted) or closed. Every
+candidate between the ends is tried too, so the reported set holds only accepted shifts; a set
+with a rejected shift inside is not reported as an interval (None, the caller says so). Readings
+must be whole numbers of the gauge step so that every comparison is exact. Each try costs one
+exact count, so the inversion runs only while trying every candidate stays affordable.
 """
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 
-from rankwise.stats.exact_ranksum import rank_sum_distribution
+from rankwise.stats.exact_ranksum import block_sizes_of, exact_count_seconds, rank_sum_distribution
 from rankwise.stats.ranks import rank_groups
 
-INVERSION_STEPS = 2_000
-"""Largest (shifts tried) x N: each exact count walks once over the N readings (about 75 us per
-reading on the development machine), so the inversion stays within about 0.15 s."""
-
-INVERSION_WORK = 100_000_000
-"""Largest (shifts tried) x n_small^2 x n_large x N, the exact count's array work (about 0.05 s)."""
+INVERSION_SECONDS = 0.3
+"""Largest estimated time for trying every candidate shift (each one exact count)."""
 
 MAX_DIFFERENCES = 1_000_000
 """Largest n_a x n_b for which the pairwise differences are listed."""
@@ -32,13 +33,29 @@ _P_TOLERANCE = 1e-12
 """Sums of exact probabilities carry rounding noise; p within this of alpha counts as equal."""
 
 
-def tie_aware_interval(counts_a: np.ndarray, counts_b: np.ndarray, level: float) -> tuple[float, float] | None:
-    """The closed hull of all shifts (B - A, in gauge steps) the exact tie-aware test accepts at ``level``.
+@dataclass(frozen=True)
+class AcceptedShifts:
+    """The shifts (B - A, in gauge steps) the exact test accepts: an interval with open or closed ends.
 
-    ``counts_a`` and ``counts_b`` are the readings in whole gauge steps. Returns None when the
-    inversion is not affordable, when the readings are not whole numbers, or when the accepted
-    shifts reach past every difference (too few readings for any significance); the caller then
-    keeps the order-statistic interval.
+    ``low`` is -inf and ``high`` +inf for a one-sided bound; an infinite end counts as open.
+    """
+
+    low: float
+    high: float
+    low_included: bool
+    high_included: bool
+
+
+def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
+                    alternative: str = "two-sided") -> AcceptedShifts | None:
+    """Every shift the exact tie-aware test accepts at ``level`` (the test's level is 1 - level).
+
+    ``counts_a`` and ``counts_b`` are the readings in whole gauge steps. ``alternative``
+    "two-sided" gives a two-sided set; "b-greater" (B reads higher) a lower bound, the set
+    [low, +inf); "b-less" an upper bound, (-inf, high]. Returns None when the inversion is not
+    affordable, when the readings are not whole numbers, when the test accepts every shift on a
+    side that should be bounded (too few readings), or when a rejected shift lies between
+    accepted ones.
     """
     a = np.asarray(counts_a, dtype=float)
     b = np.asarray(counts_b, dtype=float)
@@ -50,32 +67,45 @@ def tie_aware_interval(counts_a: np.ndarray, counts_b: np.ndarray, level: float)
     tried[1::2] = 2 * differences
     tried[2:-1:2] = differences[:-1] + differences[1:]
     tried[0], tried[-1] = 2 * differences[0] - 1, 2 * differences[-1] + 1
-    small, large = sorted((a.size, b.size))
-    n_total = a.size + b.size
-    if tried.size * n_total > INVERSION_STEPS or tried.size * small * small * large * n_total > INVERSION_WORK:
+    one_count = exact_count_seconds(block_sizes_of(_doubled_ranks(a, b, 0)[0]), min(a.size, b.size), a.size + b.size)
+    if tried.size * one_count > INVERSION_SECONDS:
         return None
-    def accepts(index: int) -> bool:
-        return _two_sided_p(a, b, int(tried[index])) > 1.0 - level + _P_TOLERANCE
-
-    if accepts(0) or accepts(tried.size - 1):
+    accepted = np.array([_p_value(a, b, int(t), alternative) > 1.0 - level + _P_TOLERANCE for t in tried])
+    if alternative != "b-less" and accepted[0]:
         return None
-    # Only the outermost accepted shifts matter: walk in from each end to the first one.
-    first = next((i for i in range(1, tried.size - 1) if accepts(i)), None)
-    if first is None:
+    if alternative != "b-greater" and accepted[-1]:
         return None
-    last = next(i for i in range(tried.size - 2, first - 1, -1) if i == first or accepts(i))
-    # A gap's hull reaches to the differences beside it: tried[i] for a gap lies between tried[i - 1] and tried[i + 1].
-    low = tried[first] if first % 2 == 1 else tried[first - 1]
-    high = tried[last] if last % 2 == 1 else tried[last + 1]
-    return low / 2.0, high / 2.0
+    inside = np.flatnonzero(accepted)
+    if inside.size == 0 or inside.size != inside[-1] - inside[0] + 1:
+        return None
+    first, last = int(inside[0]), int(inside[-1])
+    # An accepted gap (even index) ends open at the rejected difference beside it.
+    low, low_in = (-np.inf, False) if alternative == "b-less" else (_end(tried, first, -1), first % 2 == 1)
+    high, high_in = (np.inf, False) if alternative == "b-greater" else (_end(tried, last, +1), last % 2 == 1)
+    return AcceptedShifts(low=low, high=high, low_included=low_in, high_included=high_in)
 
 
-def _two_sided_p(a: np.ndarray, b: np.ndarray, twice_shift: int) -> float:
-    """Exact two-sided p (doubling the smaller tail) of A against B - shift, given their ties."""
+def _end(tried: np.ndarray, index: int, side: int) -> float:
+    """The set's end at candidate ``index``: the difference itself, or the one beside an accepted gap."""
+    return float(tried[index] if index % 2 == 1 else tried[index + side]) / 2.0
+
+
+def _doubled_ranks(a: np.ndarray, b: np.ndarray, twice_shift: int) -> tuple[np.ndarray, float]:
+    """Twice the mid-ranks of A and B - shift together, and twice A's rank sum."""
     doubled_a, doubled_b = 2.0 * a, 2.0 * b - twice_shift
     (ranks_a, ranks_b), _ = rank_groups([doubled_a, doubled_b], [doubled_a, doubled_b])
-    distribution = rank_sum_distribution(np.rint(2.0 * np.concatenate([ranks_a, ranks_b])), a.size)
-    twice_u_a = int(round(2.0 * ranks_a.sum())) - a.size * (a.size + 1)
+    return np.rint(2.0 * np.concatenate([ranks_a, ranks_b])), float(2.0 * ranks_a.sum())
+
+
+def _p_value(a: np.ndarray, b: np.ndarray, twice_shift: int, alternative: str) -> float:
+    """Exact p of A against B - shift given their ties: one-sided, or two-sided by doubling the smaller tail."""
+    doubled, twice_sum_a = _doubled_ranks(a, b, twice_shift)
+    distribution = rank_sum_distribution(doubled, a.size)
+    twice_u_a = int(round(twice_sum_a)) - a.size * (a.size + 1)
+    if alternative == "b-greater":  # B higher: small U of A
+        return distribution.at_most(twice_u_a)
+    if alternative == "b-less":
+        return distribution.at_least(twice_u_a)
     return min(1.0, 2.0 * min(distribution.at_most(twice_u_a), distribution.at_least(twice_u_a)))
 
 

@@ -21,21 +21,21 @@ from scipy.stats import norm
 from rankwise.stats import shape
 from rankwise.stats.analysis import ALTERNATIVES, METHODS
 from rankwise.stats.critical import critical_value, smallest_equal_size, smallest_partner_size
-from rankwise.stats.exact_ranksum import RankSumDistribution, rank_sum_distribution
+from rankwise.stats.exact_ranksum import RankSumDistribution, exact_count_seconds, rank_sum_distribution
 from rankwise.stats.grid import Grid, find_grid
 from rankwise.stats.hodges_lehmann import hodges_lehmann_shift, moses_interval
 from rankwise.stats.inputs import check_choice, check_level, clean_group
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.ranks import rank_groups
 from rankwise.stats.results import ConfidenceInterval, NullDistribution, TieBlock, TwoGroupResult
-from rankwise.stats.shift_inversion import tie_aware_interval
+from rankwise.stats.shift_inversion import accepted_shifts
 from rankwise.stats.summary import summarize
 
 AUTO_EXACT_READINGS = 100
 """With "auto", the exact p-value is always used up to this many readings in both groups together."""
 
-AUTO_EXACT_WORK = 600_000_000
-"""Beyond that, "auto" stays exact while n_small^2 * n_large * N stays within this (about 0.3 s)."""
+AUTO_EXACT_SECONDS = 0.3
+"""Beyond that, "auto" stays exact while the cheapest exact count is estimated to take at most this long."""
 
 COMPANION_LIMIT = 200_000
 """Largest number of readings for which the same-shape check and the companion tests are run."""
@@ -100,9 +100,10 @@ def compare_two(
     tie_sum = float(sum(block.count**3 - block.count for block in tie_blocks))
     normal = _normal_approximation(u_a, n_a, n_b, tie_sum, alternative)
 
-    use_exact = method == "exact" or (method == "auto" and exact_affordable(n_a, n_b))
+    affordable = exact_affordable(n_a, n_b, tie_blocks)
+    use_exact = method == "exact" or (method == "auto" and affordable)
     distribution = None
-    if use_exact or exact_affordable(n_a, n_b):
+    if use_exact or affordable:
         doubled = np.rint(2.0 * np.concatenate([ranks_a, ranks_b]))
         distribution = rank_sum_distribution(doubled, n_a, monitor)
     twice_u_a = int(round(2.0 * u_a))
@@ -117,11 +118,11 @@ def compare_two(
     shift = shift_ci = None
     if estimate_shift:
         shift = float(grid.to_readings(hodges_lehmann_shift(sorted_a, sorted_b)))
-        shift_ci = _shift_interval(sorted_a, sorted_b, grid, confidence, bool(tie_blocks))
+        shift_ci = _shift_interval(sorted_a, sorted_b, grid, confidence, bool(tie_blocks), alternative)
     equivalence_ci = equivalent = None
     if margin is not None:
         equivalence_ci = _shift_interval(sorted_a, sorted_b, grid, 1.0 - 2.0 * alpha, bool(tie_blocks))
-        equivalent = bool(-margin < equivalence_ci.low and equivalence_ci.high < margin)
+        equivalent = equivalence_ci.lies_strictly_inside(-margin, margin)
 
     companions = _companions(values_a, values_b, alternative)
     prob_b_greater = u_b / (n_a * n_b)
@@ -177,10 +178,27 @@ def compare_two(
     )
 
 
-def exact_affordable(n_a: int, n_b: int) -> bool:
-    """True when "auto" uses the exact distribution for these sizes (see the decision record)."""
-    small, large = min(n_a, n_b), max(n_a, n_b)
-    return n_a + n_b <= AUTO_EXACT_READINGS or small * small * large * (n_a + n_b) <= AUTO_EXACT_WORK
+def exact_affordable(n_a: int, n_b: int, tie_blocks: tuple[TieBlock, ...] = ()) -> bool:
+    """True when "auto" uses the exact distribution: up to ``AUTO_EXACT_READINGS`` readings, and
+    beyond while the cheapest exact count for these sizes and ties is estimated to take at most
+    ``AUTO_EXACT_SECONDS`` (see the decision record)."""
+    n_total = n_a + n_b
+    if n_total <= AUTO_EXACT_READINGS:
+        return True
+    return exact_count_seconds(_block_sizes(tie_blocks, n_total), min(n_a, n_b), n_total) <= AUTO_EXACT_SECONDS
+
+
+def _block_sizes(tie_blocks: tuple[TieBlock, ...], n_total: int) -> np.ndarray | None:
+    """How many readings share each distinct value, ascending, from the tie blocks; None without ties."""
+    if not tie_blocks:
+        return None
+    first = np.array([block.first_rank for block in tie_blocks]) - 1
+    count = np.array([block.count for block in tie_blocks])
+    inside = np.zeros(n_total + 1, dtype=np.int64)  # +1 from the second reading of a block to its end
+    np.add.at(inside, first + 1, 1)
+    np.add.at(inside, first + count, -1)
+    starts = np.flatnonzero(np.cumsum(inside[:n_total]) == 0)
+    return np.diff(np.append(starts, n_total))
 
 
 def _check_margin(margin: float | None, alpha: float) -> float | None:
@@ -276,44 +294,54 @@ def _null_distribution(distribution: RankSumDistribution | None, u_a: float) -> 
     )
 
 
-def _shift_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, grid: Grid, level: float, ties: bool) -> ConfidenceInterval:
-    """Moses interval [D_(C+1), D_(n_a n_b - C)], C the two-sided critical U at 1 - level (no ties).
+def _shift_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, grid: Grid, level: float, ties: bool,
+                    alternative: str = "two-sided") -> ConfidenceInterval:
+    """The shifts B - A that fit the readings at ``level``: two-sided, or one bound for a one-sided question.
 
-    When readings tie on a gauge grid and it is affordable, the interval is instead the inversion
-    of the exact tie-aware test (``rankwise.stats.shift_inversion``), which keeps at least the
-    level without the no-ties interval's excess. Otherwise, with ties the same order statistics
-    are used; the interval is closed, so tied differences at an end point are inside, and it
-    covers at least the level but is wider than needed (about 99 % for a 95 % interval on
-    whole-number gauges, by the simulation in the tests). The method text says which.
+    Without ties, Moses' order statistics of the differences: [D_(C+1), D_(n_a n_b - C)] with C
+    the two-sided critical U at 1 - level; for "b-greater" the lower bound D_(C+1) alone and for
+    "b-less" the upper bound D_(n_a n_b - C) alone, C the one-sided critical U (Moses 1953;
+    Hollander & Wolfe 1999, section 4.3). With readings that tie on a gauge grid, where it is
+    affordable, the set of every shift the exact tie-aware test (of the same sidedness) accepts,
+    with open or closed ends (``rankwise.stats.shift_inversion``). Otherwise with ties the same
+    order statistics are used as an approximation: closed, so tied differences at an end are
+    inside; they cover at least the level but are wider than needed (about 99 % for a 95 %
+    interval on whole-number gauges, by the simulation in the tests). The method text says which.
     """
+    one_sided = {"b-greater": "lower bound: ", "b-less": "upper bound: "}.get(alternative, "")
     if ties and grid.decimals is not None:
-        inverted = tie_aware_interval(sorted_a, sorted_b, level)
-        if inverted is not None:
+        accepted = accepted_shifts(sorted_a, sorted_b, level, alternative)
+        if accepted is not None:
             return ConfidenceInterval(
-                low=float(grid.to_readings(inverted[0])),
-                high=float(grid.to_readings(inverted[1])),
+                low=float(grid.to_readings(accepted.low)),
+                high=float(grid.to_readings(accepted.high)),
                 level=float(level),
-                method="every shift the exact test given the ties accepts (test inversion)",
+                method=f"{one_sided}every shift the exact test given the ties accepts (test inversion)",
+                low_included=accepted.low_included,
+                high_included=accepted.high_included,
             )
     n_a, n_b = sorted_a.size, sorted_b.size
-    critical = critical_value(n_a, n_b, 1.0 - level, "two-sided")
+    critical = critical_value(n_a, n_b, 1.0 - level, alternative)
     low, high = moses_interval(sorted_a, sorted_b, critical.u)
     source = "exact critical U" if critical.exact else "critical U from the Edgeworth expansion"
-    method = f"Moses order statistics of the differences, {source}"
+    method = f"{one_sided}Moses order statistics of the differences, {source}"
     if ties:
-        method += " (readings tie: no-ties critical value, conservative)"
+        method += " (readings tie: approximate, no-ties critical value, conservative)"
+    tails = 2.0 if alternative == "two-sided" else 1.0
     if critical.u is None:
-        attained = 1.0 - 2.0 * float(_extreme_split_probability(n_a, n_b))
+        attained = 1.0 - tails * float(_extreme_split_probability(n_a, n_b))
     elif critical.attained_alpha is not None:
         attained = 1.0 - critical.attained_alpha
     else:
         attained = None
     return ConfidenceInterval(
-        low=float(grid.to_readings(low)),
-        high=float(grid.to_readings(high)),
+        low=-np.inf if alternative == "b-less" else float(grid.to_readings(low)),
+        high=np.inf if alternative == "b-greater" else float(grid.to_readings(high)),
         level=float(level),
         method=method,
         attained_level=attained,
+        low_included=alternative != "b-less",
+        high_included=alternative != "b-greater",
     )
 
 

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Iterator
 from dataclasses import replace
 
@@ -103,14 +104,32 @@ def _summary(tag: str, summary: GroupSummary, formats: _Formats) -> Iterator[Key
 
 def _interval(key: str, what: str, interval: ConfidenceInterval | None, formats: _Formats,
               tooltip: str) -> Iterator[KeyNumber]:
-    """The two ends of an interval as two numbers (so a workbook stores both as numbers)."""
+    """The finite ends of an interval as numbers (so a workbook stores them as numbers): both ends,
+    or the one bound of a one-sided question; an open end says so in its label."""
     if interval is None:
         return
     level = format_level(interval.level)
-    yield _number(f"{key}_low", f"{what}, {level} interval, lower end", formats.centre(interval.low),
-                  tooltip, interval.low)
-    yield _number(f"{key}_high", f"{what}, {level} interval, upper end", formats.centre(interval.high),
-                  tooltip, interval.high)
+    one_sided = not (math.isfinite(interval.low) and math.isfinite(interval.high))
+    if math.isfinite(interval.low):
+        label = f"{what}, {level} lower bound" if one_sided else f"{what}, {level} interval, lower end"
+        yield _number(f"{key}_low", label + ("" if interval.low_included else OPEN_LOW),
+                      formats.centre(interval.low), tooltip + _end_tip(interval.low_included, "above"), interval.low)
+    if math.isfinite(interval.high):
+        label = f"{what}, {level} upper bound" if one_sided else f"{what}, {level} interval, upper end"
+        yield _number(f"{key}_high", label + ("" if interval.high_included else OPEN_HIGH),
+                      formats.centre(interval.high), tooltip + _end_tip(interval.high_included, "below"), interval.high)
+
+
+OPEN_LOW = " (not included: from just above)"
+OPEN_HIGH = " (not included: up to just below)"
+"""Said after the label of an open end: the test rejects the end itself but accepts every value just inside."""
+
+
+def _end_tip(included: bool, side: str) -> str:
+    if included:
+        return ""
+    return (f" This end itself is not included: the test rejects exactly this value but accepts every value "
+            f"just {side} it.")
 
 
 def _method(method: str, key: str = "method") -> KeyNumber:
@@ -181,7 +200,8 @@ def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
                       f"The typical difference between a part of {b} and a part of {a} (Hodges-Lehmann: "
                       f"the median of all differences).", r.shift)
     yield from _interval("shift_ci", "Shift", r.shift_ci, f,
-                         "The range of shifts that fit the readings at this confidence level.")
+                         "The shifts that fit the readings at this confidence level (a one-sided question "
+                         "gives one bound).")
     yield _number("prob_b_greater", f"Share of pairs where {b} reads higher",
                   format_percent(r.prob_b_greater),
                   f"Pair every part of {b} with every part of {a}: the share where {b} reads higher "
@@ -234,7 +254,8 @@ def _paired(r: PairedResult, analysis: Analysis) -> Iterator[KeyNumber]:
                       "Hodges-Lehmann pseudo-median: the median of all averages of two parts' changes.",
                       r.shift)
     yield from _interval("shift_ci", "Change per part", r.shift_ci, f,
-                         "The range of typical changes that fit the readings at this confidence level.")
+                         "The typical changes that fit the readings at this confidence level (a one-sided "
+                         "question gives one bound).")
     yield from _equivalence(r, f, "Change", "Changes inside plus or minus this amount count as 'no change'")
 
 

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairedResult
 from rankwise.wording.phrases import (
@@ -9,6 +11,7 @@ from rankwise.wording.phrases import (
     b_reads_higher,
     equivalence_words,
     higher_or_lower,
+    interval_disagreement,
     level_phrase,
     not_shown_headline,
     outcome_sentence,
@@ -58,6 +61,14 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
         if result.margin is None:
             sentences.append(NOT_SAMENESS.replace("the groups are", "the readings are"))
 
+    explained = _heavy_ties_sentence(result)
+    if explained is not None:
+        sentences.append(explained)
+    elif result.shift is not None:
+        disagreement = interval_disagreement(result.shift_ci, result.significant, result.alpha, "change per part")
+        if disagreement is not None:
+            sentences.append(disagreement)
+
     if result.margin is not None:
         headline, sentence = equivalence_words(
             (a, b), margin_text(analysis, result.margin), result.equivalence_ci, result.equivalent,
@@ -66,6 +77,21 @@ def describe_paired(result: PairedResult, analysis: Analysis) -> Verdict:
     if impossible:
         headline = f"No result could reach {level_phrase(result.alpha)} with {result.n} changed parts."
     return cautioned_verdict(headline, sentences, _method_note(result), _assumption_notes(result, analysis))
+
+
+def _heavy_ties_sentence(result: PairedResult) -> str | None:
+    """Why the change per part and its interval are 0: many parts read exactly the same both times;
+    says how many parts rose and fell instead. None when that is not the case."""
+    interval = result.shift_ci
+    if result.shift != 0.0 or interval is None or result.n_zero == 0:
+        return None
+    if any(end != 0.0 for end in (interval.low, interval.high) if math.isfinite(end)):
+        return None
+    rises = sum(1 for d in result.differences if d > 0)
+    falls = sum(1 for d in result.differences if d < 0)
+    return (f"{result.n_zero} of {result.n_pairs} parts read exactly the same both times on the gauge, so "
+            f"the typical change per part and its interval come out as 0 at the gauge's resolution; of the "
+            f"parts that changed, {rises} read higher and {falls} lower.")
 
 
 def _method_note(result: PairedResult) -> str:

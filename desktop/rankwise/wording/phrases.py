@@ -85,20 +85,50 @@ def p_phrase(p: float, alpha: float) -> str:
 
 
 def interval_phrase(interval: ConfidenceInterval, decimals: int | None, unit: str) -> str:
-    """ "95 % confidence interval 0.02 to 0.10 µm" (``decimals``: the readings' resolution)."""
-    low = format_centre(interval.low, decimals)
-    high = format_centre(interval.high, decimals)
+    """ "95 % confidence interval 0.02 to 0.10 µm", with an open end as "from just above 0.000 to
+    0.006 mm", and a one-sided bound as "at least 0.02 µm with 95 % confidence" (``decimals``: the
+    readings' resolution)."""
     unit_text = f" {unit}" if unit else ""
     attained = interval.attained_level
-    if attained is not None and attained < interval.level - 1e-9:
-        return (f"{format_level(attained)} confidence interval {low} to {high}{unit_text}; "
-                f"{format_level(interval.level)} cannot be reached with so few readings")
-    return f"{format_level(interval.level)} confidence interval {low} to {high}{unit_text}"
+    short = attained is not None and attained < interval.level - 1e-9
+    level = format_level(attained if short else interval.level)
+    reach = f"; {format_level(interval.level)} cannot be reached with so few readings" if short else ""
+    if not math.isfinite(interval.high) or not math.isfinite(interval.low):
+        return f"{bound_words(interval, decimals)}{unit_text} with {level} confidence{reach}"
+    low = format_centre(interval.low, decimals)
+    high = format_centre(interval.high, decimals)
+    if interval.low_included and interval.high_included:
+        return f"{level} confidence interval {low} to {high}{unit_text}{reach}"
+    low = low if interval.low_included else f"just above {low}"
+    high = high if interval.high_included else f"just below {high}"
+    return f"{level} confidence interval from {low} to {high}{unit_text}{reach}"
+
+
+def bound_words(interval: ConfidenceInterval, decimals: int | None) -> str:
+    """A one-sided bound in words: "at least 0.02" or "above 0.02" (open), "at most 0.10" or
+    "below 0.10" (open); the finite end of an interval with one infinite end."""
+    if math.isfinite(interval.low):
+        return f"{'at least' if interval.low_included else 'above'} {format_centre(interval.low, decimals)}"
+    return f"{'at most' if interval.high_included else 'below'} {format_centre(interval.high, decimals)}"
+
+
+def interval_disagreement(interval: ConfidenceInterval | None, significant: bool, alpha: float,
+                          what: str) -> str | None:
+    """A plain sentence when an approximate interval at 1 - alpha and the test disagree about 0, else None."""
+    if interval is None or abs(interval.level - (1.0 - alpha)) > 1e-9 or interval.contains(0.0) != significant:
+        return None
+    if significant:
+        return (f"The {what}'s interval is an approximation here and still reaches 0 although the test "
+                f"found a change; the p-value decides, the interval only shows the likely size.")
+    return (f"The {what}'s interval is an approximation here and leaves out 0 although the test found no "
+            f"change at this level; the p-value decides, the interval only shows the likely size.")
 
 
 def size_sentence(what: str, names: tuple[str, str], value: float, interval: ConfidenceInterval,
                   decimals: int | None, unit: str) -> str:
-    """ "The shift, B minus A, is +0.06 µm (95 % confidence interval 0.02 to 0.10 µm)." ; ``names`` are (A, B)."""
+    """ "The shift, B minus A, is +0.06 µm (95 % confidence interval 0.02 to 0.10 µm)." ; ``names`` are (A, B).
+
+    A one-sided bound reads "(at least 0.02 µm with 95 % confidence)"."""
     a, b = names
     return (f"The {what}, {b} minus {a}, is {signed_reading(value, decimals, unit)} "
             f"({interval_phrase(interval, decimals, unit)}).")

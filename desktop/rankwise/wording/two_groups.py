@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import math
+
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import TwoGroupResult
 from rankwise.wording.numbers import format_level, format_percent
@@ -10,6 +12,7 @@ from rankwise.wording.phrases import (
     b_reads_higher,
     equivalence_words,
     higher_or_lower,
+    interval_disagreement,
     level_phrase,
     method_and_p,
     not_shown_headline,
@@ -55,6 +58,14 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
         if result.margin is None:
             sentences.append(NOT_SAMENESS)
 
+    explained = heavy_ties_sentence(result)
+    if explained is not None:
+        sentences.append(explained)
+    elif result.shift is not None:
+        disagreement = interval_disagreement(result.shift_ci, result.significant, result.alpha, "shift")
+        if disagreement is not None:
+            sentences.append(disagreement)
+
     if result.margin is not None:
         headline, equivalence_sentence = equivalence_words(
             (a, b), margin_text(analysis, result.margin), result.equivalence_ci, result.equivalent, "shift",
@@ -66,6 +77,25 @@ def describe_two_groups(result: TwoGroupResult, analysis: Analysis) -> Verdict:
 
     return cautioned_verdict(headline, sentences, _method_note(result),
                              _assumption_notes(result, analysis))
+
+
+def heavy_ties_sentence(result: TwoGroupResult) -> str | None:
+    """Why the shift and its interval are 0: most pairs read exactly the same on the gauge; points
+    to the share of pairs where B reads higher, which shows the change. None when that is not the case."""
+    interval = result.shift_ci
+    if result.shift != 0.0 or interval is None:
+        return None
+    if any(end != 0.0 for end in (interval.low, interval.high) if math.isfinite(end)):
+        return None
+    level = sum(block.counts_by_group[0] * block.counts_by_group[1] for block in result.tie_blocks)
+    share = level / (result.n_a * result.n_b)
+    if share == 0.0:
+        return None
+    a, b = result.name_a, result.name_b
+    return (f"In {format_percent(share)} of all pairs of a part of {a} with a part of {b} the two read "
+            f"exactly the same on the gauge, so the shift and its interval come out as 0 at the gauge's "
+            f"resolution; the change shows in the share of pairs where {b} reads higher: "
+            f"{format_percent(result.prob_b_greater)} (ties counted half; 50 % would mean no tendency).")
 
 
 def _impossible_sentence(result: TwoGroupResult) -> str:
