@@ -5,10 +5,11 @@ Data flow: every edit of the sheet (``rankwise.readings.ReadingSheet``) or of th
 result is worded once (``rankwise.wording``) and shown in the results panel, the rank table and the
 charts. The entry is kept in a recovery file while the user types.
 
-The window is put together from mixins with one job each: ``window_panes`` (layout), ``window_menus``
-(menus and shortcuts), ``window_sheet`` (the sheet shown, title, status, undo), ``window_groups``
-(group and setting edits), ``window_analysis`` (requests and results), ``window_files`` (open, save,
-demo) and ``window_recovery`` (the recovery copy).
+The window is put together from mixins with one job each: ``window_panes`` (layout),
+``window_menus`` (menus and shortcuts), ``window_keyboard`` (F6 between panes), ``window_sheet``
+(the sheet shown, title, status, undo), ``window_groups`` (group and setting edits),
+``window_analysis`` (requests and results), ``window_files`` (open, save, demo) and
+``window_recovery`` (the recovery copy).
 """
 
 from __future__ import annotations
@@ -31,14 +32,16 @@ from rankwise.ui.sheet_model import SheetModel
 from rankwise.ui.window_analysis import PROGRESS_DELAY_MS, WindowAnalysis
 from rankwise.ui.window_files import WindowFiles, empty_sheet
 from rankwise.ui.window_groups import WindowGroups
+from rankwise.ui.window_keyboard import WindowKeyboard
 from rankwise.ui.window_menus import WindowMenus
 from rankwise.ui.window_panes import WindowPanes, style_sheet
 from rankwise.ui.window_recovery import WindowRecovery
 from rankwise.ui.window_sheet import WindowSheet
 from rankwise.ui.worker import AnalysisRunner
 
-class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnalysis, WindowFiles, WindowRecovery,
-                 QMainWindow):
+
+class MainWindow(WindowPanes, WindowMenus, WindowKeyboard, WindowSheet, WindowGroups, WindowAnalysis, WindowFiles,
+                 WindowRecovery, QMainWindow):
     """The Rankwise window. ``MainWindow()`` opens an empty sheet.
 
     Args:
@@ -75,6 +78,7 @@ class MainWindow(WindowPanes, WindowMenus, WindowSheet, WindowGroups, WindowAnal
         self.keeper.problem.connect(self.recovery_problem)
         self._build_layout()
         self._build_menus()
+        self._build_pane_keys()
         self._wire()
         self._progress_timer = QTimer(self, singleShot=True, interval=PROGRESS_DELAY_MS)
         self._progress_timer.timeout.connect(lambda: self.results_panel.show_working(self._progress))

@@ -107,7 +107,7 @@ class QuestionPanel(QWidget):
         self._tolerances: list[float | None] = []
         self._updating = False
 
-        title = QLabel("What do you want to know?")
+        title = QLabel("&What do you want to know?")
         title.setObjectName("panelTitle")
         self._buttons = QButtonGroup(self)
         self._buttons.setExclusive(True)
@@ -120,6 +120,7 @@ class QuestionPanel(QWidget):
             self._buttons.addButton(button, position)
             layout.addWidget(button)
         self._buttons.button(0).setChecked(True)
+        title.setBuddy(self._buttons.button(0))
 
         self.level = _combo("Significance level", "How small the p-value must be before the verdict says the change moved the readings.",
                             LEVELS)
@@ -147,14 +148,14 @@ class QuestionPanel(QWidget):
         form.setVerticalSpacing(4)
         self._rows: dict[str, tuple[QLabel, QWidget]] = {}
         for key, label_text, widget in (
-            ("level", "Significance level", self.level),
-            ("a", "Group A (reference)", self.group_a),
-            ("b", "Group B (changed)", self.group_b),
-            ("reference", "Compare", self.reference),
-            ("direction", "Look for", self.direction),
-            ("method", "p-value found", self.method),
-            ("margin", "Margin ±", self.margin),
-            ("margin_unit", "Margin given", self.margin_unit),
+            ("level", "&Significance level", self.level),
+            ("a", "Group &A (reference)", self.group_a),
+            ("b", "Group &B (changed)", self.group_b),
+            ("reference", "&Compare", self.reference),
+            ("direction", "&Look for", self.direction),
+            ("method", "p-&value found", self.method),
+            ("margin", "&Margin ±", self.margin),
+            ("margin_unit", "Margin &given", self.margin_unit),
             ("design", "Plan for", self.plan_design),
             ("shift", "Shift worth finding", self.planned_shift),
             ("spread", "Usual spread (SD)", self.planned_spread),
@@ -221,6 +222,14 @@ class QuestionPanel(QWidget):
         if not found:
             raise ValueError(f"alpha must be one of {[v for v, _ in LEVELS]}; got {alpha!r}.")
         self.level.setCurrentIndex(found[0])
+
+    def keyboard_order(self) -> list[QWidget]:
+        """The panel's controls in reading order: the questions, then the settings as laid out."""
+        return [*self._buttons.buttons(), *(widget for _, widget in self._rows.values())]
+
+    def focus_target(self) -> QWidget:
+        """The control that takes the keyboard when the panel is entered (F6): the ticked question."""
+        return self._buttons.checkedButton() or self._buttons.button(0)
 
     # -- what the panel tells the window -------------------------------------------------------
     @property
@@ -406,8 +415,8 @@ class QuestionPanel(QWidget):
             label.setVisible(visible[key])
             widget.setVisible(visible[key])
         paired = question is Question.PAIRED or (question is Question.PLAN and self.plans_paired)
-        self._rows["a"][0].setText("Before" if paired else "Group A (reference)")
-        self._rows["b"][0].setText("After" if paired else "Group B (changed)")
+        self._rows["a"][0].setText("&Before" if paired else "Group &A (reference)")
+        self._rows["b"][0].setText("&After" if paired else "Group &B (changed)")
         plan_paired = question is Question.PLAN and self.plans_paired
         self._rows["shift"][0].setText("Change per part worth finding" if plan_paired else "Shift worth finding")
         self._rows["spread"][0].setText("Spread of the differences (SD)" if plan_paired else "Usual spread (SD)")

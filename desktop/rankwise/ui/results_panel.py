@@ -38,6 +38,7 @@ def _wrapping_label(object_name: str, accessible: str) -> QLabel:
     label.setAccessibleName(accessible)
     label.setSizePolicy(QSizePolicy.Policy.Preferred, QSizePolicy.Policy.Minimum)
     label.setTextFormat(Qt.TextFormat.PlainText)
+    label.setFocusPolicy(Qt.FocusPolicy.StrongFocus)  # a tab stop: the verdict can be read and copied by keyboard
     return label
 
 
@@ -89,6 +90,7 @@ class ResultsPanel(QWidget):
         scroll.setWidgetResizable(True)
         scroll.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
         scroll.setFrameShape(QFrame.Shape.NoFrame)
+        scroll.setFocusPolicy(Qt.FocusPolicy.NoFocus)  # the verdict's own texts take the keyboard
         scroll.setWidget(body)
 
         self.progress = QProgressBar()
@@ -180,6 +182,10 @@ class ResultsPanel(QWidget):
             self.notes.setText("")
         self.notes.setVisible(bool(verdict.assumption_notes))
         self._fill_numbers(numbers)
+
+    def keyboard_order(self) -> list[QWidget]:
+        """The panel's controls in reading order, for the window's tab order."""
+        return [self.headline, self.sentences, self.choice_button, self.method_note, self.notes, self.stop_button]
 
     # -- read by tests and by the window -----------------------------------------------------------
     def number_text(self, key: str) -> str | None:
