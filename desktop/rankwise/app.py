@@ -75,6 +75,9 @@ def run_window(args: argparse.Namespace) -> int:
     window.show()
 
     def after_show() -> None:
+        from rankwise.ui.recent_files import remove_interrupted_saves_in_the_background
+
+        remove_interrupted_saves_in_the_background()
         window.offer_recovery()
         if args.demo:
             window.open_demo()

@@ -301,3 +301,15 @@ def test_two_killed_windows_each_get_their_own_readings_back(qtbot, tmp_path, an
         qtbot.addWidget(extra)
     shown = sorted(([sheet_texts(w, 0), sheet_texts(w, 1)] for w in [restarted, *restarted.restored_windows]))
     assert shown == sorted([[READINGS[:6], []], [READINGS[6:9], READINGS[9:12]]])
+
+
+def test_a_start_tidies_up_saves_cut_short_in_the_folders_rankwise_saved_into(tmp_path):
+    from rankwise.ui.recent_files import remember_written_folder, remove_interrupted_saves_in_the_background
+
+    remember_written_folder(tmp_path / "result.xlsx")
+    left = tmp_path / ".result.xlsx.q1w2e3r4.tmp"
+    left.write_text("half a workbook")
+    then = time.time() - 600
+    os.utime(left, (then, then))
+    remove_interrupted_saves_in_the_background().join(CHILD_LIMIT_S)
+    assert not left.exists()

@@ -2,13 +2,16 @@
 
 A new file gets the permissions the user's umask gives any new file; a replaced file keeps its own.
 A target that is a symbolic link stays a link: the file it points to is the one replaced.
+Temporary files left by a write that was cut short are removed by ``remove_interrupted_saves``.
 """
 
 from __future__ import annotations
 
 import os
+import re
 import stat
 import tempfile
+import time
 from collections.abc import Callable
 from pathlib import Path
 
@@ -50,3 +53,57 @@ def write_atomically(path: str | os.PathLike[str], write: Callable[[Path], None]
     except BaseException:
         temporary_path.unlink(missing_ok=True)
         raise
+
+
+INTERRUPTED_WRITE = re.compile(r"^\..+\.[a-z0-9_]{8}\.tmp$")
+"""The name ``write_atomically`` gives its temporary file (``.{target name}.{8 random characters}.tmp``)."""
+
+
+def remove_interrupted_saves(folder: str | os.PathLike[str], quiet_s: float = 10.0) -> list[Path]:
+    """Remove the temporary files that interrupted atomic writes (a kill, a power cut) left in ``folder``.
+
+    A temporary file counts as left over when no running process has it open and it has not
+    changed for ``quiet_s`` seconds: a write in progress keeps its file open and keeps writing.
+    Where the open files cannot be seen (no ``/proc``), an hour without change is asked instead.
+    Returns the files removed; a folder that cannot be read gives [].
+    """
+    in_use = files_open_by_processes()
+    if in_use is None:
+        in_use, quiet_s = set(), max(quiet_s, 3600.0)
+    try:
+        candidates = [entry for entry in Path(folder).iterdir() if INTERRUPTED_WRITE.match(entry.name)]
+        now = time.time()
+        candidates = [entry for entry in candidates if entry.is_file() and now - entry.stat().st_mtime >= quiet_s]
+    except OSError:
+        return []
+    removed = []
+    for entry in candidates:
+        if os.path.realpath(entry) in in_use:
+            continue
+        try:
+            entry.unlink()
+        except OSError:
+            continue
+        removed.append(entry)
+    return removed
+
+
+def files_open_by_processes() -> set[str] | None:
+    """The paths of the files the processes this user may look at have open; None without ``/proc``."""
+    opened: set[str] = set()
+    try:
+        processes = [name for name in os.listdir("/proc") if name.isdigit()]
+    except OSError:
+        return None
+    for process in processes:
+        folder = f"/proc/{process}/fd"
+        try:
+            descriptors = os.listdir(folder)
+        except OSError:
+            continue
+        for descriptor in descriptors:
+            try:
+                opened.add(os.readlink(f"{folder}/{descriptor}"))
+            except OSError:
+                continue
+    return opened

@@ -12,6 +12,8 @@ from pathlib import Path
 
 from PySide6.QtWidgets import QFileDialog, QMessageBox, QWidget
 
+from rankwise.ui.recent_files import remember_written_folder
+
 READINGS_FILTER = "Readings (*.csv *.txt *.xlsx *.xlsm);;All files (*)"
 """Files the open dialog offers: spreadsheet exports and signed result workbooks."""
 
@@ -27,9 +29,14 @@ def ask_open_path(parent: QWidget | None, title: str, file_filter: str = READING
 
 
 def ask_save_path(parent: QWidget | None, title: str, suggested: str, file_filter: str) -> Path | None:
-    """Ask where to save; None when the user cancels. The platform dialog asks before overwriting."""
+    """Ask where to save; None when the user cancels. The platform dialog asks before overwriting.
+
+    The folder is remembered, so that a later start can tidy up after a save cut short there."""
     chosen, _ = QFileDialog.getSaveFileName(parent, title, suggested, file_filter)
-    return Path(chosen) if chosen else None
+    if not chosen:
+        return None
+    remember_written_folder(Path(chosen))
+    return Path(chosen)
 
 
 def confirm(parent: QWidget | None, title: str, text: str, yes: str = "Yes", no: str = "No") -> bool:

@@ -1,7 +1,8 @@
-"""The list of recently opened files, kept in the user's settings."""
+"""The list of recently opened files and the folders saved into, kept in the user's settings."""
 
 from __future__ import annotations
 
+import threading
 from pathlib import Path
 
 from PySide6.QtCore import QSettings
@@ -40,3 +41,36 @@ def forget_all() -> None:
     settings = _settings()
     settings.remove(_KEY)
     settings.sync()
+
+
+_WRITTEN_KEY = "written_folders"
+MAX_WRITTEN_FOLDERS = 20
+"""How many folders Rankwise remembers having saved into (to tidy up after saves cut short)."""
+
+
+def remember_written_folder(path: Path) -> None:
+    """Remember the folder of a file about to be saved (newest first, once)."""
+    folder = str(Path(path).resolve().parent)
+    settings = _settings()
+    stored = settings.value(_WRITTEN_KEY, [])
+    stored = [stored] if isinstance(stored, str) else list(stored or [])
+    settings.setValue(_WRITTEN_KEY, [folder, *[f for f in stored if f != folder]][:MAX_WRITTEN_FOLDERS])
+    settings.sync()
+
+
+def remove_interrupted_saves_in_the_background() -> threading.Thread:
+    """Remove, on a thread of its own, the temporary files saves cut short left in the folders
+    Rankwise saved into or opened from (``rankwise.records.atomic.remove_interrupted_saves``)."""
+    from rankwise.records.atomic import remove_interrupted_saves
+
+    stored = _settings().value(_WRITTEN_KEY, [])
+    stored = [stored] if isinstance(stored, str) else list(stored or [])
+    folders = dict.fromkeys([*stored, *(str(path.parent) for path in recent_files())])
+
+    def tidy() -> None:
+        for folder in folders:
+            remove_interrupted_saves(folder)
+
+    worker = threading.Thread(target=tidy, name="rankwise-tidy-up", daemon=True)
+    worker.start()
+    return worker
