@@ -20,6 +20,8 @@ NO_CHANGE, SAME_WITHIN = "no change shown", "same within the margin"
 BEYOND_LIMIT_MARK = "▲ beyond a limit"
 """Beside a characteristic whose B centre, by the shift's interval, may lie beyond LSL or USL:
 a symbol and words, never colour alone."""
+BEYOND_LIMIT_SHORT = "▲ beyond"
+"""The same mark where room is short (the one-page summary), explained in the verdict's sentences."""
 
 ADJUST_WORDS = {
     "holm": "by Holm (1979): the chance of any false alarm among all of them stays within the {level} level",

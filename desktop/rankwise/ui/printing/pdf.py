@@ -10,6 +10,8 @@ from PySide6.QtGui import QGuiApplication, QPageLayout, QPagedPaintDevice, QPage
 
 from rankwise.records import fingerprint
 from rankwise.records.atomic import write_atomically
+from rankwise.stats.results import CharacteristicsResult
+from rankwise.ui.printing.characteristics_page import draw_characteristics_page
 from rankwise.ui.printing.page_content import gather
 from rankwise.ui.printing.page_layout import PagePlan, draw_verdict_page
 
@@ -32,12 +34,15 @@ def page_layout(page_size: str) -> QPageLayout:
 
 def paint_record(device, record) -> PagePlan:
     """Paint ``record``'s verdict page on ``device`` (a PDF writer, printer or image)."""
-    content = gather(record, fingerprint(record))
+    many = isinstance(record.result, CharacteristicsResult)
+    content = None if many else gather(record, fingerprint(record))
     painter = QPainter()
     if not painter.begin(device):
         raise OSError("The page could not be opened for drawing (is the printer or file available?).")
     try:
         area = QRectF(0, 0, device.width(), device.height())
+        if many:
+            return draw_characteristics_page(painter, area, record, fingerprint(record))
         return draw_verdict_page(painter, area, content)
     finally:
         painter.end()
