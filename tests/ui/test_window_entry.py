@@ -81,3 +81,38 @@ def test_typing_starts_in_the_sheet(qtbot, window):
     qtbot.keyClicks(window.grid, "7")
     qtbot.keyClick(window.focusWidget(), Qt.Key.Key_Return)
     qtbot.waitUntil(lambda: window.sheet.cell(0, 0).text == "7", timeout=60000)
+
+
+def test_paste_with_a_title_row_names_the_groups(qtbot, window):
+    """A block copied with its titles ("Before", "After") names A and B and fills them from row 1;
+    the status line says so; one undo takes back the readings and the names together."""
+    QGuiApplication.clipboard().setText("Before\tAfter\n0,41\t0,47\n0,44\t0,52\n")
+    window.grid.setFocus()
+    window.grid.move_to(0, 0)
+    qtbot.keyClick(window.grid, Qt.Key.Key_V, Qt.KeyboardModifier.ControlModifier)
+    assert window.sheet.group_names == ["Before", "After"]
+    assert [window.sheet.cell(1, r).text for r in range(2)] == ["0,47", "0,52"]
+    assert "named the groups Before, After" in window.statusBar().currentMessage()
+    window.undo()
+    assert window.sheet.group_names == ["A", "B"] and window.sheet.row_count == 0
+
+
+def test_paste_with_a_title_row_into_the_new_group_column(qtbot, window):
+    """Titles over readings pasted into the "+ new group" column make named groups."""
+    QGuiApplication.clipboard().setText("Press 3\n12,1\n12,4\n")
+    window.grid.setFocus()
+    window.grid.move_to(0, 2)
+    qtbot.keyClick(window.grid, Qt.Key.Key_V, Qt.KeyboardModifier.ControlModifier)
+    assert window.sheet.group_names == ["A", "B", "Press 3"]
+    assert window.sheet.cell(2, 0).text == "12,1"
+
+
+def test_paste_without_a_title_row_keeps_the_names(qtbot, window):
+    """A block whose first row holds a reading is all data: the names stay, nothing is said about titles."""
+    QGuiApplication.clipboard().setText("0,41\tscrap\nn/a\t0,52\n")
+    window.grid.setFocus()
+    window.grid.move_to(0, 0)
+    qtbot.keyClick(window.grid, Qt.Key.Key_V, Qt.KeyboardModifier.ControlModifier)
+    assert window.sheet.group_names == ["A", "B"]
+    assert [window.sheet.cell(0, r).text for r in range(2)] == ["0,41", "n/a"]
+    assert "title" not in window.statusBar().currentMessage()

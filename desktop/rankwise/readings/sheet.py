@@ -344,17 +344,25 @@ class ReadingSheet:
         self._commit(f"{verb} {column.name} row {row + 1}", [self._write_cells({(index, row): cell})])
         return cell
 
-    def paste_block(self, group: int, row: int, block: list[list[str]]) -> None:
-        """Paste rows of texts with their top-left at ``group``, ``row``; adds groups when the block is wider."""
+    def paste_block(self, group: int, row: int, block: list[list[str]], titles: Sequence[str] = ()) -> list[str]:
+        """Paste rows of texts with their top-left at ``group``, ``row``; adds groups when the block is wider.
+
+        ``titles`` (a title row set apart by ``split_title_row``) name the groups the block lands in,
+        in the same undo step; a blank title, or one another group already has, leaves the name as it
+        was. Returns the names the titles gave."""
         index = self._group_index(group, allow_end=True)
         self._check_row(row)
         if not block or not any(block):
-            return
+            return []
         width = max(len(line) for line in block)
         operations = []
+        named = self._names_from_titles(index, titles)
+        for position, name in named.items():
+            if position < len(self.groups):
+                operations.append(self._replace_group(position, dataclasses.replace(self.groups[position].copy(), name=name)))
         missing = index + width - len(self.groups)
         if missing > 0:
-            names = self._new_names(missing)
+            names = self._new_names(missing, [named.get(position) for position in range(len(self.groups), index + width)])
             operations.append(self._insert_groups(len(self.groups), [GroupColumn(name) for name in names]))
             units = [group.unit for group in self.groups] + [""] * missing
         else:
@@ -372,6 +380,22 @@ class ReadingSheet:
         count = sum(len(line) for line in block)
         target = self.groups[index].name if index < len(self.groups) else "new groups"
         self._commit(f"pasting {count} cell{'s' if count != 1 else ''} into {target}", operations)
+        return list(named.values())
+
+    def _names_from_titles(self, index: int, titles: Sequence[str]) -> dict[int, str]:
+        """Group position -> new name, for the titles that can name a group."""
+        names = list(self.group_names)
+        named: dict[int, str] = {}
+        for offset, title in enumerate(titles):
+            position, title = index + offset, title.strip()
+            current = names[position] if position < len(names) else None
+            others = [name for i, name in enumerate(names) if i != position]
+            if not title or title == current or title in others:
+                continue
+            names.extend([""] * (position + 1 - len(names)))
+            names[position] = title
+            named[position] = title
+        return named
 
     def clear(self, cells: Iterable[tuple[int, int]]) -> None:
         """Empty the given (group, row) cells, as one step."""
@@ -639,8 +663,18 @@ class ReadingSheet:
         if isinstance(row, bool) or not isinstance(row, int) or row < 0:
             raise ValueError(f"row must be a row number, 0 or more; got {row!r}.")
 
-    def _new_names(self, count: int) -> list[str]:
-        return next_group_names(self.group_names, count)
+    def _new_names(self, count: int, wanted: Sequence[str | None] = ()) -> list[str]:
+        """Names for ``count`` new groups: the ``wanted`` one where given, else continuing the sheet's naming."""
+        names = list(self.group_names)
+        chosen = []
+        for position in range(count):
+            name = wanted[position] if position < len(wanted) else None
+            if name is None:
+                reserved = {n for n in wanted if n}
+                name = next(n for n in next_group_names(names, len(reserved) + 1) if n not in reserved)
+            names.append(name)
+            chosen.append(name)
+        return chosen
 
 
 def _check_details(name: str, lsl: float | None, usl: float | None, other_names: Sequence[str]) -> None:

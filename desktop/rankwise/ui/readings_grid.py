@@ -11,6 +11,7 @@ from PySide6.QtCore import QItemSelection, QItemSelectionModel, Qt, Signal
 from PySide6.QtGui import QGuiApplication, QKeyEvent, QKeySequence
 from PySide6.QtWidgets import QAbstractItemDelegate, QAbstractItemView, QHeaderView, QTableView, QWidget
 
+from rankwise.readings.paste_titles import split_title_row
 from rankwise.ui.sheet_model import SheetModel
 
 
@@ -40,10 +41,12 @@ class ReadingsGrid(QTableView):
 
     Signals:
         problem(str): an edit was refused, in plain words (e.g. the sheet is signed).
+        notice(str): an edit did something worth saying (a pasted title row named the groups).
         header_double_clicked(int): the user wants to edit that group's details.
     """
 
     problem = Signal(str)
+    notice = Signal(str)
     header_double_clicked = Signal(int)
 
     def __init__(self, parent: QWidget | None = None) -> None:
@@ -281,17 +284,21 @@ class ReadingsGrid(QTableView):
         self.paste_text(QGuiApplication.clipboard().text())
 
     def paste_text(self, text: str) -> None:
-        """Paste a block of text (tab-separated cells, a line per row) at the current cell."""
+        """Paste a block of text (tab-separated cells, a line per row) at the current cell; a first
+        row of words over readings names the groups instead (one undo step, and the window says so)."""
         if self._refuse_if_read_only():
             return
-        block = block_from_text(text)
+        sheet = self.sheet_model().sheet
+        titles, block = split_title_row(block_from_text(text), sheet.decimal)
         if not block:
             return
         current = self.currentIndex()
         row = max(0, current.row())
-        sheet = self.sheet_model().sheet
         group = min(max(0, current.column()), len(sheet.groups))
-        sheet.paste_block(group, row, block)
+        named = sheet.paste_block(group, row, block, titles)
+        if named:
+            self.notice.emit(f"The pasted title row named the group{'s' if len(named) > 1 else ''} "
+                             f"{', '.join(named)}; Undo (Ctrl+Z) takes the paste and the names back.")
         height, width = len(block), max(len(line) for line in block)
         model = self.model()
         top_left = model.index(row, group)
