@@ -10,7 +10,6 @@ from rankwise.stats.inputs import clean_group
 @pytest.mark.parametrize("values", [
     [1.0, None, 2.0, float("nan")],
     np.array([1.0, np.nan, 2.0, np.nan]),
-    np.array([[1.0, np.nan], [2.0, np.nan]]),
 ])
 def test_blanks_are_dropped_and_counted_from_lists_and_arrays(values):
     kept, dropped = clean_group(values, "Press 2")
@@ -30,6 +29,13 @@ def test_a_whole_number_array_is_taken_as_floats():
     ([], "no readings"),
     (["1.2", "ok"], "not a number"),
     (np.array(["a", "b"]), "not a number"),
+    ([1.2, "1.3"], "text '1.3', which is not a number"),
+    ([1.2, True], "yes/no value"),
+    (np.array([True, False]), "True/False"),
+    ([[1.0, 2.0], [3.0, 4.0]], "list inside the list"),
+    (np.array([[1.0, 2.0], [3.0, 4.0]]), "not a list"),
+    (3.0, "single value"),
+    ("1.2 1.3", "a text"),
 ])
 def test_bad_groups_are_refused_naming_the_group(values, words):
     with pytest.raises(ValueError, match=f"Group Press 2 .*{words}|{words}.*Press 2|Press 2.*{words}"):
@@ -66,3 +72,37 @@ def test_the_callers_readings_are_never_changed():
     compare_two(a, b, margin=0.5)
     np.testing.assert_array_equal(a, kept_a)
     np.testing.assert_array_equal(b, kept_b)
+
+
+def test_float_noise_never_splits_a_tie_even_beside_a_reading_with_many_decimals():
+    """0.1 + 0.2 is 0.30000000000000004 in binary floating point; beside a reading with 13
+    decimals (more than the old limit of 9) and beside readings of very different magnitudes
+    (no common grid fits in 2^52), it still ties with a typed 0.3 (Python's repr of the typed
+    decimals, common practice, no source)."""
+    from rankwise.stats import midranks
+    from rankwise.stats.grid import snap_to_decimals
+
+    assert find_grid(np.array([0.1 + 0.2, 0.3, 0.1234567891234])).decimals == 13
+    assert midranks([0.1 + 0.2, 0.3, 0.1234567891234]).tolist() == [2.5, 2.5, 1.0]
+    mixed = [0.1 + 0.2, 0.3, 0.000001234, 123456.7, 0.30000000000001]
+    assert find_grid(np.array(mixed)).decimals is None
+    assert midranks(mixed).tolist() == [2.5, 2.5, 1.0, 5.0, 4.0]
+    snapped = snap_to_decimals(np.array([0.1 + 0.2, 0.9999999999999999, 0.7319838918264537, 123456.789]))
+    assert snapped.tolist() == [0.3, 1.0, 0.731983891826454, 123456.789]
+
+
+def test_readings_whose_differences_overflow_are_refused_in_plain_words():
+    """Readings near the largest float give infinite differences: a plain error, never inf in a result."""
+    from rankwise.stats import compare_paired, compare_two
+
+    with pytest.raises(ValueError, match="too large to subtract"):
+        compare_two([-1.7e308, -1.6e308, 1.0], [1.7e308, 1.6e308, 2.0])
+    with pytest.raises(ValueError, match="too large to subtract"):
+        compare_paired([-1.7e308, 1.0, 2.0], [1.7e308, 2.0, 3.0])
+
+
+def test_a_single_number_instead_of_a_list_is_named_as_such():
+    from rankwise.stats import compare_two
+
+    with pytest.raises(ValueError, match="Group A is a single value \\(3.0\\), not a list of readings"):
+        compare_two(3.0, [1.0, 2.0])

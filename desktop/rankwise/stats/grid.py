@@ -3,7 +3,11 @@
 A reading typed as 0.42 is stored as a binary float near 0.42; differences such as 0.45 - 0.03
 then carry noise in the last bits, which could split a true tie or create a false one. Before
 ranking or differencing, readings are mapped to integers in units of their finest decimal (the
-readings' resolution), where every comparison and subtraction is exact.
+readings' resolution), where every comparison and subtraction is exact. Readings with different
+magnitudes can need more digits than such integers hold (0.000001234 beside 123456.7); they are
+then ranked as the decimals they were typed as: each reading is snapped to the shortest decimal
+of at most 15 significant digits within a few units in its last place (the typed text, read back),
+so binary noise never splits a tie; a reading with more digits than that is kept as it is.
 """
 
 from __future__ import annotations
@@ -12,8 +16,11 @@ from dataclasses import dataclass
 
 import numpy as np
 
-MAX_DECIMALS = 9
-"""Finest resolution searched for; readings needing more are treated as continuous floats."""
+MAX_DECIMALS = 15
+"""Finest resolution searched for; readings needing more (or too large for it) are snapped to decimals."""
+
+SIGNIFICANT_DIGITS = 15
+"""Readings off every common grid are taken as decimals of at most this many significant digits."""
 
 _EXACT_INTEGER_LIMIT = 2.0**52
 
@@ -35,10 +42,11 @@ class Grid:
         return 1.0 if self.decimals is None else 10.0 ** (-self.decimals)
 
     def to_counts(self, values: np.ndarray) -> np.ndarray:
-        """Readings as whole numbers of ``step`` (held in float64, exactly), or unchanged floats."""
+        """Readings as whole numbers of ``step`` (held in float64, exactly), or, off every grid, as
+        the decimals they were typed as (``snap_to_decimals``)."""
         values = np.asarray(values, dtype=float)
         if self.decimals is None:
-            return values
+            return snap_to_decimals(values)
         return np.rint(values * 10.0**self.decimals)
 
     def to_readings(self, counts: np.ndarray | float) -> np.ndarray | float:
@@ -46,6 +54,33 @@ class Grid:
         if self.decimals is None:
             return counts
         return counts / 10.0**self.decimals
+
+
+def snap_to_decimals(values: np.ndarray) -> np.ndarray:
+    """Each value as the nearest decimal of 15 (or 16) significant digits when that lies within 4
+    units in its last place (0.30000000000000004 becomes 0.3, the value typed), else unchanged. Readings
+    typed as the same decimal of up to 15 significant digits always come out equal, and the
+    mapping never reverses an order."""
+    values = np.asarray(values, dtype=float)
+    result = values.copy()
+    nonzero = np.flatnonzero((values != 0.0) & np.isfinite(values))
+    if nonzero.size == 0:
+        return result
+    chosen = values[nonzero]
+    _, binary_exponent = np.frexp(chosen)  # chosen = m 2^e, 0.5 <= |m| < 1; one unit in the last place is 2^(e - 53)
+    # floor(log10 |chosen|) or one less: 15 or 16 significant digits, the same for equal typed decimals.
+    power = SIGNIFICANT_DIGITS - 1 - np.floor((binary_exponent - 1) * _LOG10_2).astype(np.int64)
+    scale = _POWERS_OF_TEN[np.minimum(np.abs(power), _POWERS_OF_TEN.size - 1)]
+    with np.errstate(over="ignore", invalid="ignore"):  # the branch not taken may overflow
+        snapped = np.where(power >= 0, np.rint(chosen * scale) / scale, np.rint(chosen / scale) * scale)
+        fits = np.abs(snapped - chosen) <= np.ldexp(1.0, binary_exponent - 51)
+    result[nonzero[fits]] = snapped[fits]
+    return result
+
+
+_LOG10_2 = float(np.log10(2.0))
+_POWERS_OF_TEN = 10.0 ** np.arange(0, 309)
+"""10^0 .. 10^308, the powers of ten a float holds."""
 
 
 def _fits(values: np.ndarray, decimals: int) -> bool:
@@ -68,8 +103,9 @@ _CHUNK = 1 << 15
 
 def _chunk_fits(values: np.ndarray, scale: float) -> bool:
     """``_fits`` for one chunk of readings and the scale 10^decimals."""
-    scaled = values * scale
-    if max(scaled.max(), -scaled.min()) >= _EXACT_INTEGER_LIMIT:
+    with np.errstate(over="ignore"):  # readings near the float limit fit no grid
+        scaled = values * scale
+    if not max(scaled.max(), -scaled.min()) < _EXACT_INTEGER_LIMIT:
         return False
     off = np.rint(scaled, out=scaled)
     off /= scale

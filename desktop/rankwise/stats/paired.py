@@ -28,9 +28,9 @@ from rankwise.stats.change_inversion import accepted_changes
 from rankwise.stats.exact_signed_rank import exact_cost as _exact_cost
 from rankwise.stats.exact_signed_rank import exact_p as _exact_p
 from rankwise.stats.exact_signed_rank import signed_rank_null
-from rankwise.stats.grid import find_grid
+from rankwise.stats.grid import find_grid, snap_to_decimals
 from rankwise.stats.hodges_lehmann import select_walsh_sums
-from rankwise.stats.inputs import check_choice, check_level
+from rankwise.stats.inputs import check_choice, check_level, readings_array
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.ranks import rank_groups
 from rankwise.stats.results import ConfidenceInterval, NullDistribution, PairedResult
@@ -91,8 +91,15 @@ def compare_paired(
         )
 
     grid = find_grid(values_a, values_b)
-    d_counts = grid.to_counts(values_b) - grid.to_counts(values_a)
+    with np.errstate(over="ignore"):  # refused just below
+        d_counts = grid.to_counts(values_b) - grid.to_counts(values_a)
+    if grid.decimals is None:  # off every common grid: the changes as the decimals they are
+        d_counts = snap_to_decimals(d_counts)
     differences = np.asarray(grid.to_readings(d_counts), dtype=float)
+    if not np.isfinite(2.0 * np.abs(differences).max()):
+        raise ValueError(f"The {name_a} and {name_b} readings are too large to subtract from each other: their "
+                         "changes pass the largest number this computer can hold. Enter them in a larger unit "
+                         "(e.g. thousands).")
     zero = d_counts == 0
     n_zero = int(zero.sum())
     ranked = ~zero if zero_method == "wilcox" else np.ones_like(zero)
@@ -207,10 +214,7 @@ def _complete_pairs(a, b, name_a: str, name_b: str) -> tuple[np.ndarray, np.ndar
     """The complete pairs as float arrays, and the 1-based rows where one reading is blank."""
     columns = []
     for values, name in ((a, name_a), (b, name_b)):
-        try:
-            column = np.asarray([np.nan if v is None else v for v in values], dtype=float).ravel()
-        except (TypeError, ValueError) as error:
-            raise ValueError(f"The {name} readings hold an entry that is not a number.") from error
+        column = readings_array(values, f"The {name} readings")
         if np.isinf(column).any():
             row = int(np.flatnonzero(np.isinf(column))[0]) + 1
             raise ValueError(f"The {name} reading in row {row} is infinite; enter finite numbers only.")

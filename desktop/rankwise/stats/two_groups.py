@@ -24,7 +24,7 @@ from rankwise.stats.critical import critical_value, smallest_equal_size, smalles
 from rankwise.stats.exact_ranksum import RankSumDistribution, exact_count_seconds, rank_sum_distribution
 from rankwise.stats.grid import Grid, find_grid
 from rankwise.stats.hodges_lehmann import hodges_lehmann_shift, moses_interval
-from rankwise.stats.inputs import check_choice, check_level, clean_group
+from rankwise.stats.inputs import check_choice, check_differences, check_level, clean_group
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.ranks import rank_groups
 from rankwise.stats.results import ConfidenceInterval, NullDistribution, TieBlock, TwoGroupResult
@@ -89,6 +89,7 @@ def compare_two(
     margin = _check_margin(margin, alpha)
     values_a, dropped_a = clean_group(a, name_a)
     values_b, dropped_b = clean_group(b, name_b)
+    check_differences(values_a, values_b, f"The readings of {name_a} and {name_b}")
     n_a, n_b = values_a.size, values_b.size
     grid = find_grid(values_a, values_b)
     counts_a, counts_b = grid.to_counts(values_a), grid.to_counts(values_b)

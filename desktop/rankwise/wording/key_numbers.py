@@ -120,8 +120,8 @@ def _interval(key: str, what: str, interval: ConfidenceInterval | None, formats:
                       formats.centre(interval.high), tooltip + _end_tip(interval.high_included, "below"), interval.high)
 
 
-OPEN_LOW = " (not included: from just above)"
-OPEN_HIGH = " (not included: up to just below)"
+OPEN_LOW = " (not included)"
+OPEN_HIGH = " (not included)"
 """Said after the label of an open end: the test rejects the end itself but accepts every value just inside."""
 
 
