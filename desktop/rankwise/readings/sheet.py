@@ -16,6 +16,7 @@ from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, GroupCounts, Ski
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.censored import check_mixed_limits
 from rankwise.readings.group_names import next_group_names
+from rankwise.readings import decimal_mark
 from rankwise.readings.parse import check_decimal, parse_reading
 from rankwise.readings.snapshot import GroupSnapshot, RowParts, SheetSnapshot
 from rankwise.readings.suspicious import flag_readings
@@ -112,6 +113,7 @@ class ReadingSheet:
         self._undone: list[_Step] = []
         self._saved_step: _Step | None = None
         self._listeners: list[tuple[Callable[[SheetChange], None], bool]] = []
+        self._decided = decimal_mark.first_showing(self.groups) if self._decimal == "auto" else None
 
     # ----- building ---------------------------------------------------------------------------
 
@@ -169,6 +171,21 @@ class ReadingSheet:
     def decimal(self) -> str:
         """The decimal setting: "auto", "." or ","."""
         return self._decimal
+
+    @property
+    def decimal_status(self) -> str:
+        """Plain words on the decimal mark numbers are read with, and why (the setting, or the reading that decided it)."""
+        return decimal_mark.status(self._decimal, self._decided, self.groups)
+
+    @property
+    def decimal_label(self) -> str:
+        """A few words on the same for a status line ("Decimal comma (from 0,998 in A, row 1)")."""
+        return decimal_mark.label(self._decimal, self._decided, self.groups)
+
+    @property
+    def _reading_decimal(self) -> str:
+        """The mark typed text is read with: the setting, or with "auto" the mark the first readings show."""
+        return decimal_mark.reading_mark(self._decimal, self._decided)
 
     @property
     def mixed_limits(self) -> str:
@@ -232,7 +249,7 @@ class ReadingSheet:
         chosen = range(len(self.groups)) if groups is None else [self._group_index(g) for g in groups]
         if len(set(chosen)) != len(chosen):
             raise ValueError(f"groups must not repeat a group; got {list(groups or [])}.")
-        return build_analysis([self.groups[g] for g in chosen], question, settings, decimal=self._decimal,
+        return build_analysis([self.groups[g] for g in chosen], question, settings, decimal=self._reading_decimal,
                               mixed_limits=self._mixed_limits, parts=self.parts)
 
     def pairing_refusal(self, groups: Sequence[int]) -> str:
@@ -320,6 +337,36 @@ class ReadingSheet:
         self._notify(dataclasses.replace(change, before=True))
         action()
         self._notify(change)
+        self._follow_decimal_mark(change)
+
+    def _follow_decimal_mark(self, change: SheetChange) -> None:
+        """With "auto", keep the mark the first showing reading decides; when it changes, read every cell again.
+
+        The decision depends on the texts alone, so undo and redo bring back the same decision.
+        """
+        if self._decimal != "auto":
+            self._decided = None
+            return
+        decided = self._decided
+        if change.kind == "cells" and decided is None:
+            found = decimal_mark.first_showing(
+                self.groups, range(change.first_group, change.last_group + 1), range(change.first_row, change.last_row + 1))
+        elif change.kind == "cells" and (change.first_group > decided.group or (
+                change.first_group == decided.group and change.first_row > decided.row)):
+            found = decided  # edits after the deciding reading cannot change the decision
+        else:
+            found = decimal_mark.first_showing(self.groups)
+        self._decided = found
+        if (found.mark if found else None) == (decided.mark if decided else None):
+            return
+        if not self.groups or not self.row_count:
+            return
+        every = SheetChange("cells", 0, len(self.groups) - 1, 0, self.row_count - 1)  # same shape, cells read again
+        self._notify(dataclasses.replace(every, before=True))
+        mark = self._reading_decimal
+        for group in self.groups:
+            group.cells = [parse_reading(c.text, decimal=mark, unit=group.unit) for c in group.cells]
+        self._notify(every)
 
     def _commit(self, label: str, operations: list[_Operation]) -> None:
         if not operations:
@@ -337,7 +384,7 @@ class ReadingSheet:
         index = self._group_index(group)
         self._check_row(row)
         column = self.groups[index]
-        cell = parse_reading(text, decimal=self._decimal, unit=column.unit)
+        cell = parse_reading(text, decimal=self._reading_decimal, unit=column.unit)
         if cell == self.cell(index, row):
             return cell
         verb = "clearing" if cell.kind is CellKind.EMPTY else "typing in"
@@ -368,7 +415,7 @@ class ReadingSheet:
         else:
             units = [group.unit for group in self.groups]
         writes = {
-            (index + offset, row + line_number): parse_reading(text, decimal=self._decimal, unit=units[index + offset])
+            (index + offset, row + line_number): parse_reading(text, decimal=self._reading_decimal, unit=units[index + offset])
             for line_number, line in enumerate(block)
             for offset, text in enumerate(line)
         }
@@ -582,7 +629,7 @@ class ReadingSheet:
                 setattr(new, name, _limit(name, value))
         _check_details(new.name, new.lsl, new.usl, [])
         if new.unit != old.unit:
-            new.cells = [parse_reading(c.text, decimal=self._decimal, unit=new.unit) for c in old.cells]
+            new.cells = [parse_reading(c.text, decimal=self._reading_decimal, unit=new.unit) for c in old.cells]
         if new == old:
             return
         self._commit(f"changing the details of {old.name}", [self._replace_group(index, new)])
@@ -593,9 +640,10 @@ class ReadingSheet:
         if sep == self._decimal:
             return
         old_groups, old_decimal = self.groups, self._decimal
+        reading = decimal_mark.reading_mark(sep, decimal_mark.first_showing(self.groups) if sep == "auto" else None)
         new_groups = [
             dataclasses.replace(
-                g.copy(), cells=_trimmed([parse_reading(c.text, decimal=sep, unit=g.unit) for c in g.cells])
+                g.copy(), cells=_trimmed([parse_reading(c.text, decimal=reading, unit=g.unit) for c in g.cells])
             )
             for g in self.groups
         ]

@@ -55,6 +55,8 @@ class WindowSheet:
                 text += f", {counts.censored} below a detection limit"
             parts.append(text)
         self.status_counts.setText("   ·   ".join(parts) if parts else "No readings yet: type or paste them into the sheet.")
+        self.status_decimal.setText(self.sheet.decimal_label)
+        self.status_decimal.setToolTip(f"{self.sheet.decimal_status} Change it in Edit > Decimal separator.")
 
     def update_undo_actions(self) -> None:
         """Undo and redo say what they would undo or redo, and are off when there is nothing or it is signed."""
