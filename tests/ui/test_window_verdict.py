@@ -150,3 +150,28 @@ def test_long_computation_shows_progress_and_can_be_stopped(qtbot, window):
     qtbot.waitUntil(lambda: window.results_panel.headline.text() == "Calculation stopped", timeout=60000)
     assert not window.results_panel.busy_strip.isVisible() and window.last_result is None
     assert window.sheet.counts(0).used == 300
+
+
+def test_verdict_first_then_the_few_key_numbers_the_rest_folded(qtbot, window):
+    """Under the verdict: the shift with its interval, the p-value and how it was found, and the
+    readings used; every other number waits behind "More numbers", which the keyboard unfolds."""
+    from window_support import press
+
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    panel = window.results_panel
+    def place(label):
+        corner = label.mapTo(panel, label.rect().topLeft())
+        return corner.y(), corner.x()
+
+    shown = sorted((key for key, label in panel._number_labels.items() if label.isVisible()),
+                   key=lambda key: place(panel._number_labels[key]))
+    assert shown[:4] == ["shift", "shift_ci_low", "shift_ci_high", "p_value"]
+    assert set(shown) == {"shift", "shift_ci_low", "shift_ci_high", "p_value", "method", "n_a", "n_b"}
+    assert panel.number_text("method").startswith("exact")
+    assert panel.more_button.isVisible() and not panel.number_tooltip("u_a") is None
+    assert not panel._number_labels["u_a"].isVisible()
+    panel.more_button.setFocus()
+    press(qtbot, Qt.Key.Key_Space)
+    assert panel._number_labels["u_a"].isVisible()
+    screenshot(window, "window-more-numbers")

@@ -7,6 +7,7 @@ so it is visible whatever else is on screen.
 
 from __future__ import annotations
 
+import re
 from collections.abc import Sequence
 
 from PySide6.QtCore import Qt, Signal
@@ -19,6 +20,7 @@ from PySide6.QtWidgets import (
     QPushButton,
     QScrollArea,
     QSizePolicy,
+    QToolButton,
     QVBoxLayout,
     QWidget,
 )
@@ -28,6 +30,23 @@ from rankwise.wording import CAUTION_SHORT
 KEY_NUMBER_COLUMNS = 2
 """Key numbers are laid out in this many columns; each shows its label with the value under it,
 so that a value never shares its width with a long label and always reads whole."""
+
+FIRST_NUMBERS = ("shift", "shift_ci_low", "shift_ci_high", "margin", "equivalence_ci_low", "equivalence_ci_high",
+                 "p_value", "method", "n_pairs", "n_a", "n_b", "power", "alpha", "spread")
+"""The numbers a technician needs under the verdict, in this order: the shift and its interval (or
+the margin), the p-value and how it was found, the readings used (or, for a plan, the parts needed).
+Every other number folds behind "More numbers"."""
+
+_READINGS_USED = re.compile(r"n_\d+")
+"""Readings used per group when there are several groups (n_1, n_2, ...)."""
+
+
+def first_numbers(numbers: Sequence) -> tuple[list, list]:
+    """The key numbers split into those shown under the verdict (in ``FIRST_NUMBERS`` order) and the rest."""
+    order = {key: position for position, key in enumerate(FIRST_NUMBERS)}
+    first = [n for n in numbers if n.key in order or _READINGS_USED.fullmatch(n.key)]
+    first.sort(key=lambda n: order.get(n.key, len(order)))
+    return first, [n for n in numbers if n not in first]
 
 
 def _wrapping_label(object_name: str, accessible: str) -> QLabel:
@@ -65,12 +84,16 @@ class ResultsPanel(QWidget):
         self.numbers_title = QLabel("Key numbers (hover over a number to see what it means)")
         self.numbers_title.setObjectName("sectionTitle")
         self.numbers_title.setWordWrap(True)
-        self._numbers_box = QWidget()
-        self._numbers_grid = QGridLayout(self._numbers_box)
-        self._numbers_grid.setHorizontalSpacing(18)
-        self._numbers_grid.setVerticalSpacing(4)
-        for column in range(KEY_NUMBER_COLUMNS):
-            self._numbers_grid.setColumnStretch(column, 1)
+        self._numbers_box, self._numbers_grid = _numbers_grid()
+        self.more_button = QToolButton()
+        self.more_button.setObjectName("moreNumbers")
+        self.more_button.setCheckable(True)
+        self.more_button.setToolButtonStyle(Qt.ToolButtonStyle.ToolButtonTextBesideIcon)
+        self.more_button.setArrowType(Qt.ArrowType.RightArrow)
+        self.more_button.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
+        self.more_button.toggled.connect(self._show_more)
+        self._more_box, self._more_grid = _numbers_grid()
+        self._more_box.hide()
         self._number_labels: dict[str, QLabel] = {}
         self._name_labels: dict[str, QLabel] = {}
 
@@ -83,7 +106,8 @@ class ResultsPanel(QWidget):
         body = QWidget()
         body.setObjectName("resultsBody")
         body_layout = QVBoxLayout(body)
-        for widget in (self.headline, self.sentences, self.choice_button, self.numbers_title, self._numbers_box, self.method_note, self.notes):
+        for widget in (self.headline, self.sentences, self.choice_button, self.numbers_title, self._numbers_box,
+                       self.more_button, self._more_box, self.method_note, self.notes):
             body_layout.addWidget(widget)
         body_layout.addStretch(1)
         scroll = QScrollArea()
@@ -185,7 +209,8 @@ class ResultsPanel(QWidget):
 
     def keyboard_order(self) -> list[QWidget]:
         """The panel's controls in reading order, for the window's tab order."""
-        return [self.headline, self.sentences, self.choice_button, self.method_note, self.notes, self.stop_button]
+        return [self.headline, self.sentences, self.choice_button, self.more_button, self.method_note, self.notes,
+                self.stop_button]
 
     # -- read by tests and by the window -----------------------------------------------------------
     def number_text(self, key: str) -> str | None:
@@ -217,36 +242,36 @@ class ResultsPanel(QWidget):
         if numbers and [number.key for number in numbers] == list(self._number_labels):
             self._update_numbers(numbers)
             return
-        while self._numbers_grid.count():
-            item = self._numbers_grid.takeAt(0)
-            if item.widget() is not None:
-                # Hidden at once: a widget left for later deletion would still be drawn until then.
-                item.widget().hide()
-                item.widget().deleteLater()
+        for grid in (self._numbers_grid, self._more_grid):
+            while grid.count():
+                item = grid.takeAt(0)
+                if item.widget() is not None:
+                    # Hidden at once: a widget left for later deletion would still be drawn until then.
+                    item.widget().hide()
+                    item.widget().deleteLater()
         self._number_labels = {}
         self._name_labels = {}
-        for position, number in enumerate(numbers):
-            row, column = divmod(position, KEY_NUMBER_COLUMNS)
-            cell = QWidget()
-            cell.setObjectName("keyNumber")
-            stack = QVBoxLayout(cell)
-            stack.setContentsMargins(0, 2, 0, 4)
-            stack.setSpacing(0)
-            name = QLabel()
-            name.setObjectName("numberLabel")
-            name.setWordWrap(True)
-            value = QLabel()
-            value.setObjectName("numberValue")
-            value.setWordWrap(True)
-            value.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
-            stack.addWidget(name)
-            stack.addWidget(value)
-            self._numbers_grid.addWidget(cell, row, column, Qt.AlignmentFlag.AlignTop)
-            self._number_labels[number.key] = value
-            self._name_labels[number.key] = name
+        first, rest = first_numbers(numbers)
+        for grid, shown in ((self._numbers_grid, first), (self._more_grid, rest)):
+            for position, number in enumerate(shown):
+                row, column = divmod(position, KEY_NUMBER_COLUMNS)
+                cell, name, value = _number_cell()
+                grid.addWidget(cell, row, column, Qt.AlignmentFlag.AlignTop)
+                self._number_labels[number.key] = value
+                self._name_labels[number.key] = name
+        self._number_labels = {number.key: self._number_labels[number.key] for number in numbers}
         self._update_numbers(numbers)
         self.numbers_title.setVisible(bool(numbers))
-        self._numbers_box.setVisible(bool(numbers))
+        self._numbers_box.setVisible(bool(first))
+        self.more_button.setVisible(bool(rest))
+        self.more_button.setText(f"More n&umbers ({len(rest)})")
+        self.more_button.setAccessibleName(f"More numbers: {len(rest)} more")
+        self._show_more(self.more_button.isChecked())
+
+    def _show_more(self, shown: bool) -> None:
+        """Unfold or fold the numbers after the first few."""
+        self._more_box.setVisible(shown and self.more_button.isVisible())
+        self.more_button.setArrowType(Qt.ArrowType.DownArrow if shown else Qt.ArrowType.RightArrow)
 
     def _update_numbers(self, numbers: Sequence) -> None:
         """Same key numbers as shown (typing changed their values): update the texts in place."""
@@ -258,6 +283,36 @@ class ResultsPanel(QWidget):
                 label.setToolTip(number.tooltip)
             value.setAccessibleName(number.label)
             value.setAccessibleDescription(number.tooltip)
+
+
+def _numbers_grid() -> tuple[QWidget, QGridLayout]:
+    box = QWidget()
+    grid = QGridLayout(box)
+    grid.setContentsMargins(0, 0, 0, 0)
+    grid.setHorizontalSpacing(18)
+    grid.setVerticalSpacing(4)
+    for column in range(KEY_NUMBER_COLUMNS):
+        grid.setColumnStretch(column, 1)
+    return box, grid
+
+
+def _number_cell() -> tuple[QWidget, QLabel, QLabel]:
+    """One key number: its label with the value under it."""
+    cell = QWidget()
+    cell.setObjectName("keyNumber")
+    stack = QVBoxLayout(cell)
+    stack.setContentsMargins(0, 2, 0, 4)
+    stack.setSpacing(0)
+    name = QLabel()
+    name.setObjectName("numberLabel")
+    name.setWordWrap(True)
+    value = QLabel()
+    value.setObjectName("numberValue")
+    value.setWordWrap(True)
+    value.setTextInteractionFlags(Qt.TextInteractionFlag.TextSelectableByMouse)
+    stack.addWidget(name)
+    stack.addWidget(value)
+    return cell, name, value
 
 
 def _escape(text: str) -> str:
