@@ -323,3 +323,33 @@ def test_wrong_input_is_refused_in_plain_words(kwargs, message):
     a, b = kwargs.pop("a"), kwargs.pop("b")
     with pytest.raises(ValueError, match=message):
         compare_two(a, b, **kwargs)
+
+
+def test_auto_is_exact_for_a_tiny_group_against_a_huge_one():
+    """3 readings all below 100,000 others: the most extreme split, one of C(100003, 3) equally
+    likely splits in each tail, so the exact two-sided p is 2 / C(100003, 3) (Mann & Whitney 1947:
+    every split equally likely; counted by hand). Auto counts it exactly and names the method."""
+    import math
+
+    result = compare_two(np.arange(3.0), 10.0 + np.arange(100_000.0), estimate_shift=False)
+    assert result.method == "exact"
+    assert result.p_value == pytest.approx(2 / math.comb(100_003, 3), rel=1e-9)
+    assert result.p_normal > 1e-4  # the normal approximation is off by orders of magnitude here
+
+
+def test_auto_is_exact_for_a_coarse_gauge_at_hundreds_of_readings():
+    """200 + 200 readings on a 3-value gauge: auto counts exactly; the exact distribution's mean
+    and variance are n_a n_b / 2 and the tie-corrected n_a n_b / 12 (N + 1 - sum(t^3 - t) / (N (N - 1)))
+    (Lehmann 1975, Nonparametrics, section 1.4, from memory)."""
+    rng = np.random.default_rng(400)
+    a = rng.integers(0, 3, 200).astype(float)
+    b = rng.integers(0, 3, 200).astype(float)
+    result = compare_two(a, b, estimate_shift=False)
+    assert result.method == "exact"
+    u = np.array(result.null_distribution.support)
+    probabilities = np.array(result.null_distribution.probabilities)
+    _, t = np.unique(np.concatenate([a, b]), return_counts=True)
+    mean = float(np.sum(u * probabilities))
+    assert mean == pytest.approx(200 * 200 / 2, rel=1e-12)
+    expected = 200 * 200 / 12 * (401 - np.sum(t**3 - t) / (400 * 399))
+    assert float(np.sum((u - mean) ** 2 * probabilities)) == pytest.approx(expected, rel=1e-9)
