@@ -26,7 +26,22 @@ def test_values_follow_entry_order_with_nan_for_unused_cells():
     assert (a.unit, a.lsl, a.usl, a.nominal, a.decimals) == ("µm", 0.1, 0.9, 0.5, 2)
     assert b.decimals == 1
     assert analysis.settings.alpha == 0.01
-    assert any("row 3 'scrap'" in note and "row 4" in note for note in analysis.notes)
+    entries_a = analysis.entries[0]
+    assert [(e.row, e.text) for e in entries_a.not_used] == [(3, "scrap"), (4, "0.4,2")]
+    assert (entries_a.readings, entries_a.censored, entries_a.empty_between) == (2, 0, 1)
+
+
+def test_one_count_of_entries_per_group():
+    """Counted by hand from the cells (common practice, no source): text is never a blank, empty
+    cells above the first entry are not counted, a censored reading is a reading used."""
+    sheet = make_sheet(["", "", "0.42", "scrap", "", "<0.05", "0.44", "4.3", "0.45", "0.43"], ["0.5"])
+    sheet.set_group_details(0, usl=1.0)
+    entries = sheet.to_analysis(Question.TWO_GROUPS).entries[0]
+    assert (entries.name, entries.readings, entries.censored, entries.empty_between) == ("A", 6, 1, 1)
+    assert [(e.row, e.text) for e in entries.not_used] == [(4, "scrap")]
+    flagged = [(e.row, e.text) for e in entries.flagged]
+    assert flagged == [(8, "4.3"), (8, "4.3")], "above the USL and a slipped decimal point: two remarks"
+    assert any("slipped decimal point" in e.remark for e in entries.flagged)
 
 
 def test_chosen_groups_in_the_chosen_order():

@@ -1,4 +1,4 @@
-"""From the sheet's groups to the statistics service's ``Analysis``: numbers, blanks, notes, censoring."""
+"""From the sheet's groups to the statistics service's ``Analysis``: numbers, blanks, notes, censoring, counts."""
 
 from __future__ import annotations
 
@@ -8,6 +8,7 @@ from typing import TYPE_CHECKING
 
 from rankwise.readings.censored import censoring_for
 from rankwise.readings.cells import Cell, CellKind
+from rankwise.readings.entry_counts import count_entries
 from rankwise.readings.parse import machine_decimal
 from rankwise.readings.snapshot import RowParts
 from rankwise.wording import pairing as words
@@ -25,7 +26,9 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     statistics drop and count them). Censored readings with one common limit become one stand-in
     value below every measured reading (see ``rankwise.readings.censored``), with a note saying so;
     mixed limits raise ``MixedLimitsError`` unless ``mixed_limits`` (the sheet's setting) is
-    "below-highest", which treats them all as below the highest limit. The notes also list the entries not used, by row.
+    "below-highest", which treats them all as below the highest limit. ``entries`` counts each
+    group's readings, entries not used (by row), empty cells between entries and flagged readings
+    (see ``rankwise.readings.entry_counts``): the count every output shows.
     For the paired question every group is padded with NaN to the longest one, so that readings
     pair up by row and a missing partner shows as a blank in its row.
     ``decimal`` is the sheet's decimal setting; the analysis writes numbers for people with that
@@ -39,6 +42,7 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     length = max((len(column.cells) for column in columns), default=0) if question is Question.PAIRED else 0
     notes: list[str] = []
     groups = []
+    entries = []
     for column in columns:
         values = []
         decimals = None
@@ -59,18 +63,17 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
                 nominal=column.nominal, decimals=decimals,
             )
         )
-        skipped = [(row, cell.text.strip()) for row, cell in enumerate(column.cells) if cell.is_skipped]
-        if skipped:
-            listed = ", ".join(f"row {row + 1} '{text[:30]}'" for row, text in skipped[:10])
-            more = f" and {len(skipped) - 10} more" if len(skipped) > 10 else ""
-            notes.append(f"{column.name}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}.")
+        entries.append(count_entries(
+            column.name, column.cells, lsl=column.lsl, usl=column.usl, unit=column.unit,
+            censored=None if censoring is None else censoring.stands_in_for,
+        ))
     if censoring is not None:
         notes.insert(0, censoring.note)
     groups, question_remarks = question_notes(question, groups, parts or RowParts())
     notes[:0] = question_remarks
     mark = decimal if decimal in (".", ",") else typed_decimal_mark(columns)
     return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes),
-                    decimal_mark=mark)
+                    decimal_mark=mark, entries=tuple(entries))
 
 
 def typed_decimal_mark(columns: Sequence[GroupColumn]) -> str:

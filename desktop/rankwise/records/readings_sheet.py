@@ -5,8 +5,13 @@ from __future__ import annotations
 from openpyxl.utils import get_column_letter
 from openpyxl.worksheet.worksheet import Worksheet
 
+from collections.abc import Sequence
+
 from rankwise.readings import CellKind, SheetSnapshot
+from rankwise.readings.entry_counts import count_entries, reason_not_used
 from rankwise.records.sheet_cells import put, put_paragraph, reading_format, set_print_setup
+from rankwise.stats.analysis import GroupEntries
+from rankwise.wording.entries import CENSORED, NOT_USED, READINGS_USED
 
 SHEET_TITLE = "Readings as entered"
 FIRST_ENTRY_ROW = 12
@@ -19,9 +24,13 @@ LANDSCAPE_FROM = 6
 _DECIMAL_WORDS = {"auto": "recognised automatically", ".": "point", ",": "comma"}
 
 
-def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
+def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot, entries: Sequence[GroupEntries] = ()) -> None:
     """Write every group's cells in entry order: readings as numbers at their typed resolution,
-    everything else as the text that was typed; then the list of entries not used and why."""
+    everything else as the text that was typed; then the list of entries not used and why.
+
+    Each group's counts are those of the analysis (``entries``, the count the verdict shows);
+    a group the analysis did not use is counted from its cells the same way."""
+    counted = {group.name: group for group in entries}
     last_column = max(len(snapshot.groups) + 1, 4)
     sheet.column_dimensions["A"].width = 24
     for index, group in enumerate(snapshot.groups):
@@ -34,8 +43,8 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
                   "Readings exactly as typed or opened; entries that are not readings keep their text.", bold=True)
     put(sheet, 2, 1, "Decimal mark")
     put(sheet, 2, 2, _DECIMAL_WORDS.get(snapshot.decimal, snapshot.decimal))
-    labels = ["Group", "Unit", "Lower limit (LSL)", "Upper limit (USL)", "Nominal", "Readings used",
-              "Entries not used", "Below a detection limit"]
+    labels = ["Group", "Unit", "Lower limit (LSL)", "Upper limit (USL)", "Nominal", READINGS_USED, NOT_USED,
+              CENSORED]
     for offset, label in enumerate(labels):
         put(sheet, 3 + offset, 1, label, bold=True)
     put(sheet, FIRST_ENTRY_ROW - 1, 1, "Entry", bold=True)
@@ -54,10 +63,10 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
         put(sheet, 5, column, group.lsl, limit_format)
         put(sheet, 6, column, group.usl, limit_format)
         put(sheet, 7, column, group.nominal, limit_format)
-        kinds = [cell.kind for cell in group.cells]
-        put(sheet, 8, column, kinds.count(CellKind.NUMBER))
-        put(sheet, 9, column, kinds.count(CellKind.NOTE) + kinds.count(CellKind.INVALID))
-        put(sheet, 10, column, kinds.count(CellKind.CENSORED))
+        count = counted.get(group.name) or count_entries(group.name, group.cells)
+        put(sheet, 8, column, count.readings)
+        put(sheet, 9, column, len(count.not_used))
+        put(sheet, 10, column, count.censored)
         put(sheet, FIRST_ENTRY_ROW - 1, column, group.name, bold=True)
         for row, cell in enumerate(group.cells):
             target = FIRST_ENTRY_ROW + row
@@ -66,7 +75,7 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot) -> None:
             elif cell.kind is not CellKind.EMPTY:
                 put(sheet, target, column, cell.text)
             if cell.kind in (CellKind.NOTE, CellKind.INVALID, CellKind.CENSORED):
-                not_used.append((group.name, row + 1, cell.text, cell.reason or _default_reason(cell.kind)))
+                not_used.append((group.name, row + 1, cell.text, reason_not_used(cell)))
 
     _not_used_table(sheet, FIRST_ENTRY_ROW + longest + 1, last_column, not_used)
     sheet.freeze_panes = sheet.cell(row=FIRST_ENTRY_ROW, column=2)
@@ -86,11 +95,3 @@ def _not_used_table(sheet: Worksheet, row: int, last_column: int, entries: list[
         put(sheet, target, 3, text, indent=True)
         put_paragraph(sheet, target, 4, last_column, reason)
 
-
-def _default_reason(kind: CellKind) -> str:
-    """Why an entry is not a plain reading, when the readings layer gave no reason."""
-    if kind is CellKind.CENSORED:
-        return "below the detection limit; ranked below every measured reading"
-    if kind is CellKind.NOTE:
-        return "a note, not a reading"
-    return "cannot be read as a number"

@@ -77,7 +77,7 @@ def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
     verdict = workbook.active
     verdict.title = VERDICT_TITLE
     fill_verdict_sheet(verdict, record, fingerprint)
-    fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot)
+    fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot, record.analysis.entries)
     fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
     fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
     return workbook

@@ -114,6 +114,45 @@ class Characteristic:
 
 
 @dataclass(frozen=True)
+class Entry:
+    """One entry of a group named in the notes: its row on the sheet, its text, and why it is named.
+
+    Attributes:
+        row: the 1-based row of the readings sheet.
+        text: the entry exactly as typed.
+        remark: plain words: why it is not used, or why it deserves a second look.
+    """
+
+    row: int
+    text: str
+    remark: str
+
+
+@dataclass(frozen=True)
+class GroupEntries:
+    """How one group's entries on the sheet divide up: the single count that screen, workbook and
+    paper all show.
+
+    Attributes:
+        name: the group's name.
+        readings: entries read as readings (measured, or below a detection limit).
+        censored: of those, readings below a detection limit (ranked below every measured reading).
+        not_used: notes and unreadable entries, each once, in row order.
+        empty_between: empty cells between the group's first and last entry (empty cells above
+            the first entry or below the last are not counted).
+        flagged: readings used as typed but worth a second look (a slipped decimal point?
+            outside the limits?), one entry per remark.
+    """
+
+    name: str
+    readings: int
+    censored: int = 0
+    not_used: tuple[Entry, ...] = ()
+    empty_between: int = 0
+    flagged: tuple[Entry, ...] = ()
+
+
+@dataclass(frozen=True)
 class Analysis:
     """A question, the groups of readings it concerns, and the settings.
 
@@ -125,6 +164,8 @@ class Analysis:
     printout write numbers the way the technician typed them; it never changes a computation.
     For the many-characteristics question, ``groups`` holds A and B without readings (their
     names) and ``characteristics`` holds each characteristic's readings.
+    ``entries`` says, per group, how the sheet's entries divided up (readings, notes, empty cells,
+    flagged readings); empty for an analysis built without a sheet.
     """
 
     question: Question
@@ -133,3 +174,4 @@ class Analysis:
     notes: tuple[str, ...] = ()
     decimal_mark: str = "."
     characteristics: tuple[Characteristic, ...] = ()
+    entries: tuple[GroupEntries, ...] = ()

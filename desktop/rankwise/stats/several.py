@@ -74,7 +74,7 @@ def compare_several(
     values = [c[0] for c in cleaned]
     sizes = np.array([v.size for v in values])
     total = int(sizes.sum())
-    warnings = [f"Group {name}: {dropped} blank entries were left out." for name, (_, dropped) in zip(names, cleaned) if dropped]
+    warnings: list[str] = []
 
     grid = find_grid(*values)
     counts = [grid.to_counts(v) for v in values]

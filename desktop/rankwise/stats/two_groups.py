@@ -129,7 +129,7 @@ def compare_two(
     prob_b_greater = u_b / (n_a * n_b)
     min_parts = smallest_equal_size(alpha, alternative) if critical.u is None else None
     warnings = _warnings(
-        name_a, name_b, n_a, n_b, dropped_a, dropped_b, values_a, values_b, tie_blocks, alpha,
+        name_a, name_b, n_a, n_b, values_a, values_b, tie_blocks, alpha,
         alternative, critical.u, exact, use_exact, shift_ci, companions[0],
     )
     return TwoGroupResult(
@@ -362,15 +362,12 @@ def _companions(values_a: np.ndarray, values_b: np.ndarray, alternative: str):
     )
 
 
-def _warnings(name_a, name_b, n_a, n_b, dropped_a, dropped_b, values_a, values_b,
+def _warnings(name_a, name_b, n_a, n_b, values_a, values_b,
               tie_blocks: tuple[TieBlock, ...], alpha, alternative, critical_u, exact, use_exact,
               shift_ci, shape_check) -> tuple[str, ...]:
     """Plain-words notes, naming the groups."""
     notes = []
     level = f"{alpha * 100:g}%"
-    for name, dropped in ((name_a, dropped_a), (name_b, dropped_b)):
-        if dropped:
-            notes.append(f"{dropped} blank {'entry' if dropped == 1 else 'entries'} in {name} {'was' if dropped == 1 else 'were'} skipped.")
     if max(values_a.max(), values_b.max()) == min(values_a.min(), values_b.min()):
         notes.append(f"All readings of {name_a} and {name_b} are the same value; the ranks cannot show any difference.")
     for name, n in ((name_a, n_a), (name_b, n_b)):

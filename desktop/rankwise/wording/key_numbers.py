@@ -28,6 +28,7 @@ from rankwise.wording.numbers import (
     format_plain,
     format_setting,
 )
+from rankwise.wording import entries
 from rankwise.wording.planning import plan_names
 from rankwise.wording.phrases import EXACT_METHOD, NORMAL_METHOD
 from rankwise.wording.questions import decimals_of, in_typed_mark, unit_of, with_unit
@@ -86,14 +87,23 @@ def _p(key: str, label: str, p: float | None, tooltip: str, alpha: float | None 
     return _number(key, label, format_p(p, alpha), tooltip, p)
 
 
-def _summary(tag: str, summary: GroupSummary, formats: _Formats) -> Iterator[KeyNumber]:
-    """Parts, blanks, median and quartiles of one group."""
+def _summary(tag: str, summary: GroupSummary, formats: _Formats, analysis: Analysis) -> Iterator[KeyNumber]:
+    """Counts (as ``rankwise.wording.entries`` words them), median and quartiles of one group."""
     name = summary.name
-    yield _count(f"n_{tag}", f"Readings used, {name}", summary.n,
-                 f"How many readings of {name} went into the test; blanks and notes are not counted.")
-    if summary.n_dropped:
-        yield _count(f"n_dropped_{tag}", f"Blanks left out, {name}", summary.n_dropped,
-                     f"Empty or unreadable entries of {name} that were left out and counted.")
+    yield _count(f"n_{tag}", f"{entries.READINGS_USED}, {name}", summary.n,
+                 entries.READINGS_USED_TIP.format(name=name))
+    counted = entries.entries_of(analysis, name)
+    if counted is None:
+        if summary.n_dropped:
+            yield _count(f"n_dropped_{tag}", f"Entries without a reading, {name}", summary.n_dropped,
+                         entries.NO_READING_TIP.format(name=name))
+    else:
+        for key, label, count, tip in (
+                ("n_censored", entries.CENSORED, counted.censored, entries.CENSORED_TIP),
+                ("n_not_used", entries.NOT_USED, len(counted.not_used), entries.NOT_USED_TIP),
+                ("n_empty", entries.EMPTY_BETWEEN, counted.empty_between, entries.EMPTY_BETWEEN_TIP)):
+            if count:
+                yield _count(f"{key}_{tag}", f"{label}, {name}", count, tip.format(name=name))
     yield _number(f"median_{tag}", f"Median, {name}", formats.centre(summary.median),
                   f"The middle reading of {name}: half the readings are at or below it.", summary.median)
     yield _number(f"q1_{tag}", f"Lower quartile, {name}", formats.centre(summary.q1),
@@ -170,8 +180,8 @@ def _equivalence(r: TwoGroupResult | PairedResult, formats: _Formats, what: str,
 def _two_groups(r: TwoGroupResult, analysis: Analysis) -> Iterator[KeyNumber]:
     f = _Formats(analysis)
     a, b = r.name_a, r.name_b
-    yield from _summary("a", r.summary_a, f)
-    yield from _summary("b", r.summary_b, f)
+    yield from _summary("a", r.summary_a, f, analysis)
+    yield from _summary("b", r.summary_b, f, analysis)
     yield _count("rank_sum_a", f"Rank sum, {a}", r.rank_sum_a,
                  f"All readings are ranked together, lowest first; this adds up the ranks of {a}.")
     yield _count("rank_sum_b", f"Rank sum, {b}", r.rank_sum_b,
@@ -262,7 +272,7 @@ def _paired(r: PairedResult, analysis: Analysis) -> Iterator[KeyNumber]:
 def _several(r: SeveralGroupsResult, analysis: Analysis) -> Iterator[KeyNumber]:
     f = _Formats(analysis)
     for index, (summary, mean_rank) in enumerate(zip(r.summaries, r.mean_ranks), start=1):
-        yield from _summary(str(index), summary, f)
+        yield from _summary(str(index), summary, f, analysis)
         yield _count(f"mean_rank_{index}", f"Average rank, {summary.name}", mean_rank,
                      f"All readings are ranked together, lowest first; the average rank of {summary.name}.")
     yield _number("h", "Kruskal-Wallis H", format_plain(r.h),

@@ -6,6 +6,7 @@ import math
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairedResult
+from rankwise.wording.entries import entry_notes
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
     b_reads_higher,
@@ -112,11 +113,9 @@ def _method_note(result: PairedResult) -> str:
 
 
 def _assumption_notes(result: PairedResult, analysis: Analysis) -> tuple[str, ...]:
-    """Pairing, zeros, incomplete pairs, warnings and the readings' own notes."""
+    """Pairing, zeros, warnings (incomplete pairs by row among them) and the readings' own notes and counts."""
     notes = [PAIRING_NOTE]
     if result.n_zero:
         kept = "left out of the ranking" if result.zero_method == "wilcox" else "kept in the ranking (Pratt)"
         notes.append(f"{result.n_zero} of {result.n_pairs} parts read the same both times; they were {kept}.")
-    if result.n_dropped:
-        notes.append(f"{result.n_dropped} incomplete pairs (a reading missing on one side) were left out.")
-    return with_warnings(notes, result.warnings, analysis.notes)
+    return with_warnings([*analysis.notes, *entry_notes(analysis)], notes, result.warnings)

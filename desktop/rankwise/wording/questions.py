@@ -34,10 +34,11 @@ def decimals_of(analysis: Analysis) -> int | None:
 
 def typed_texts(analysis: Analysis) -> tuple[str, ...]:
     """The texts the technician typed that a verdict quotes (names, units, the characteristic, the
-    readings' notes): written as typed, whatever the decimal mark of the numbers around them."""
+    readings' notes, the entries the notes quote): written as typed, whatever the decimal mark of the numbers around them."""
     groups = analysis.groups
     return (*(g.name for g in groups), *(g.unit for g in groups), *group_names(analysis),
-            analysis.settings.characteristic, analysis.settings.reference or "", *analysis.notes)
+            analysis.settings.characteristic, analysis.settings.reference or "", *analysis.notes,
+            *(entry.text for group in analysis.entries for entry in (*group.not_used, *group.flagged)))
 
 
 def in_typed_mark(text: str, analysis: Analysis) -> str:

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import PairComparison, SeveralGroupsResult
+from rankwise.wording.entries import dropped_notes, entry_notes
 from rankwise.wording.numbers import format_plain
 from rankwise.wording.phrases import level_phrase, p_phrase, with_warnings
 from rankwise.wording.verdict_types import Verdict, cautioned_verdict
@@ -64,4 +65,5 @@ def _assumption_notes(result: SeveralGroupsResult, analysis: Analysis) -> tuple[
     if result.mood_median is not None:
         notes.append(f"Mood's median test (counts above the overall median; not Mood's test of "
                      f"spread) gives {p_phrase(result.mood_median.p_value, result.alpha)}.")
-    return with_warnings(notes, result.warnings, analysis.notes)
+    return with_warnings([*analysis.notes, *entry_notes(analysis), *dropped_notes(analysis, result.summaries)],
+                         notes, result.warnings)

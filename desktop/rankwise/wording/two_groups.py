@@ -6,6 +6,7 @@ import math
 
 from rankwise.stats.analysis import Analysis
 from rankwise.stats.results import TwoGroupResult
+from rankwise.wording.entries import dropped_notes, entry_notes
 from rankwise.wording.numbers import format_level, format_percent
 from rankwise.wording.phrases import (
     NOT_SAMENESS,
@@ -168,4 +169,5 @@ def _assumption_notes(result: TwoGroupResult, analysis: Analysis) -> tuple[str, 
             f"With these group sizes the exact test is cautious: its true significance level is "
             f"{format_level(result.attained_alpha)} rather than {format_level(result.alpha)}."
         )
-    return with_warnings(notes, result.warnings, analysis.notes)
+    return with_warnings([*analysis.notes, *entry_notes(analysis), *dropped_notes(analysis, (result.summary_a, result.summary_b))],
+                         notes, result.warnings)

@@ -10,9 +10,10 @@ from rankwise.records.signoff import SignOff
 from rankwise.stats import PairedResult, PlanResult, SeveralGroupsResult, TwoGroupResult
 from rankwise.ui.charts.readings_view import ReadingsView, readings_view
 from rankwise.wording import QUESTION_TITLES, KeyNumber, Verdict, describe, describe_question, key_numbers
+from rankwise.wording.entries import count_cell
 from rankwise.wording.numbers import format_count, with_mark
 
-PER_GROUP_KEY = re.compile(r"^(n|n_dropped|median|q1|q3|rank_sum|mean_rank)_(a|b|\d+)$")
+PER_GROUP_KEY = re.compile(r"^(n|n_dropped|n_censored|n_not_used|n_empty|median|q1|q3|rank_sum|mean_rank)_(a|b|\d+)$")
 """Key numbers that the page shows in its groups table instead of the key-number list."""
 
 KEY_PRIORITY = (
@@ -85,7 +86,7 @@ def _measured_line(view: ReadingsView | None, analysis) -> str:
     return " · ".join(parts)
 
 
-def _group_rows(result, view: ReadingsView | None) -> tuple[tuple[GroupRow, ...], str]:
+def _group_rows(result, analysis, view: ReadingsView | None) -> tuple[tuple[GroupRow, ...], str]:
     """Rows of the groups table and the heading of its rank column."""
     if view is None:
         return (), ""
@@ -99,11 +100,10 @@ def _group_rows(result, view: ReadingsView | None) -> tuple[tuple[GroupRow, ...]
         return (), ""
     rows = []
     for index, (summary, rank) in enumerate(zip(summaries, ranks)):
-        dropped = f" (+{summary.n_dropped} blank)" if summary.n_dropped else ""
         rows.append(GroupRow(
             index=index,
             name=summary.name,
-            n=f"{summary.n}{dropped}",
+            n=count_cell(summary, analysis),
             median=view.format(summary.median),
             quartiles=f"{view.format(summary.q1)} – {view.format(summary.q3)}",
             ranks="" if rank is None else (format_count(rank, mark=view.decimal_mark) if heading == "rank sum"
@@ -134,9 +134,9 @@ def gather(record, fingerprint: str) -> PageContent:
     analysis, result = record.analysis, record.result
     verdict = describe(result, analysis)
     view = readings_view(result, analysis)
-    groups, ranks_heading = _group_rows(result, view)
+    groups, ranks_heading = _group_rows(result, analysis, view)
     title = analysis.settings.characteristic.strip() or QUESTION_TITLES[analysis.question]
-    notes = (verdict.method_note, *verdict.assumption_notes, *analysis.notes)
+    notes = dict.fromkeys((verdict.method_note, *verdict.assumption_notes, *analysis.notes))
     return PageContent(
         title=title,
         question=describe_question(analysis),

@@ -18,6 +18,7 @@ from rankwise.ui.charts import style
 from rankwise.ui.printing.page_chart import draw_marker, draw_power_curve, draw_readings
 from rankwise.ui.printing.page_content import PageContent
 from rankwise.ui.printing.page_text import Paragraph, line_height, one_line, page_font
+from rankwise.wording.entries import READINGS_USED
 
 RULE_COLOUR = "#8C8C8C"
 ACCENT_COLOUR = "#0072B2"
@@ -176,7 +177,7 @@ class _Composer:
             return y
         y += self.pt(4)
         row_height = line_height(self.fonts["small"], self.device) * 1.18
-        columns = (("Group", 0.42), ("n", 0.16), ("median", 0.12), ("quartiles", 0.16),
+        columns = (("Group", 0.30), (READINGS_USED.lower(), 0.28), ("median", 0.12), ("quartiles", 0.16),
                    (c.ranks_heading, 0.14))
         lefts, position = [], x
         for _, share in columns:
