@@ -19,7 +19,7 @@ _CHILD = r"""
 import json, resource, sys
 import numpy, pandas, python_calamine
 from rankwise.readings import ReadingsError, open_readings
-import rankwise.readings.open, rankwise.readings.open_xlsx, rankwise.readings.workbook_check
+import rankwise.readings.open
 pages = int(open("/proc/self/statm").read().split()[0])
 limit = pages * resource.getpagesize() + int(sys.argv[1])
 resource.setrlimit(resource.RLIMIT_AS, (limit, limit))

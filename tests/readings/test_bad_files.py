@@ -235,3 +235,52 @@ def test_zip_of_an_unsupported_version(tmp_path):
     path = tmp_path / "version.xlsx"
     path.write_bytes(bytes(data))
     refused(path, "damaged")
+
+
+def test_a_field_longer_than_the_csv_module_takes_is_refused(tmp_path, unchanged):
+    """Python's csv module refuses fields over 131,072 characters (csv.field_size_limit(), Python docs)."""
+    path = tmp_path / "long.csv"
+    path.write_text("A;B\n1,5;" + "9" * 140_000 + "\n2,5;3\n")
+    refused(unchanged(path), "holds a cell of more than 131,072 characters")
+    deep = tmp_path / "deep.csv"
+    deep.write_text("A;B\n" + "".join(f"{i},5;{i}\n" for i in range(400)) + "1,5;" + "9" * 140_000 + "\n")
+    refused(unchanged(deep), "more than 131,072 characters|far too long")
+
+
+def test_a_table_wider_than_a_readings_export_is_refused(tmp_path):
+    path = tmp_path / "wide.csv"
+    path.write_text(",".join(f"G{j}" for j in range(1_200)) + "\n" + ",".join("1.5" for _ in range(1_200)) + "\n")
+    refused(path, "has 1,200 columns, more than a readings export holds")
+
+
+def test_unique_column_titles_for_sixty_thousand_repeats():
+    """Repeated titles get "(2)", "(3)"...; made in one pass (sixty thousand once took two minutes)."""
+    from rankwise.readings.layout import unique_headers
+
+    names = unique_headers(["X"] * 60_000 + ["X (2)", ""], 60_002)
+    assert names[:3] == ("X", "X (2)", "X (3)")
+    assert names[59_999] == "X (60000)"
+    assert names[60_000] == "X (2) (2)"
+    assert names[60_001] == "Column 60002"
+    assert len(set(names)) == len(names)
+
+
+def test_too_many_lines_are_refused_before_reading(tmp_path, monkeypatch):
+    from rankwise.readings import open_csv
+
+    monkeypatch.setattr(open_csv, "MAX_ROWS", 1_000)
+    path = tmp_path / "many.csv"
+    path.write_text("A\n" + "1.5\n" * 2_000)
+    refused(path, "has more than 1,000 lines")
+
+
+def test_numbers_too_small_or_large_deep_in_a_big_file_are_flagged(tmp_path):
+    """Past the sample a number-only column is read by pandas, which would make 2e-400 a 0.0 (and 1e309 inf)."""
+    lines = [f"{i % 50 / 10}" for i in range(600)]
+    lines[400], lines[500] = "2e-400", "1e309"
+    path = tmp_path / "deep.csv"
+    path.write_text("Reading\n" + "\n".join(lines) + "\n")
+    result = open_readings(path)
+    (group,) = result.groups
+    assert group.values.size == 598
+    assert {(s.row, s.text) for s in group.skipped} == {(402, "2e-400"), (502, "1e309")}

@@ -184,6 +184,10 @@ def _workbook_table(path: Path, sheet: str | int | None, decimal: str) -> _Table
     head_rows = read.rows[:SAMPLE_ROWS]
     typed = [[open_xlsx.is_stored_number(v) for v in row] for row in head_rows]
     texts = [[open_xlsx.value_text(v) for v in row] for row in head_rows]
+    for row, marks in zip(texts, typed):  # blank cells right of the last entry are not columns
+        while row and row[-1] == "":
+            row.pop()
+            marks.pop()
     if decimal == "auto":
         typed_texts = [t for row, marks in zip(texts, typed) for t, m in zip(row, marks) if t and not m]
         decimal, note = guess_decimal(typed_texts)
@@ -219,6 +223,12 @@ def _read_groups(
     path: Path, table: _Table, layout: str, value_column: object, group_column: str | int | None
 ) -> ReadingSet:
     """Find the table's shape and layout in the sample, load the columns needed, and build the groups."""
+    width = max((len(row) for row in table.rows), default=0)
+    if width > open_csv.MAX_COLUMNS:
+        raise ReadingsError(
+            f"'{path.name}' has {width:,} columns, more than a readings export holds (at most "
+            f"{open_csv.MAX_COLUMNS:,}); check that this is the right file, or export only the columns you need."
+        )
     shape = find_shape(table.rows, table.numeric)
     if shape is None:
         width = max((len(row) for row in table.rows), default=0)
@@ -230,11 +240,6 @@ def _read_groups(
             f"'{path.name}' holds no readings: no column has numbers in it; check that this is the right export."
         )
     headers = shape.headers
-    if len(headers) > open_csv.MAX_COLUMNS:
-        raise ReadingsError(
-            f"'{path.name}' has {len(headers):,} columns, more than a spreadsheet sheet can hold "
-            f"({open_csv.MAX_COLUMNS:,}); check that this is the right file."
-        )
     if value_column is None:
         values = None
     elif isinstance(value_column, (str, int)):

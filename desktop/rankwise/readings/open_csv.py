@@ -31,8 +31,8 @@ MAX_TEXT_BYTES = 1 << 30
 """A text file larger than this (1 GiB) is not a readings export."""
 MAX_ROWS = 5_000_000
 """A text file with more lines than this is not a readings export (a spreadsheet holds 1,048,576 rows)."""
-MAX_COLUMNS = 16_384
-"""A table with more columns than a spreadsheet sheet can have (XFD) is not a readings export."""
+MAX_COLUMNS = 1_000
+"""A table wider than this is not a readings export (each column would be looked at as a possible group)."""
 
 DELIMITERS = (";", "\t", "|", ",")
 """Candidate separators, in order of preference when they split the lines equally well."""
