@@ -141,3 +141,14 @@ def test_the_analysis_comes_from_the_readings_as_entered():
     rebuilt = analysis_from_snapshot(snapshot, ["Mass", "Runout"], "old die", "new die",
                                      margins=[item.margin for item in analysis.characteristics])
     assert rebuilt == analysis
+
+
+def test_only_the_many_characteristics_demo_suggests_that_question():
+    """The other demo files keep their own questions (one characteristic each)."""
+    from rankwise.readings import open_readings
+
+    demo = DEMO.parent
+    suggested = {path.name: open_readings(path).suggested_question
+                 for path in sorted(demo.iterdir()) if path.suffix in (".csv", ".xlsx")}
+    assert suggested.pop("housing_two_dies.csv") is Question.CHARACTERISTICS
+    assert Question.CHARACTERISTICS not in suggested.values()

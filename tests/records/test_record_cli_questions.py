@@ -15,13 +15,14 @@ from rankwise.readings import open_readings
 from rankwise.records import read_record, verify_record
 from rankwise.records.cli import add_record_commands, run_report
 from rankwise.stats.analysis import Question
-from rankwise.stats.results import PairedResult, SeveralGroupsResult, TwoGroupResult
+from rankwise.stats.results import CharacteristicsResult, PairedResult, SeveralGroupsResult, TwoGroupResult
 
 ROOT = Path(__file__).resolve().parents[2]
 DEMO = ROOT / "demo_files"
 COATING = DEMO / "coating_before_after_cure.csv"
 PRESSES = DEMO / "push_out_force_three_presses.xlsx"
-RESULT_TYPES = {Question.TWO_GROUPS: TwoGroupResult, Question.PAIRED: PairedResult, Question.SEVERAL: SeveralGroupsResult}
+RESULT_TYPES = {Question.TWO_GROUPS: TwoGroupResult, Question.PAIRED: PairedResult, Question.SEVERAL: SeveralGroupsResult,
+                Question.CHARACTERISTICS: CharacteristicsResult}
 
 
 def report(*words):

@@ -23,8 +23,12 @@ QUESTIONS = {
 }
 
 
+MANY_CHARACTERISTICS = {"housing_two_dies.csv"}
+"""Opened by open_characteristics; written, reopened and verified in test_characteristics_record.py."""
+
+
 def test_every_demo_file_is_covered():
-    assert set(QUESTIONS) == {p.name for p in DEMO.iterdir() if p.suffix in (".csv", ".xlsx")}
+    assert set(QUESTIONS) | MANY_CHARACTERISTICS == {p.name for p in DEMO.iterdir() if p.suffix in (".csv", ".xlsx")}
 
 
 @pytest.mark.parametrize("name", sorted(QUESTIONS))

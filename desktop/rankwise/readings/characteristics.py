@@ -262,33 +262,19 @@ def open_characteristics(
     rows, sheet_name, typed_decimal = _all_rows(path, sheet, encoding)
     if decimal == "auto":
         decimal = typed_decimal or guess_decimal([t for row in rows[:200] for t in row if t])[0]
-    width = max((len(row) for row in rows), default=0)
-    rows = [list(row) + [""] * (width - len(row)) for row in rows]
-    kinds = [_spec_key(row) for row in rows]
-    first = next((i for i, row in enumerate(rows) if kinds[i] is None and any(is_number_text(t) for t in row)), None)
-    if first is None:
-        raise ReadingsError(f"'{path.name}' holds no rows of readings: no row has a number in it.")
-    header_row = next((i for i in range(first - 1, -1, -1) if kinds[i] is None and any(t.strip() for t in rows[i])), None)
-    if header_row is None:
-        raise ReadingsError(f"'{path.name}' has no row of column titles above the readings; add one naming each column.")
-    headers = [t.strip() or f"column {j + 1}" for j, t in enumerate(rows[header_row])]
-    spec_rows = {kinds[i]: rows[i] for i in range(len(rows)) if kinds[i] is not None and i != header_row}
-    data_rows = [(i, row) for i, row in enumerate(rows[header_row + 1:], start=header_row + 1)
-                 if kinds[i] is None and any(t.strip() for t in row)]
-    process = _process_column(headers, data_rows, by, path)
-    part = _part_column(headers, data_rows, process)
+    found = _find_layout(rows, by, path.name)
+    rows, header_row, headers, spec_rows, data_rows, process, part = found
     notes = []
     if header_row > 0:
         notes.append(f"Rows 1 to {header_row} above the column titles were read as a title block.")
     columns = []
-    cache: dict[str, tuple[float, int | None, str]] = {}
+    cache: dict[str, Cell] = {}
     for j, header in enumerate(headers):
         if j in (process, part):
             continue
         texts = [row[j].strip() for _, row in data_rows]
-        filled = [t for t in texts if t]
-        if not filled or sum(is_number_text(t) for t in filled) < 0.5 * len(filled):
-            if filled:
+        if not _holds_readings(texts):
+            if any(texts):
                 notes.append(f"Column '{header}' holds text, not readings; it is not compared.")
             continue
         columns.append(_characteristic(header, texts, data_rows, spec_rows, j, decimal, cache))
@@ -311,6 +297,45 @@ def open_characteristics(
         characteristics=tuple(columns), decimal=decimal, first_row=data_rows[0][0] + 1 if data_rows else 0,
         notes=tuple(notes),
     )
+
+
+def looks_like_characteristics(rows: Sequence[Sequence[str]]) -> bool:
+    """True when these rows (a file's first rows, as texts) hold one row per part with a process
+    column and two or more columns of readings: the many-characteristics question fits them."""
+    try:
+        _, _, headers, _, data_rows, process, part = _find_layout(rows, None, "")
+    except ReadingsError:
+        return False
+    labels = {row[process].strip() for _, row in data_rows} - {""}
+    numeric = sum(_holds_readings([row[j].strip() for _, row in data_rows])
+                  for j in range(len(headers)) if j not in (process, part))
+    return len(labels) >= 2 and numeric >= 2
+
+
+def _find_layout(rows: Sequence[Sequence[str]], by: str | None, name: str):
+    """Rows padded to one width, the title row, the titles, the limit rows by kind, the part rows
+    (file row index, cells), the process column and the part column (or None)."""
+    width = max((len(row) for row in rows), default=0)
+    rows = [list(row) + [""] * (width - len(row)) for row in rows]
+    kinds = [_spec_key(row) for row in rows]
+    first = next((i for i, row in enumerate(rows) if kinds[i] is None and any(is_number_text(t) for t in row)), None)
+    if first is None:
+        raise ReadingsError(f"'{name}' holds no rows of readings: no row has a number in it.")
+    header_row = next((i for i in range(first - 1, -1, -1) if kinds[i] is None and any(t.strip() for t in rows[i])), None)
+    if header_row is None:
+        raise ReadingsError(f"'{name}' has no row of column titles above the readings; add one naming each column.")
+    headers = [t.strip() or f"column {j + 1}" for j, t in enumerate(rows[header_row])]
+    spec_rows = {kinds[i]: rows[i] for i in range(len(rows)) if kinds[i] is not None and i != header_row}
+    data_rows = [(i, row) for i, row in enumerate(rows[header_row + 1:], start=header_row + 1)
+                 if kinds[i] is None and any(t.strip() for t in row)]
+    process = _process_column(headers, data_rows, by, name)
+    return rows, header_row, headers, spec_rows, data_rows, process, _part_column(headers, data_rows, process)
+
+
+def _holds_readings(texts: Sequence[str]) -> bool:
+    """At least one filled cell, and numbers in at least half of the filled ones."""
+    filled = [t for t in texts if t]
+    return bool(filled) and sum(is_number_text(t) for t in filled) >= 0.5 * len(filled)
 
 
 def _all_rows(path: Path, sheet: str | int | None, encoding: str | None) -> tuple[list[list[str]], str, str]:
@@ -347,7 +372,7 @@ def _spec_key(row: Sequence[str]) -> str | None:
     return None
 
 
-def _process_column(headers: list[str], data_rows: list, by: str | None, path: Path) -> int:
+def _process_column(headers: list[str], data_rows: list, by: str | None, name: str) -> int:
     """The column naming the process: ``by``, else a text column of a few repeated labels."""
     if by is not None:
         folded = [h.casefold() for h in headers]
@@ -363,7 +388,7 @@ def _process_column(headers: list[str], data_rows: list, by: str | None, path: P
             candidates.append((not _PROCESS_HEADER.search(header), j))
     if not candidates:
         raise ReadingsError(
-            f"'{path.name}' has no column naming the process (a column with a few labels such as 'old die' and "
+            f"'{name}' has no column naming the process (a column with a few labels such as 'old die' and "
             "'new die', each on several rows); add one, or name it with --by."
         )
     return min(candidates)[1]

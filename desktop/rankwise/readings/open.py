@@ -27,10 +27,13 @@ from rankwise.readings.layout import (
     name_without_unit,
     unit_in_header,
 )
-from rankwise.readings.same_parts import pair_by_part, suggest
+from rankwise.readings.characteristics import looks_like_characteristics
+from rankwise.readings.same_parts import Suggestion, pair_by_part, suggest
 from rankwise.readings.parse import check_decimal
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet, SourceInfo
 from rankwise.readings.title_block import TitleBlockDetails, read_title_block
+from rankwise.stats.analysis import Question
+from rankwise.wording.characteristics import CHARACTERISTICS_FOUND
 
 PREVIEW_ROWS = 20
 """Rows of the file shown in the open dialog's preview."""
@@ -280,6 +283,8 @@ def _read_groups(
     if part_column is not None:
         pairing, problem = pair_by_part(groups, headers[part_column], first_row_number)
     suggestion = suggest(groups, pairing)
+    if pairing is None and looks_like_characteristics(table.rows):
+        suggestion = Suggestion(Question.CHARACTERISTICS, CHARACTERISTICS_FOUND)
     if problem:
         notes.append(problem)
     source = SourceInfo(

@@ -13,6 +13,7 @@ from datetime import datetime
 from pathlib import Path
 
 from rankwise.readings import CellKind, ReadingSheet, ReadingsError, open_readings, parse_reading
+from rankwise.records.characteristics_cli import add_characteristics_options, run_characteristics_report
 from rankwise.records.errors import RecordError
 from rankwise.records.record import ResultRecord, fingerprint
 from rankwise.records.signoff import SignOff, Signature
@@ -23,7 +24,8 @@ from rankwise.stats.analysis import ALTERNATIVES, Question, Settings
 from rankwise.stats.service import run
 from rankwise.wording import CAUTION_SHORT, QUESTION_TITLES, describe
 
-REPORT_QUESTIONS = (Question.TWO_GROUPS.value, Question.PAIRED.value, Question.SEVERAL.value)
+REPORT_QUESTIONS = (Question.TWO_GROUPS.value, Question.PAIRED.value, Question.SEVERAL.value,
+                    Question.CHARACTERISTICS.value)
 """The questions ``report`` answers (planning is asked in the window)."""
 PAPER_SIZES = {"a4": "A4", "letter": "Letter"}
 """``--paper`` choices and the page size each one draws."""
@@ -84,7 +86,9 @@ def add_record_commands(subparsers: argparse._SubParsersAction) -> None:
                              "paired: did the same parts read differently the second time? (before / after, "
                              "paired by the file's part column)  several: do three or more groups read alike?  "
                              "(default: the question the file suggests: paired when its parts are measured "
-                             "twice, several for three or more groups, else two-groups)")
+                             "twice, several for three or more groups, else two-groups)  characteristics: did "
+                             "the change move any characteristic? (one row per part, a process column, one "
+                             "column per characteristic; see --by, --characteristics, --adjust)")
     report.add_argument("--alternative", choices=ALTERNATIVES, default="two-sided",
                         help="two-sided: does B differ from A?  b-greater: does B read higher?  "
                              "b-less: does B read lower? For the same parts, B is the second reading "
@@ -104,6 +108,8 @@ def add_record_commands(subparsers: argparse._SubParsersAction) -> None:
     report.add_argument("--force", action="store_true",
                         help="replace RESULT.xlsx or VERDICT.pdf when it already exists (even a signed record); "
                              "the readings file is never written over, and a PDF never over a record")
+
+    add_characteristics_options(report)
 
     verify = subparsers.add_parser(
         "verify",
@@ -143,6 +149,8 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
     refused = refusal(args.input, targets, replace=args.force)
     if refused is not None:
         return _problem(refused)
+    if args.question == Question.CHARACTERISTICS.value:
+        return run_characteristics_report(args, render_pdf, _problem)
     try:
         reading_set = open_readings(args.input)
     except ReadingsError as error:
@@ -150,6 +158,8 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
     except Exception as error:  # noqa: BLE001 - any other failure of a reader still gets a plain answer and exit 2
         return _problem(f"'{args.input.name}' could not be read as readings ({type(error).__name__}); check that it is "
                         "a CSV or XLSX export of readings, or open it in a spreadsheet program and save it again.")
+    if args.question is None and reading_set.suggested_question is Question.CHARACTERISTICS:
+        return run_characteristics_report(args, render_pdf, _problem)
     try:
         sheet = ReadingSheet.from_reading_set(reading_set)
         question = _question(args, reading_set)

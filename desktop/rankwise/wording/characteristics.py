@@ -13,6 +13,10 @@ from rankwise.stats.results import CharacteristicRow, CharacteristicsResult
 from rankwise.wording.numbers import MISSING, format_centre, format_level, format_p, format_percent
 from rankwise.wording.verdict_types import KeyNumber, Verdict, cautioned_verdict
 
+CHARACTERISTICS_FOUND = ("One row per part, a column naming the process and a column per characteristic: "
+                         "the processes can be compared on every characteristic at once.")
+"""What the open dialog says when a file fits the many-characteristics question."""
+
 MOVED_UP, MOVED_DOWN = "moved up", "moved down"
 NO_CHANGE, SAME_WITHIN = "no change shown", "same within the margin"
 """The plain-words outcomes of one characteristic."""
