@@ -222,6 +222,8 @@ def analysis_from_snapshot(
         a, b = (dataclasses.replace(g, name=p) for g, p in zip(built.groups, (group_a, group_b)))
         items.append(Characteristic(name=name, a=a, b=b, margin=margins[index]))
         all_notes.extend(built.notes)
+        all_notes.extend(_not_used_note(name, process, group.cells) for group, process in zip(pair, (group_a, group_b))
+                         if any(cell.is_skipped for cell in group.cells))
     return Analysis(
         question=Question.CHARACTERISTICS,
         groups=(GroupReadings(group_a, ()), GroupReadings(group_b, ())),
@@ -230,6 +232,14 @@ def analysis_from_snapshot(
         decimal_mark=snapshot.decimal if snapshot.decimal in (".", ",") else ".",
         characteristics=tuple(items),
     )
+
+
+def _not_used_note(name: str, process: str, cells: Sequence[Cell]) -> str:
+    """Which entries of one characteristic and process are not readings, by entry number, as typed."""
+    skipped = [(row + 1, cell.text.strip()) for row, cell in enumerate(cells) if cell.is_skipped]
+    listed = ", ".join(f"entry {row} '{text[:30]}'" for row, text in skipped[:10])
+    more = f" and {len(skipped) - 10} more" if len(skipped) > 10 else ""
+    return f"{name}, {process}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}."
 
 
 @dataclass
