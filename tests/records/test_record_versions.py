@@ -210,10 +210,14 @@ def test_the_listing_holds_values_in_canonical_text_and_leaves_out_the_fingerpri
         ["B1", "date", "2026-11-30T14:05:09", "yyyy-mm-dd hh:mm:ss"],
         ["A2", "number", "3.0", "General"],
         ["C3", "text", "µm, as typed", "General"],
-    ]}]
+    ], "look": {"state": "visible", "protected": False, "hidden_rows": [], "hidden_columns": [],
+                "unreadable_cells": []}}]
     assert listing["fingerprint_cell"] == ["One", "D4"]
     assert unpack_listing(pack_listing(listing)) == listing
-    for damaged in (["not base64!"], [""], pack_listing({"listing_format": 2, "sheets": []})):
+    form_1 = {**listing, "listing_format": 1, "sheets": [{"title": "One", "cells": listing["sheets"][0]["cells"]}]}
+    assert unpack_listing(pack_listing(form_1)) == form_1  # records written before looks were listed
+    for damaged in (["not base64!"], [""], pack_listing({"listing_format": 3, "sheets": []}),
+                    pack_listing({**listing, "sheets": [{"title": "One", "cells": []}]})):
         assert unpack_listing(damaged) is None
     with pytest.raises(ValueError, match="fingerprint_stand_in must be in exactly one cell"):
         sheet_listing(book.worksheets, "no such text")

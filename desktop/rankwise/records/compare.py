@@ -1,15 +1,13 @@
-"""Cell-by-cell and value-by-value comparison, reported in plain words."""
+"""Value-by-value comparison of stored data, reported in plain words; a workbook as a file gives it back."""
 
 from __future__ import annotations
 
 import io
 import math
 from collections.abc import Iterator
-from datetime import datetime
 from typing import Any
 
 from openpyxl import Workbook, load_workbook
-from openpyxl.worksheet.worksheet import Worksheet
 from openpyxl.writer.excel import save_workbook
 
 
@@ -19,41 +17,6 @@ def saved_and_reloaded(workbook: Workbook) -> Workbook:
     save_workbook(workbook, buffer)
     buffer.seek(0)
     return load_workbook(buffer)
-
-
-def _shown(value: Any) -> str:
-    """A cell's value for a message."""
-    if value is None or value == "":
-        return "(empty)"
-    if isinstance(value, datetime):
-        return value.isoformat(sep=" ")
-    return repr(value) if isinstance(value, str) else str(value)
-
-
-def sheet_differences(expected: Worksheet, actual: Worksheet) -> Iterator[str]:
-    """Every cell whose value or number format differs between two sheets, in plain words."""
-    rows = max(expected.max_row, actual.max_row)
-    columns = max(expected.max_column, actual.max_column)
-    for row in range(1, rows + 1):
-        for column in range(1, columns + 1):
-            want = expected.cell(row=row, column=column)
-            got = actual.cell(row=row, column=column)
-            if want.value != got.value:
-                yield value_changed(actual.title, got.coordinate, want.value, got.value)
-            elif want.value is not None and want.number_format != got.number_format:
-                yield format_changed(actual.title, got.coordinate, want.number_format, got.number_format)
-
-
-def value_changed(title: str, coordinate: str, signed: Any, now: Any) -> str:
-    """Plain words for a cell whose value differs from what was signed."""
-    return (f"Sheet '{title}', cell {coordinate}: the signed data give "
-            f"{_shown(signed)}, the sheet now shows {_shown(now)}.")
-
-
-def format_changed(title: str, coordinate: str, signed_format: str, format_now: str) -> str:
-    """Plain words for a cell whose value is shown differently from when it was signed."""
-    return (f"Sheet '{title}', cell {coordinate}: the way the value is shown was "
-            f"changed from '{signed_format}' to '{format_now}'.")
 
 
 def data_differences(stored: Any, recomputed: Any, path: str = "") -> Iterator[str]:

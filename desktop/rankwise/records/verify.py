@@ -13,7 +13,7 @@ import rankwise
 from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.records.canonical import canonical_bytes, encode, sha256_hex, with_defaults
 from rankwise.records.characteristics_check import characteristics_readings_differences
-from rankwise.records.compare import data_differences, sheet_differences
+from rankwise.records.compare import data_differences
 from rankwise.records.errors import RecordError
 from rankwise.records.record import (
     ResultRecord,
@@ -29,7 +29,9 @@ from rankwise.records.workbook import (
     load_workbook_safely,
     read_program_data,
     read_signed_listing,
+    rebuilt_listing,
     rebuilt_visible_sheets,
+    resaved_by,
 )
 from rankwise.stats.analysis import GroupReadings, Question
 from rankwise.stats.results import Result
@@ -74,7 +76,9 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
     cell of the file is compared with the listing of what the sheets showed when the record was
     written, whatever version wrote it. When this program and these libraries wrote the record, or
     it has no listing (written before listings were kept), the visible sheets are also rebuilt from
-    the stored data and compared cell by cell with the file.
+    the stored data: they must show what the listing says (or, without a listing, what the file shows).
+    Cells are compared by what a reader sees, so a re-save by a spreadsheet program is no change
+    (a note says so); hidden sheets, rows and columns, unreadable text and removed protection are.
     """
     try:
         workbook = load_workbook_safely(path)
@@ -113,17 +117,32 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
         )
 
     visible_sheets = [sheet for sheet in workbook.worksheets if sheet.title != PROGRAM_SHEET]
+    if workbook[PROGRAM_SHEET].sheet_state == "visible":
+        differences.append(f"The sheet '{PROGRAM_SHEET}' is no longer hidden.")
+    mark = record.analysis.decimal_mark
     signed_digest = data.get(VISIBLE_SHEETS_KEY)
+    listing = read_signed_listing(workbook) if signed_digest is not None else None
     if signed_digest is not None:
-        differences.extend(_listing_check(workbook, signed_digest, visible_sheets, stored_fingerprint))
-    if signed_digest is None or _same_software(record):
-        differences.extend(_rebuilt_sheets_differences(record, stored_fingerprint, visible_sheets))
+        differences.extend(_listing_check(listing, signed_digest, visible_sheets, stored_fingerprint, mark))
     else:
+        differences.extend(islice(listing_differences(rebuilt_listing(record), visible_sheets, stored_fingerprint,
+                                                      mark), MAX_LISTED + 1))
+    if listing is not None and _same_software(record):
+        rebuilt = rebuilt_visible_sheets(record, stored_fingerprint).worksheets
+        differences.extend(f"The program data no longer give what the sheets showed when signed: {difference}"
+                           for difference in islice(listing_differences(listing, rebuilt, stored_fingerprint, mark),
+                                                    MAX_LISTED + 1))
+    elif listing is not None:
         notes.append(
             f"Rankwise {rankwise.__version__} checked the visible sheets cell by cell against what they showed "
             f"when Rankwise {record.program_version} wrote the record, and recomputed the figures from the "
             f"readings; it did not rebuild the sheets with its own wording and layout."
         )
+    resaver = resaved_by(path) if listing is not None and listing["listing_format"] >= 2 else None
+    if resaver is not None:
+        notes.append(f"The file was saved again by another program ({resaver}) after Rankwise wrote it; "
+                     f"it was compared by what a reader sees (numbers to 15 significant digits, dates to the "
+                     f"second, number formats by meaning).")
     differences = list(dict.fromkeys(differences))
 
     if differences:
@@ -141,10 +160,10 @@ def _changed(differences: list[str], fingerprint: str, record: ResultRecord | No
                         tuple(notes or ()), fingerprint, record)
 
 
-def _listing_check(workbook, signed_digest: Any, visible_sheets: list[Worksheet], fingerprint: str) -> list[str]:
+def _listing_check(listing: dict[str, Any] | None, signed_digest: Any, visible_sheets: list[Worksheet],
+                   fingerprint: str, mark: str) -> list[str]:
     """The file's visible sheets against the listing of what they showed when the record was written;
     the listing itself must still match the digest that the fingerprint covers."""
-    listing = read_signed_listing(workbook)
     if listing is None:
         return ["The program data were edited: the list of what the visible sheets showed when the record "
                 "was written is missing or damaged."]
@@ -152,22 +171,7 @@ def _listing_check(workbook, signed_digest: Any, visible_sheets: list[Worksheet]
     if sha256_hex(listing) != signed_digest:
         differences.append("The program data were edited: the list of what the visible sheets showed when the "
                            "record was written no longer matches its SHA-256, which the fingerprint covers.")
-    differences.extend(islice(listing_differences(listing, visible_sheets, fingerprint), MAX_LISTED + 1))
-    return differences
-
-
-def _rebuilt_sheets_differences(record: ResultRecord, fingerprint: str, visible_sheets: list[Worksheet]) -> list[str]:
-    """The file's visible sheets against the sheets this program builds from the stored data today."""
-    expected = rebuilt_visible_sheets(record, fingerprint)
-    expected_titles = expected.sheetnames
-    titles_now = [sheet.title for sheet in visible_sheets]
-    differences = []
-    if expected_titles != titles_now:
-        differences.append(f"The sheets were changed: the record has {expected_titles}, the file has {titles_now}.")
-    by_title = {sheet.title: sheet for sheet in visible_sheets}
-    for title in expected_titles:
-        if title in by_title:
-            differences.extend(islice(sheet_differences(expected[title], by_title[title]), MAX_LISTED + 1))
+    differences.extend(islice(listing_differences(listing, visible_sheets, fingerprint, mark), MAX_LISTED + 1))
     return differences
 
 

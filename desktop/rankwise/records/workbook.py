@@ -5,6 +5,8 @@ from __future__ import annotations
 import dataclasses
 import json
 import os
+import re
+import zipfile
 from pathlib import Path
 from typing import Any
 
@@ -39,6 +41,9 @@ CHUNK = 30000
 """Characters of the stored JSON per cell (a spreadsheet cell holds at most 32,767)."""
 FINGERPRINT_STAND_IN = "#" * 64
 """Written where the fingerprint goes while the listing is taken, then replaced by the fingerprint."""
+WRITER_MARK = b"Rankwise result record"
+"""The comment of the file's ZIP archive (which no reader shows): a program that saves the
+workbook again writes a new archive without it, so a check can say the file was re-saved."""
 
 
 def build_workbook(record: ResultRecord) -> Workbook:
@@ -49,9 +54,9 @@ def build_workbook(record: ResultRecord) -> Workbook:
     fingerprint = sha256_hex(data)
     fingerprint_title, fingerprint_coordinate = listing["fingerprint_cell"]
     workbook[fingerprint_title][fingerprint_coordinate].value = fingerprint
-    _fill_program_sheet(workbook.create_sheet(PROGRAM_SHEET), data, fingerprint, pack_listing(listing))
-    for sheet in workbook.worksheets:
-        sheet.protection.sheet = True
+    program_sheet = workbook.create_sheet(PROGRAM_SHEET)
+    _fill_program_sheet(program_sheet, data, fingerprint, pack_listing(listing))
+    program_sheet.protection.sheet = True
     workbook.security.lockStructure = True
     return workbook
 
@@ -59,13 +64,18 @@ def build_workbook(record: ResultRecord) -> Workbook:
 def record_fingerprint(record: ResultRecord) -> str:
     """The fingerprint that ``build_workbook`` writes for ``record``: SHA-256 over the stored data,
     which hold the SHA-256 of the visible sheets' listing."""
-    workbook = saved_and_reloaded(_visible_workbook(record, FINGERPRINT_STAND_IN))
-    return sha256_hex(_stored_data(record, sheet_listing(workbook.worksheets, FINGERPRINT_STAND_IN)))
+    return sha256_hex(_stored_data(record, rebuilt_listing(record)))
 
 
 def rebuilt_visible_sheets(record: ResultRecord, fingerprint: str) -> Workbook:
     """The visible sheets this program writes for ``record`` showing ``fingerprint``, as a file gives them back."""
     return saved_and_reloaded(_visible_workbook(record, fingerprint))
+
+
+def rebuilt_listing(record: ResultRecord) -> dict[str, Any]:
+    """The listing of the visible sheets this program writes for ``record`` (for a record written
+    before listings were kept, the best stand-in for one)."""
+    return sheet_listing(rebuilt_visible_sheets(record, FINGERPRINT_STAND_IN).worksheets, FINGERPRINT_STAND_IN)
 
 
 def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
@@ -80,6 +90,8 @@ def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
     fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot, record.analysis.entries)
     fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
     fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
+    for sheet in workbook.worksheets:
+        sheet.protection.sheet = True  # against accidental edits; no password (see the decision record)
     return workbook
 
 
@@ -122,8 +134,14 @@ def write_record(path: str | os.PathLike[str], record: ResultRecord, *, overwrit
             f"another name, or confirm that the signed record is to be replaced."
         )
     workbook = build_workbook(record)
+
+    def save(temporary: Path) -> None:
+        workbook.save(temporary)
+        with zipfile.ZipFile(temporary, "a") as archive:
+            archive.comment = WRITER_MARK
+
     try:
-        write_atomically(target, lambda temporary: workbook.save(temporary))
+        write_atomically(target, save)
     except OSError as error:
         raise RecordError(f"The result could not be saved to '{target}': {error.strerror or error}.") from error
 
@@ -151,6 +169,20 @@ def _is_signed_record(path: Path) -> bool:
     except RecordError:
         return False
     return not isinstance(data, dict) or data.get("signoff") is not None
+
+
+def resaved_by(path: str | os.PathLike[str]) -> str | None:
+    """None when the file is as Rankwise wrote it; otherwise the program that saved it last, as
+    the file names it ("another program" when it does not)."""
+    try:
+        with zipfile.ZipFile(path) as archive:
+            if archive.comment == WRITER_MARK:
+                return None
+            application = re.search(rb"<Application>([^<]*)</Application>", archive.read("docProps/app.xml"))
+    except (OSError, KeyError, zipfile.BadZipFile):
+        return "another program"
+    name = application.group(1).decode("utf-8", "replace").split("$")[0].strip() if application else ""
+    return name or "another program"
 
 
 def load_workbook_safely(path: str | os.PathLike[str]) -> Workbook:
