@@ -4,6 +4,7 @@ import dataclasses
 import hashlib
 import json
 from datetime import datetime
+from pathlib import Path
 
 import pytest
 from openpyxl import Workbook, load_workbook
@@ -234,3 +235,22 @@ def test_a_record_read_back_by_a_later_version_prints_the_fingerprint_it_was_sig
     assert record.signed_fingerprint == stored and fingerprint(record) == stored
     fresh = dataclasses.replace(record, signed_fingerprint=None)
     assert fingerprint(fresh) == record_fingerprint(record)
+
+
+WRITTEN_BEFORE_LOOKS = Path(__file__).parent / "data" / "record-listing-format-1.xlsx"
+"""A record of the paired example written by Rankwise before the listing held each sheet's look
+(listing form 1), kept as the file that version wrote."""
+
+
+def test_a_record_written_before_looks_were_listed_is_intact_and_its_looks_still_checked(tmp_path, monkeypatch):
+    monkeypatch.setattr(rankwise, "__version__", "9.0.0")  # checked by a later release, as in the field
+    book = load_workbook(WRITTEN_BEFORE_LOOKS)
+    assert read_signed_listing(book)["listing_format"] == 1
+    verification = verify_record(WRITTEN_BEFORE_LOOKS)
+    assert verification.status == "intact", verification.differences
+    assert not any("saved again" in note for note in verification.notes)
+
+    def hide_a_reading(book):
+        book[READING[0]].row_dimensions[FIRST_ENTRY_ROW + 3].hidden = True
+    verification = verify_record(edited_copy(WRITTEN_BEFORE_LOOKS, tmp_path, hide_a_reading))
+    assert verification.differences == (f"Row {FIRST_ENTRY_ROW + 3} of '{READING[0]}' is hidden.",)

@@ -115,10 +115,14 @@ def _sheet_changes(title: str, signed: dict[str, tuple], now: dict[str, tuple], 
         for offset in range(paired):
             yield from _row_changes(title, signed_rows.get(first + offset + 1, {}),
                                     now_rows.get(first_now + offset + 1, {}), first_now + offset + 1, mark)
-        for row in range(first + paired, end):
-            yield f"Row {row + 1} of '{title}' was deleted; it showed {_row_text(signed_rows.get(row + 1, {}), mark)}."
-        for row in range(first_now + paired, end_now):
-            yield f"A row was inserted as row {row + 1} of '{title}'; it shows {_row_text(now_rows.get(row + 1, {}), mark)}."
+        for row in range(first + paired + 1, end + 1):
+            if signed_rows.get(row):
+                yield (f"Row {row} of '{title}' was deleted; it showed "
+                       f"{_row_text(signed_rows, row, signed_rows, mark)}.")
+        for row in range(first_now + paired + 1, end_now + 1):
+            if now_rows.get(row):
+                yield (f"A row was inserted as row {row} of '{title}'; it shows "
+                       f"{_row_text(now_rows, row, now_rows, mark)}.")
 
 
 def _by_row(cells: dict[str, tuple]) -> dict[int, dict[int, tuple]]:
@@ -133,10 +137,23 @@ def _row_key(row: dict[int, tuple]) -> tuple:
     return tuple((column, meaning(*row[column])) for column in sorted(row))
 
 
-def _row_text(row: dict[int, tuple], mark: str) -> str:
-    if not row:
-        return "nothing"
-    return ", ".join(f"{get_column_letter(column)}: {displayed(*row[column], mark)}" for column in sorted(row))
+def _row_text(rows: dict[int, dict[int, tuple]], row: int, labels: dict[int, dict[int, tuple]], mark: str) -> str:
+    """A row's cells as a reader would read them out: each value after its column's heading
+    (the nearest text above it), e.g. "Entry 4, Before cure 2.48, After cure 2.05"."""
+    cells = rows[row]
+    return ", ".join(f"{_heading(labels, row, column)}{displayed(*cells[column], mark)}".strip()
+                     for column in sorted(cells))
+
+
+def _heading(rows: dict[int, dict[int, tuple]], row: int, column: int) -> str:
+    """The nearest text above (row, column), followed by a space; "" when the cell holds text itself."""
+    if rows[row][column][0] == "text":
+        return ""
+    for above in range(row - 1, 0, -1):
+        entry = rows.get(above, {}).get(column)
+        if entry is not None and entry[0] == "text":
+            return f"{entry[1]} "
+    return f"column {get_column_letter(column)} "
 
 
 def _row_changes(title: str, signed: dict[int, tuple], now: dict[int, tuple], row: int, mark: str) -> Iterator[str]:

@@ -113,6 +113,8 @@ def displayed(kind: str, text: str, number_format: str | None, mark: str = ".") 
         return f"'{text}'"
     value = float(text)
     shown = _number_shown(value, number_format or "General")
+    if not shown:
+        return "nothing"
     return shown.replace(".", mark) if mark != "." else shown
 
 
@@ -127,6 +129,8 @@ def _number_shown(value: float, number_format: str) -> str:
     elif value < 0 and len(sections) > 1:
         section, value = sections[1], -value
     section = re.sub(r"^(\[[^\]]*\])+", "", section)
+    if not section and len(sections) > 1:
+        return ""  # an empty section shows nothing (";;;" hides every number)
     if section.lower() == "general" or not section:
         return f"{value:.{GENERAL_DIGITS}g}"
     plain, literals = _without_literals(section)
