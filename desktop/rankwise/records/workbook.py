@@ -83,13 +83,13 @@ def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
     workbook = Workbook()
     if isinstance(record.result, CharacteristicsResult):
         fill_characteristics_workbook(workbook, record, fingerprint)
-        return workbook
-    verdict = workbook.active
-    verdict.title = VERDICT_TITLE
-    fill_verdict_sheet(verdict, record, fingerprint)
-    fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot, record.analysis.entries)
-    fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
-    fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
+    else:
+        verdict = workbook.active
+        verdict.title = VERDICT_TITLE
+        fill_verdict_sheet(verdict, record, fingerprint)
+        fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot, record.analysis.entries)
+        fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
+        fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
     for sheet in workbook.worksheets:
         sheet.protection.sheet = True  # against accidental edits; no password (see the decision record)
     return workbook
