@@ -32,6 +32,8 @@ from rankwise.readings.parse import check_decimal, parse_reading
 from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
 from rankwise.stats.analysis import Analysis, Characteristic, GroupReadings, Question, Settings
 
+SNIFF_ROWS = 200
+"""Rows looked at to tell whether a file holds many characteristics."""
 MAX_PROCESS_LABELS = 12
 """A process column holds at most this many different labels, each on several rows."""
 
@@ -307,6 +309,22 @@ def open_characteristics(
         characteristics=tuple(columns), decimal=decimal, first_row=data_rows[0][0] + 1 if data_rows else 0,
         notes=tuple(notes),
     )
+
+
+def is_characteristics_file(path: str | os.PathLike) -> bool:
+    """True when the file's first rows fit the many-characteristics question (see
+    ``looks_like_characteristics``); False for any file that cannot be read that far."""
+    path = Path(path)
+    try:
+        with open(path, "rb") as stream:
+            head = stream.read(65536)
+        if head.startswith((b"PK\x03\x04", b"PK\x05\x06")):
+            rows = [[open_xlsx.value_text(v) for v in row] for row in open_xlsx.read_sheet(path, None).rows[:SNIFF_ROWS]]
+        else:
+            rows = open_csv.read_sample(path, open_csv.find_encoding(head, path)).rows[:SNIFF_ROWS]
+    except (OSError, ReadingsError):
+        return False
+    return looks_like_characteristics(rows)
 
 
 def looks_like_characteristics(rows: Sequence[Sequence[str]]) -> bool:

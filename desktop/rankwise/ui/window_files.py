@@ -68,7 +68,14 @@ class WindowFiles:
             remember_file(path)
             return True
         from rankwise.readings import open_readings
+        from rankwise.ui.characteristics_window import offer_characteristics
         from rankwise.ui.open_dialog import OpenReadingsDialog
+
+        many = offer_characteristics(self, path)
+        if many is not None:
+            if many:
+                remember_file(path)
+            return many
 
         try:
             reading_set = OpenReadingsDialog.ask(self, path) if show_dialog else open_readings(path)
