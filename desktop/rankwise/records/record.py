@@ -113,14 +113,14 @@ def record_from_data(data: Any) -> ResultRecord:
 
 
 _LATER_ANALYSIS_FIELDS = {"decimal_mark": ".", "characteristics": [], "entries": []}
-_LATER_SETTINGS_FIELDS = {"plan_paired": False, "adjust": "holm"}
+_LATER_SETTINGS_FIELDS = {"plan_paired": False, "adjust": "holm", "plan_groups": 2}
 """Fields added to the analysis after records were first written, with the value an older record meant."""
 
 
 def with_later_fields(analysis: Any) -> Any:
     """The stored analysis with the fields an older record lacks filled in as it meant them (numbers
     written with a decimal point, planning for two separate groups, no characteristics list, Holm's
-    adjustment, no count of the sheet's entries); the stored data stay unchanged."""
+    adjustment, no count of the sheet's entries, plans for two groups); the stored data stay unchanged."""
     if not isinstance(analysis, dict):
         return analysis
     completed = {**_LATER_ANALYSIS_FIELDS, **analysis}

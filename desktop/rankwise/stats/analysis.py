@@ -73,6 +73,8 @@ class Settings:
         ratio: planning only: parts in B per part in A.
         plan_paired: planning only: plan for the same parts measured twice (signed-rank test)
             instead of two independent groups.
+        plan_groups: planning only: how many separate groups the plan is for; 3 or more plans
+            for the Kruskal-Wallis test (``rankwise.stats.planning.plan_several_size``).
         characteristic: what is measured ("Ra after grinding"), for titles and records.
         adjust: many characteristics only: how the p-values are adjusted for the number
             compared, "holm", "fdr" (Benjamini-Hochberg) or "none".
@@ -94,6 +96,7 @@ class Settings:
     plan_paired: bool = False
     characteristic: str = ""
     adjust: str = "holm"
+    plan_groups: int = 2
 
 
 @dataclass(frozen=True)

@@ -424,6 +424,8 @@ class PlanResult:
         simulated_power: power of the exact test at (n_a, n_b) by simulation, or None.
         power_curve: predicted power against parts per group, for the planning chart.
         warnings: plain-words notes.
+        groups: how many groups the plan is for (2, or 3 and more for the Kruskal-Wallis plan,
+            where ``n_a`` = ``n_b`` = parts in each group).
     """
 
     paired: bool
@@ -441,6 +443,7 @@ class PlanResult:
     simulated_power: float | None
     power_curve: tuple[PowerPoint, ...]
     warnings: tuple[str, ...]
+    groups: int = 2
 
 
 @dataclass(frozen=True)

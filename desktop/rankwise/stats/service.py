@@ -13,7 +13,7 @@ import numpy as np
 from rankwise.stats.analysis import Analysis, GroupReadings, Question
 from rankwise.stats.characteristics import compare_characteristics
 from rankwise.stats.paired import compare_paired
-from rankwise.stats.planning import plan_group_size, plan_paired_size
+from rankwise.stats.planning import plan_group_size, plan_paired_size, plan_several_size
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.results import Result
 from rankwise.stats.several import compare_several
@@ -98,7 +98,8 @@ def _several(analysis: Analysis, monitor: Monitor) -> Result:
 
 
 def _plan(analysis: Analysis, monitor: Monitor) -> Result:
-    """Parts to measure (Noether), checked by simulation: two separate groups, or the same parts twice.
+    """Parts to measure (Noether), checked by simulation: two separate groups, the same parts twice,
+    or several separate groups (``plan_groups`` of 3 or more, Kruskal-Wallis).
 
     For the same parts measured twice (``plan_paired``) the planned spread is that of the
     differences, as the plan's assumptions say; a chance that B reads higher than A is a
@@ -108,6 +109,12 @@ def _plan(analysis: Analysis, monitor: Monitor) -> Result:
     monitor.step(0.0)
     shared = {"alpha": settings.alpha, "power": settings.power, "alternative": settings.alternative,
               "n_sim": PLAN_SIMULATIONS}
+    if settings.plan_groups >= 3 and not settings.plan_paired:
+        if settings.planned_prob_b_greater is not None or settings.alternative != "two-sided":
+            raise ValueError("A plan for several groups needs the shift worth detecting and the spread, and looks "
+                             "for a difference in any direction.")
+        return plan_several_size(settings.planned_shift, settings.planned_spread, groups=settings.plan_groups,
+                                 alpha=settings.alpha, power=settings.power, n_sim=PLAN_SIMULATIONS)
     if settings.plan_paired:
         if settings.planned_prob_b_greater is not None:
             raise ValueError(

@@ -12,6 +12,7 @@ from PySide6.QtWidgets import (
     QFormLayout,
     QLabel,
     QRadioButton,
+    QSizePolicy,
     QVBoxLayout,
     QWidget,
 )
@@ -48,7 +49,10 @@ PAIRED_DIRECTIONS = (
     ("b-less", "after reads lower"),
 )
 POWERS = ((0.8, "8 in 10"), (0.9, "9 in 10"), (0.95, "19 in 20"))
-PLAN_DESIGNS = ((False, "two separate groups of parts"), (True, "the same parts, measured twice"))
+PLAN_DESIGNS = ((False, "two separate groups of parts"), (True, "the same parts, measured twice"),
+                ("several", "several separate groups (one column each)"))
+PLAN_DIRECTIONS = (("two-sided", "any change"), ("b-greater", "B reads higher"), ("b-less", "B reads lower"))
+"""The planner's directions for two separate groups (the same parts use ``PAIRED_DIRECTIONS``)."""
 METHODS = (
     ("auto", "automatically (exact if quick)"),
     ("exact", "always exactly (can be slow)"),
@@ -66,6 +70,7 @@ class QuestionChoice:
         group_indices: the sheet columns in question order (A first); for planning the two groups
             the plan is for (they lend their names and unit), or () when there are none.
         problem: a plain-words reason the question cannot be asked yet, else "".
+        notes: sentences for the analysis's notes (where a plan's starting values came from).
     """
 
     option: str
@@ -73,6 +78,7 @@ class QuestionChoice:
     settings: Settings
     group_indices: tuple[int, ...]
     problem: str = ""
+    notes: tuple[str, ...] = ()
 
 
 def _combo(name: str, tooltip: str, items=()) -> QComboBox:
@@ -137,8 +143,17 @@ class QuestionPanel(QWidget):
         self.planned_shift = _spin("Shift worth finding", "The smallest change of the readings that matters, in the readings' unit.")
         self.planned_spread = _spin("Usual spread", "The usual spread of the readings (standard deviation), in the readings' unit.")
         self.power = _combo("Chance to find it", "How often a study of this size should find a shift of that size.", POWERS)
-        self.plan_design = _combo("Plan for", "Two separate groups of parts (rank-sum test), or the same parts "
-                                  "measured before and after (signed-rank test).", PLAN_DESIGNS)
+        self.plan_design = _combo("Plan for", "Two separate groups of parts (rank-sum test), the same parts "
+                                  "measured before and after (signed-rank test), or several separate groups "
+                                  "(Kruskal-Wallis test).", PLAN_DESIGNS)
+        self.plan_origin = QLabel()
+        self.plan_origin.setObjectName("planOrigin")
+        self.plan_origin.setWordWrap(True)
+        self.plan_origin.setAccessibleName("Where the starting values came from")
+        self.plan_origin.setSizePolicy(QSizePolicy.Policy.Preferred, QSizePolicy.Policy.MinimumExpanding)
+        self._plan_sheet = None
+        self._typed = {"shift": False, "spread": False}
+        self._plan_notes: tuple[str, ...] = ()
         self.planned_shift.setValue(1.0)
         self.planned_spread.setValue(1.0)
 
@@ -160,6 +175,7 @@ class QuestionPanel(QWidget):
             ("shift", "Shift worth finding", self.planned_shift),
             ("spread", "Usual spread (SD)", self.planned_spread),
             ("power", "Chance to find it", self.power),
+            ("start", "Starting values", self.plan_origin),
         ):
             label = QLabel(label_text)
             label.setBuddy(widget)
@@ -177,6 +193,10 @@ class QuestionPanel(QWidget):
                     self.power):
             box.currentIndexChanged.connect(self._on_setting_changed)
         self.plan_design.currentIndexChanged.connect(self._on_design_changed)
+        for box in (self.group_a, self.group_b):
+            box.currentIndexChanged.connect(self._refresh_plan_start)
+        self.planned_shift.valueChanged.connect(lambda _value: self._on_plan_value_typed("shift"))
+        self.planned_spread.valueChanged.connect(lambda _value: self._on_plan_value_typed("spread"))
         for spin in (self.margin, self.planned_shift, self.planned_spread):
             spin.valueChanged.connect(self._on_setting_changed)
         self.set_groups([], [])
@@ -245,20 +265,23 @@ class QuestionPanel(QWidget):
         names = self._group_names
         if option.question is Question.PLAN:
             paired = self.plans_paired
+            several = self.plans_several
+            direction = "two-sided" if several else str(self.direction.currentData())
             settings = replace(
                 settings,
-                planned_shift=self.planned_shift.value(),
+                alternative=direction,
+                # the box holds the size of the shift; a plan for a fall looks for it downwards
+                planned_shift=-self.planned_shift.value() if direction == "b-less" else self.planned_shift.value(),
                 planned_spread=self.planned_spread.value(),
                 power=float(self.power.currentData()),
                 plan_paired=paired,
+                plan_groups=max(3, len(names)) if several else 2,
             )
             problem = "" if self.planned_shift.value() > 0 and self.planned_spread.value() > 0 else (
                 "Give the change per part worth finding and the spread of the differences (both above zero)."
                 if paired else "Give the shift worth finding and the usual spread of the readings (both above zero)."
             )
-            index_a, index_b = self.group_a.currentData(), self.group_b.currentData()
-            named = index_a is not None and index_b is not None and index_a != index_b
-            return QuestionChoice(option.key, option.question, settings, (int(index_a), int(index_b)) if named else (), problem)
+            return QuestionChoice(option.key, option.question, settings, self._plan_groups(), problem, self._plan_notes)
         if option.question is Question.SEVERAL:
             reference = self.reference.currentData()
             if reference is not None:
@@ -283,7 +306,60 @@ class QuestionPanel(QWidget):
     @property
     def plans_paired(self) -> bool:
         """True when the plan is for the same parts measured twice."""
-        return bool(self.plan_design.currentData())
+        return self.plan_design.currentData() is True
+
+    @property
+    def plans_several(self) -> bool:
+        """True when the plan is for several separate groups (Kruskal-Wallis)."""
+        return self.plan_design.currentData() == "several"
+
+    def _plan_groups(self) -> tuple[int, ...]:
+        """The sheet columns a plan is for: every group for several groups, else A and B (or none)."""
+        if self.plans_several:
+            return tuple(range(len(self._group_names))) if len(self._group_names) >= 3 else ()
+        index_a, index_b = self.group_a.currentData(), self.group_b.currentData()
+        named = index_a is not None and index_b is not None and index_a != index_b
+        return (int(index_a), int(index_b)) if named else ()
+
+    def set_plan_sheet(self, sheet) -> None:
+        """The readings sheet the planner takes its starting values from (spread from the readings,
+        shift from the tolerance; ``rankwise.readings.plan_start``). A new sheet starts afresh;
+        values the technician typed for the same sheet are kept."""
+        if sheet is not self._plan_sheet:
+            self._typed = {"shift": False, "spread": False}
+        self._plan_sheet = sheet
+        self._refresh_plan_start()
+
+    def _refresh_plan_start(self, *_args) -> None:
+        """Fill the planner's shift and spread from the sheet where not typed, and say where each came from."""
+        if self._plan_sheet is None:
+            return
+        from rankwise.readings.plan_start import plan_start
+        from rankwise.wording.planning import starting_value_brief, starting_value_notes
+
+        groups = self._plan_sheet.groups
+        columns = [groups[index] for index in self._plan_groups() if index < len(groups)]
+        start = plan_start(columns, paired=self.plans_paired)
+        was_updating, self._updating = self._updating, True
+        try:
+            if not self._typed["shift"] and start.shift is not None:
+                self.planned_shift.setValue(start.shift)
+            if not self._typed["spread"] and start.spread is not None:
+                self.planned_spread.setValue(start.spread)
+        finally:
+            self._updating = was_updating
+        self._plan_notes = starting_value_notes(
+            start, self.planned_shift.value(), self.planned_spread.value(), shift_typed=self._typed["shift"],
+            spread_typed=self._typed["spread"], paired=self.plans_paired,
+            mark=self.planned_shift.locale().decimalPoint())
+        self.plan_origin.setText(starting_value_brief(start, shift_typed=self._typed["shift"],
+                                                      spread_typed=self._typed["spread"]))
+        self.plan_origin.setToolTip("\n".join(self._plan_notes))
+
+    def _on_plan_value_typed(self, key: str) -> None:
+        if not self._updating:
+            self._typed[key] = True
+            self._refresh_plan_start()
 
     def to_dict(self) -> dict:
         """The picker's state as plain data (kept in the recovery file)."""
@@ -301,6 +377,9 @@ class QuestionPanel(QWidget):
             "planned_spread": self.planned_spread.value(),
             "power": float(self.power.currentData()),
             "plan_paired": self.plans_paired,
+            "plan_design": "several" if self.plans_several else self.plans_paired,
+            "planned_shift_typed": self._typed["shift"],
+            "planned_spread_typed": self._typed["spread"],
         }
 
     def from_dict(self, state: dict) -> None:
@@ -314,7 +393,7 @@ class QuestionPanel(QWidget):
                 (self.level, "alpha", False), (self.group_a, "group_a", True), (self.group_b, "group_b", True),
                 (self.reference, "reference", False), (self.direction, "direction", False), (self.method, "method", False),
                 (self.margin_unit, "margin_unit", False), (self.power, "power", False),
-                (self.plan_design, "plan_paired", False),
+                (self.plan_design, "plan_paired", False), (self.plan_design, "plan_design", False),
             ):
                 if key in state:
                     found = box.findText(state[key]) if by_text else box.findData(state[key])
@@ -323,6 +402,8 @@ class QuestionPanel(QWidget):
             for spin, key in ((self.margin, "margin"), (self.planned_shift, "planned_shift"), (self.planned_spread, "planned_spread")):
                 if isinstance(state.get(key), (int, float)):
                     spin.setValue(float(state[key]))
+                    if key != "margin":  # a restored plan keeps its values unless it says they came from the sheet
+                        self._typed[key.removeprefix("planned_")] = bool(state.get(f"{key}_typed", True))
         finally:
             self._updating = False
         self._show_rows_for_option()
@@ -342,6 +423,7 @@ class QuestionPanel(QWidget):
             "option": option, "alpha": settings.alpha, "direction": settings.alternative,
             "reference": settings.reference, "margin_unit": "units", "method": settings.method,
             "plan_paired": settings.plan_paired,
+            "plan_design": "several" if settings.plan_groups >= 3 else settings.plan_paired,
         }
         if len(names) >= 2:
             state.update(group_a=names[0], group_b=names[1])
@@ -397,12 +479,13 @@ class QuestionPanel(QWidget):
 
     def _show_rows_for_option(self) -> None:
         question = self.option.question
+        plan_several = question is Question.PLAN and self.plans_several
         visible = {
             "level": True,
-            "a": question is not Question.SEVERAL,
-            "b": question is not Question.SEVERAL,
+            "a": question is not Question.SEVERAL and not plan_several,
+            "b": question is not Question.SEVERAL and not plan_several,
             "reference": question is Question.SEVERAL,
-            "direction": question is Question.PAIRED,
+            "direction": question is Question.PAIRED or (question is Question.PLAN and not self.plans_several),
             "method": question is not Question.PLAN,
             "margin": self.option.wants_margin,
             "margin_unit": self.option.wants_margin,
@@ -410,6 +493,7 @@ class QuestionPanel(QWidget):
             "shift": question is Question.PLAN,
             "spread": question is Question.PLAN,
             "power": question is Question.PLAN,
+            "start": question is Question.PLAN,
         }
         for key, (label, widget) in self._rows.items():
             label.setVisible(visible[key])
@@ -418,6 +502,9 @@ class QuestionPanel(QWidget):
         self._rows["a"][0].setText("&Before" if paired else "Group &A (reference)")
         self._rows["b"][0].setText("&After" if paired else "Group &B (changed)")
         plan_paired = question is Question.PLAN and self.plans_paired
+        directions = PLAN_DIRECTIONS if question is Question.PLAN and not plan_paired else PAIRED_DIRECTIONS
+        for position, (_, text) in enumerate(directions):
+            self.direction.setItemText(position, text)
         self._rows["shift"][0].setText("Change per part worth finding" if plan_paired else "Shift worth finding")
         self._rows["spread"][0].setText("Spread of the differences (SD)" if plan_paired else "Usual spread (SD)")
         self.planned_spread.setToolTip(
@@ -433,6 +520,7 @@ class QuestionPanel(QWidget):
 
     def _on_design_changed(self, *_args) -> None:
         self._show_rows_for_option()
+        self._refresh_plan_start()
         self._on_setting_changed()
 
     def _on_setting_changed(self, *_args) -> None:

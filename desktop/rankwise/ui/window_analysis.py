@@ -31,7 +31,8 @@ class WindowAnalysis:
         if choice.problem:
             return None, choice.problem
         if choice.question is Question.PLAN and not choice.group_indices:
-            return analysis_of_columns((), choice.question, choice.settings, decimal=self.sheet.decimal), ""
+            return replace(analysis_of_columns((), choice.question, choice.settings, decimal=self.sheet.decimal),
+                           notes=choice.notes), ""
         try:
             analysis = self.sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
         except MixedLimitsError as error:
@@ -41,6 +42,8 @@ class WindowAnalysis:
             return None, str(error)
         if self.sheet.decimal != "auto":  # the sheet reads one stated mark: numbers are shown with it
             analysis = replace(analysis, decimal_mark=self.sheet.decimal)
+        if choice.notes:  # e.g. where a plan's starting values came from, kept in the record
+            analysis = replace(analysis, notes=(*analysis.notes, *choice.notes))
         empty = [group.name for group in analysis.groups if not any(math.isfinite(v) for v in group.values)]
         if choice.question is not Question.PLAN and empty:
             if len(empty) == len(analysis.groups):

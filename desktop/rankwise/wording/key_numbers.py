@@ -301,7 +301,10 @@ def _several(r: SeveralGroupsResult, analysis: Analysis) -> Iterator[KeyNumber]:
 def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
     f = _Formats(analysis)
     a, b = plan_names(analysis)
-    if r.paired:
+    if r.groups >= 3:
+        yield _count("n_a", "Parts needed in each group", r.n_a, "Parts to measure in every group (rounded up).")
+        yield _count("groups", "Groups", r.groups, "How many separate groups the plan is for.")
+    elif r.paired:
         yield _count("n_a", "Parts to measure twice", r.n_a, "Parts needed, each measured before and after.")
     else:
         yield _count("n_a", f"Parts needed, {a}", r.n_a, "Parts to measure in the first group (rounded up).")
@@ -322,7 +325,12 @@ def _plan(r: PlanResult, analysis: Analysis) -> Iterator[KeyNumber]:
         else:
             yield _number("spread", "Spread (standard deviation)", f.setting(r.spread),
                           "The usual scatter of single readings.", r.spread)
-    if r.paired:
+    if r.groups >= 3:
+        yield _number("prob_b_greater", "Share of pairs to detect, the two groups furthest apart",
+                      format_percent(r.prob_b_greater),
+                      "Between the two groups furthest apart: the share of pairs in which a part of the higher "
+                      "group reads higher that the plan is built to detect.", r.prob_b_greater)
+    elif r.paired:
         yield _number("prob_b_greater", "Chance of a rise to detect", format_percent(r.prob_b_greater),
                       "The chance that the changes of two parts, added together, come out above zero, "
                       "that the plan is built to detect.", r.prob_b_greater)

@@ -77,17 +77,19 @@ class PowerCurvePlot(ChartFrame):
         self._planned.setVisible(True)
         self._planned.setValue(result.n_a)
         per_group = (f"{result.n_a} pairs" if result.paired else
+                     f"{result.n_a} in each of {result.groups} groups" if result.groups >= 3 else
                      f"{result.n_a} per group" if result.n_a == result.n_b else
                      f"{result.n_a} in A, {result.n_b} in B")
         self._planned.label.setFormat(f"planned: {per_group}")
-        entries = [(self._curve, "predicted (Noether)")]
+        entries = [(self._curve, "predicted (Kruskal-Wallis approximation)" if result.groups >= 3 else "predicted (Noether)")]
         if result.simulated_power is not None:
             self._simulated.setData([result.n_a], [100.0 * result.simulated_power])
             entries.append((self._simulated, f"checked by simulation: {100.0 * result.simulated_power:.0f} %"))
         else:
             self._simulated.setData([], [])
         self._set_legend(entries)
-        self._label_axes(bottom="Pairs of readings" if result.paired else "Parts in group A",
+        self._label_axes(bottom="Pairs of readings" if result.paired else
+                         "Parts in each group" if result.groups >= 3 else "Parts in group A",
                          left="Chance to detect it (%)")
         self.plot_item.setRange(xRange=(max(0.0, sizes.min() - 1), max(sizes.max(), result.n_a) + 1),
                                 yRange=(0, 104), padding=0)

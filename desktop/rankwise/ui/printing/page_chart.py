@@ -190,7 +190,8 @@ def draw_power_curve(painter: QPainter, rect: QRectF, result: PlanResult, font: 
         painter.drawText(QRectF(x_of(tick) - 20 * k, plot.bottom() + 2 * k, 40 * k, 2 * half),
                          Qt.AlignmentFlag.AlignCenter, f"{tick:g}")
     painter.drawText(QRectF(plot.left(), plot.bottom() + 2 * half + 2 * k, plot.width(), 2 * half),
-                     Qt.AlignmentFlag.AlignCenter, "pairs of readings" if result.paired else "parts per group (A)")
+                     Qt.AlignmentFlag.AlignCenter, "pairs of readings" if result.paired else
+                     "parts in each group" if result.groups >= 3 else "parts per group (A)")
     target_pen = QPen(QColor(style.TARGET_COLOUR), 1.2 * k, Qt.PenStyle.DashLine)
     painter.setPen(target_pen)
     painter.drawLine(QLineF(plot.left(), axes.y(100 * result.power), plot.right(), axes.y(100 * result.power)))
