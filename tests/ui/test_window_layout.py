@@ -1,9 +1,18 @@
-"""What the technician sees first is not cut off: the spare column's title and the notes under the verdict."""
+"""What the technician sees is not cut off: the spare column's title, the notes under the verdict, and every
+label, button and tab at 1024 x 700, 1440 x 900, 1920 x 1080 and 200 % scaling."""
 
 from __future__ import annotations
 
+import json
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
 from PySide6.QtGui import QTextDocument
-from window_support import answers, wait_for_verdict, window  # noqa: F401
+from layout_checks import cut_off_texts, window_problems
+from window_support import SCREENSHOTS, answers, screenshot, wait_for_verdict, window  # noqa: F401
 
 from rankwise.stats.results import PlanResult
 
@@ -41,3 +50,42 @@ def test_the_notes_of_a_plan_follow_their_heading(qtbot, window):
     assert first_note.text().startswith("The test will be")
     gap = layout.blockBoundingRect(first_note).top() - layout.blockBoundingRect(heading).bottom()
     assert gap <= notes.fontMetrics().height() / 4
+
+
+SCALED_SCREEN = {"synchronousWindowSystemEvents": False, "windowFrameMargins": False,
+                 "screens": [{"name": "shop-floor", "x": 0, "y": 0, "width": 2048, "height": 1400,
+                              "logicalDpi": 96, "logicalBaseDpi": 96, "dpr": 1}]}
+
+
+@pytest.mark.parametrize(("width", "height"), [(1024, 700), (1920, 1080), (1440, 900)])
+def test_nothing_is_cut_off_at_shop_floor_and_desktop_sizes(qtbot, window, width, height):
+    """At 1024 x 700 the question and the sheet fold into tabs; at every size the verdict and the
+    cautions note show whole, at least five rank rows show, and no label, button or tab is cut off."""
+    window.resize(width, height)
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    qtbot.waitUntil(lambda: window.width() == width, timeout=60000)
+    assert window_problems(window) == []
+    screenshot(window, f"window-{width}x{height}")
+    if width < 1280:
+        window.focus_pane("question")
+        assert window.question_panel.isVisible()
+        assert cut_off_texts(window) == []
+        screenshot(window, f"window-{width}x{height}-question")
+
+
+def test_nothing_is_cut_off_at_200_percent_scaling(tmp_path):
+    """At QT_SCALE_FACTOR=2 on a 2048 x 1400 screen the window fits the screen with nothing cut off, and
+    the open dialog's buttons are on screen (child process: the scale is fixed when Qt starts)."""
+    config = tmp_path / "screen.json"
+    config.write_text(json.dumps(SCALED_SCREEN), encoding="utf-8")
+    SCREENSHOTS.mkdir(parents=True, exist_ok=True)
+    environment = dict(os.environ, QT_SCALE_FACTOR="2", QT_QPA_PLATFORM=f"offscreen:configfile={config}",
+                       PYTHONPATH=os.pathsep.join(sys.path))
+    finished = subprocess.run([sys.executable, str(Path(__file__).with_name("scaled_window.py")), str(SCREENSHOTS)],
+                              env=environment, capture_output=True, text=True, timeout=300)
+    assert finished.returncode == 0, finished.stderr
+    report = json.loads(finished.stdout.strip().splitlines()[-1])
+    assert report["scale"] == 2.0
+    assert report["window_inside_screen"] and report["dialog_inside_screen"]
+    assert report["window_problems"] == []

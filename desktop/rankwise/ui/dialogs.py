@@ -13,6 +13,7 @@ from pathlib import Path
 from PySide6.QtWidgets import QFileDialog, QMessageBox, QWidget
 
 from rankwise.ui.recent_files import remember_written_folder
+from rankwise.ui.screen_fit import fit_to_screen
 
 READINGS_FILTER = "Readings (*.csv *.txt *.xlsx *.xlsm);;All files (*)"
 """Files the open dialog offers: spreadsheet exports and signed result workbooks."""
@@ -108,7 +109,13 @@ def show_print_preview(parent: QWidget | None, printer, paint: Callable[[object]
     """Show a print preview; ``paint(printer)`` draws the pages whenever the preview needs them."""
     from PySide6.QtPrintSupport import QPrintPreviewDialog
 
+    from PySide6.QtPrintSupport import QPrintPreviewWidget
+
     preview = QPrintPreviewDialog(printer, parent)
     preview.setWindowTitle("The one-page verdict")
     preview.paintRequested.connect(paint)
+    fit_to_screen(preview, 900, 1000)
+    page = preview.findChild(QPrintPreviewWidget)
+    if page is not None:  # the whole page in view, whatever the screen
+        page.setZoomMode(QPrintPreviewWidget.ZoomMode.FitInView)
     preview.exec()

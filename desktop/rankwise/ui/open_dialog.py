@@ -28,6 +28,7 @@ from PySide6.QtWidgets import (
 )
 
 from rankwise.readings import ReadingSet, ReadingsError
+from rankwise.ui.screen_fit import fit_to_screen
 
 PREVIEW_ROWS = 15
 """Rows of the file shown in the preview."""
@@ -55,7 +56,6 @@ class OpenReadingsDialog(QDialog):
         self.path = Path(path)
         self.reading_set: ReadingSet | None = reading_set
         self.setWindowTitle(f"Open {self.path.name}")
-        self.resize(1000, 720)
         self._filling = False
 
         self.sheet_choice = _combo("Worksheet")
@@ -129,6 +129,7 @@ class OpenReadingsDialog(QDialog):
         for box in (self.sheet_choice, self.layout_choice, self.value_column, self.group_column, self.decimal_choice):
             box.currentIndexChanged.connect(self._on_choice_changed)
         self._show(reading_set)
+        fit_to_screen(self, 1000, 720)
 
     # -- showing ---------------------------------------------------------------------------------
     def _show(self, reading_set: ReadingSet) -> None:

@@ -196,12 +196,46 @@ class RankTable(QWidget):
         layout.addWidget(self.view, 1)
         layout.addWidget(self.sums)
         self._sized_for: tuple[str, ...] = ()
+        self._rows_in_view = 0
         self.clear()
+
+    def keep_rows_in_view(self, rows: int) -> None:
+        """The table never shrinks below ``rows`` rows under its header (measured once the style
+        sheet has set the fonts, and again when it changes)."""
+        self._rows_in_view = rows
+        self._fit_minimum_height()
+
+    def _fit_minimum_height(self) -> None:
+        if not self._rows_in_view:
+            return
+        self.view.ensurePolished()
+        header = self.view.horizontalHeader().sizeHint().height()
+        row = max(self.view.verticalHeader().defaultSectionSize(), self.view.fontMetrics().height() + 8)
+        scroll_bar = self.view.horizontalScrollBar().sizeHint().height()
+        frame = 2 * self.view.frameWidth() + 6
+        self.view.setMinimumHeight(header + int((self._rows_in_view + 0.6) * row) + scroll_bar + frame)
+        self.sums.setMinimumHeight(self._sums_height())
+
+    def _sums_height(self) -> int:
+        """Height the rank sums need at the label's width (word-wrapped labels do not ask for it)."""
+        width = max(self.sums.width(), 200)
+        margins = self.sums.contentsMargins()
+        return self.sums.heightForWidth(width) if self.sums.hasHeightForWidth() else \
+            self.sums.fontMetrics().lineSpacing() * 2 + margins.top() + margins.bottom()
+
+    def resizeEvent(self, event) -> None:  # noqa: N802 - Qt API
+        super().resizeEvent(event)
+        self.sums.setMinimumHeight(self._sums_height())
+
+    def showEvent(self, event) -> None:  # noqa: N802 - Qt API
+        self._fit_minimum_height()
+        super().showEvent(event)
 
     def clear(self, message: str = "The ranks appear here once there is a verdict.") -> None:
         """Empty the table and say why."""
         self.model.set_rows((), [])
         self.sums.setText(message)
+        self.sums.setMinimumHeight(self._sums_height())
 
     def show_result(self, result, analysis) -> None:
         """Fill the table from a result of the statistics service."""
@@ -237,6 +271,7 @@ class RankTable(QWidget):
         else:
             self.clear("The planning question uses no readings, so there is nothing to rank.")
             return
+        self.sums.setMinimumHeight(self._sums_height())
         if self.model.headers != self._sized_for:
             self._sized_for = self.model.headers
             self.view.resizeColumnsToContents()

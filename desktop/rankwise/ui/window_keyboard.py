@@ -15,7 +15,6 @@ class WindowKeyboard:
     """Mixin of ``MainWindow``: F6 and Shift+F6 give the keyboard to the next or previous pane."""
 
     def _build_pane_keys(self) -> None:
-        self._set_tab_order()
         for sequence, step in (("F6", +1), ("Shift+F6", -1)):
             shortcut = QShortcut(QKeySequence(sequence), self)
             shortcut.setContext(Qt.ShortcutContext.WindowShortcut)
@@ -51,7 +50,7 @@ class WindowKeyboard:
             return self.tabs.isTabVisible(self.tabs.indexOf(self.rank_table))
         if name == "charts":
             return any(self.tabs.isTabVisible(self.tabs.indexOf(chart)) for chart in self.charts)
-        return self._pane_boxes()[name].isVisibleTo(self)
+        return True
 
     def focus_pane(self, name: str | None = None, step: int = +1) -> str:
         """Give the keyboard to pane ``name``, or to the next (``step`` +1) or previous (-1) pane
@@ -65,6 +64,7 @@ class WindowKeyboard:
                     break
             name = PANE_NAMES[position]
         target = self._pane_target(name)
+        self.reveal(target)
         target.setFocus(Qt.FocusReason.ShortcutFocusReason)
         return name
 

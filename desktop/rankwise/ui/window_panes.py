@@ -5,10 +5,26 @@ from __future__ import annotations
 from pathlib import Path
 
 from PySide6.QtCore import Qt
-from PySide6.QtWidgets import QLabel, QSplitter, QTabWidget, QVBoxLayout, QWidget
+from PySide6.QtWidgets import (
+    QFrame,
+    QLabel,
+    QScrollArea,
+    QSplitter,
+    QStackedWidget,
+    QTabWidget,
+    QVBoxLayout,
+    QWidget,
+)
 
 import rankwise
 from rankwise.ui.chart_tab import ChartTab
+from rankwise.ui.screen_fit import fit_to_screen
+
+NARROW_WIDTH = 1280
+"""Below this window width (in Qt's scaled pixels) the question and the sheet fold into tabs."""
+
+MINIMUM_RANK_ROWS = 5
+"""The rank table never shrinks below this many rows in view."""
 
 
 def style_sheet() -> str:
@@ -21,16 +37,67 @@ def style_sheet() -> str:
 
 
 class WindowPanes:
-    """Mixin of ``MainWindow``: sizes the window and lays out its panes and status line."""
+    """Mixin of ``MainWindow``: sizes the window and lays out its panes and status line.
+
+    From ``NARROW_WIDTH`` on, the question, the sheet and the results stand side by side; on a
+    narrower window (a 1024 x 700 shop-floor screen, or 200 % scaling) the question and the sheet
+    fold into two tabs beside the results, so the sheet, the verdict and the rank table stay wide
+    enough to read.
+    """
+
+    def resizeEvent(self, event) -> None:  # noqa: N802 - Qt API
+        super().resizeEvent(event)
+        self._arrange_panes()
+
+    def _arrange_panes(self) -> None:
+        """Side by side, or the question and the sheet folded into tabs, as the width allows."""
+        narrow = self.width() < NARROW_WIDTH
+        if narrow == self._narrow:
+            return
+        self._narrow = narrow
+        focused = self.focusWidget()  # the control to keep the keyboard, even while the window is inactive
+        width = max(self.width(), 800)
+        if narrow:
+            self.folded_panes.addTab(self.question_box, "Question")
+            self.folded_panes.addTab(self.sheet_box, "Readings")
+            self.folded_panes.setCurrentWidget(self.sheet_box)
+            self.folded_panes.show()
+            self._size_panes({self.folded_panes: (2, int(width * 0.44)), self.right_panes: (3, width - int(width * 0.44))})
+        else:
+            self.main_splitter.insertWidget(0, self.question_box)
+            self.main_splitter.insertWidget(1, self.sheet_box)
+            self.folded_panes.hide()
+            self.question_box.show()  # a page taken from the tabs keeps the tabs' hiding
+            self.sheet_box.show()
+            self._size_panes({self.question_box: (0, 310), self.sheet_box: (2, 490),
+                              self.right_panes: (3, max(640, width - 800))})
+        self._set_tab_order()  # moving the panes moved them in the focus chain
+        if focused is not None:
+            self.reveal(focused)
+            focused.setFocus()
+
+    def _size_panes(self, wanted: dict[QWidget, tuple[int, int]]) -> None:
+        """Stretch factor and width per pane; panes not named (hidden) get none."""
+        splitter = self.main_splitter
+        sizes = [0] * splitter.count()
+        for pane, (stretch, width) in wanted.items():
+            position = splitter.indexOf(pane)
+            splitter.setStretchFactor(position, stretch)
+            sizes[position] = width
+        splitter.setSizes(sizes)
+
+    def reveal(self, widget: QWidget) -> None:
+        """Bring the tab holding ``widget`` to the front, wherever it sits (folded panes, result tabs)."""
+        parent = widget
+        while parent is not None:
+            holder = parent.parentWidget()
+            if isinstance(holder, QStackedWidget) and isinstance(holder.parentWidget(), QTabWidget):
+                holder.parentWidget().setCurrentWidget(parent)
+            parent = holder
 
     def _fit_to_screen(self) -> None:
         """Open at a comfortable size, never larger than the screen (small shop-floor screens too)."""
-        screen = self.screen().availableGeometry() if self.screen() is not None else None
-        width, height = 1440, 900
-        if screen is not None and screen.width() > 0:
-            width = min(width, int(screen.width() * 0.95))
-            height = min(height, int(screen.height() * 0.92))
-        self.resize(width, height)
+        fit_to_screen(self, 1440, 900)
 
     def _build_layout(self) -> None:
         self.dot_plot = ChartTab("ReadingsDotPlot")
@@ -65,7 +132,10 @@ class WindowPanes:
         self.tabs.setTabToolTip(3, "How the result would be spread if the change did nothing, and where this one falls.")
         self.tabs.setTabToolTip(4, "The chance to find the shift, against the parts measured per group.")
 
-        right = QSplitter(Qt.Orientation.Vertical)
+        self.tabs.tabBar().setElideMode(Qt.TextElideMode.ElideNone)
+        self.rank_table.keep_rows_in_view(MINIMUM_RANK_ROWS)
+
+        self.right_panes = right = QSplitter(Qt.Orientation.Vertical)
         right.addWidget(self.results_panel)
         right.addWidget(self.tabs)
         right.setStretchFactor(0, 3)
@@ -74,16 +144,25 @@ class WindowPanes:
         right.setChildrenCollapsible(False)
 
         self.question_panel.setMinimumWidth(300)
-        main = QSplitter(Qt.Orientation.Horizontal)
-        main.addWidget(self.question_panel)
-        main.addWidget(sheet_box)
-        main.addWidget(right)
-        main.setStretchFactor(0, 0)
-        main.setStretchFactor(1, 2)
-        main.setStretchFactor(2, 3)
-        main.setSizes([310, 490, 640])
-        main.setChildrenCollapsible(False)
-        self.setCentralWidget(main)
+        self.question_box = QScrollArea()
+        self.question_box.setObjectName("questionBox")
+        self.question_box.setWidget(self.question_panel)
+        self.question_box.setWidgetResizable(True)
+        self.question_box.setFrameShape(QFrame.Shape.NoFrame)
+        self.question_box.setFocusPolicy(Qt.FocusPolicy.NoFocus)
+        self.question_box.setHorizontalScrollBarPolicy(Qt.ScrollBarPolicy.ScrollBarAlwaysOff)
+        self.question_box.setMinimumWidth(self.question_panel.minimumWidth() + 16)
+        self.sheet_box = sheet_box
+        self.folded_panes = QTabWidget()
+        self.folded_panes.setObjectName("questionAndReadings")
+        self.folded_panes.setAccessibleName("The question and the readings")
+        self.main_splitter = QSplitter(Qt.Orientation.Horizontal)
+        self.main_splitter.addWidget(self.folded_panes)
+        self.main_splitter.addWidget(right)
+        self.main_splitter.setChildrenCollapsible(False)
+        self.setCentralWidget(self.main_splitter)
+        self._narrow: bool | None = None
+        self._arrange_panes()
         self.status_counts = QLabel()
         self.status_counts.setAccessibleName("Readings per group")
         self.status_state = QLabel()
