@@ -15,6 +15,7 @@ from typing import TYPE_CHECKING
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.censored import check_mixed_limits
+from rankwise.readings.entry_counts import count_entries
 from rankwise.readings.group_names import next_group_names
 from rankwise.readings import decimal_mark
 from rankwise.readings.parse import check_decimal, parse_reading
@@ -216,16 +217,15 @@ class ReadingSheet:
         return flag_readings(column.cells, lsl=column.lsl, usl=column.usl, unit=column.unit)
 
     def counts(self, group: int) -> GroupCounts:
-        """How many readings of a group are used, skipped, censored, and how many blanks lie between them."""
-        cells = self.groups[self._group_index(group)].cells
-        tally = {kind: 0 for kind in CellKind}
-        for cell in cells:
-            tally[cell.kind] += 1
+        """How many readings of a group are used, skipped, censored, and how many blanks lie between them
+        (the count of ``rankwise.readings.entry_counts``, which the verdict shows)."""
+        column = self.groups[self._group_index(group)]
+        entries = count_entries(column.name, column.cells)
         return GroupCounts(
-            used=tally[CellKind.NUMBER],
-            skipped=tally[CellKind.NOTE] + tally[CellKind.INVALID],
-            censored=tally[CellKind.CENSORED],
-            blanks=tally[CellKind.EMPTY],
+            used=entries.readings - entries.censored,
+            skipped=len(entries.not_used),
+            censored=entries.censored,
+            blanks=entries.empty_between,
         )
 
     def skipped(self, group: int) -> list[SkippedCell]:

@@ -13,6 +13,8 @@ from PySide6.QtCore import QAbstractTableModel, QModelIndex, QObject, Qt
 from PySide6.QtGui import QBrush, QColor, QFont
 
 from rankwise.readings import CellKind, ReadingSheet
+from rankwise.readings.entry_counts import count_entries
+from rankwise.wording.entries import count_phrase
 
 SPARE_ROWS = 12
 """Empty rows kept below the longest column."""
@@ -176,10 +178,7 @@ class SheetModel(QAbstractTableModel):
 
     def _group_tooltip(self, section: int) -> str:
         group = self._sheet.groups[section]
-        counts = self._sheet.counts(section)
-        lines = [f"{group.name}: {counts.used} readings used, {counts.skipped} skipped"]
-        if counts.censored:
-            lines.append(f"{counts.censored} below a detection limit")
+        lines = [f"{group.name}: {count_phrase(count_entries(group.name, group.cells))}"]
         for label, value in (("Unit", group.unit), ("LSL", group.lsl), ("USL", group.usl), ("Nominal", group.nominal)):
             if value not in (None, ""):
                 lines.append(f"{label}: {value:g}" if isinstance(value, float) else f"{label}: {value}")

@@ -5,6 +5,8 @@ from __future__ import annotations
 from pathlib import Path
 
 from rankwise.readings import ReadingSheet
+from rankwise.readings.entry_counts import count_entries
+from rankwise.wording.entries import count_phrase
 
 
 class WindowSheet:
@@ -47,14 +49,8 @@ class WindowSheet:
 
     def _update_status(self) -> None:
         parts = []
-        for index, group in enumerate(self.sheet.groups):
-            counts = self.sheet.counts(index)
-            text = f"{group.name}: {counts.used} reading{'s' if counts.used != 1 else ''}"
-            if counts.skipped:
-                text += f", {counts.skipped} skipped"
-            if counts.censored:
-                text += f", {counts.censored} below a detection limit"
-            parts.append(text)
+        for group in self.sheet.groups:
+            parts.append(f"{group.name}: {count_phrase(count_entries(group.name, group.cells))}")
         self.status_counts.setText("   ·   ".join(parts) if parts else "No readings yet: type or paste them into the sheet.")
         self.status_decimal.setText(self.sheet.decimal_label)
         self.status_decimal.setToolTip(f"{self.sheet.decimal_status} Change it in Edit > Decimal separator.")

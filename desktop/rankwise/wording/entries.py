@@ -45,6 +45,16 @@ def count_sentence(entries: GroupEntries, question: Question) -> str:
     return f"{entries.name}: " + "; ".join(parts) + "."
 
 
+def count_phrase(entries: GroupEntries) -> str:
+    """ "7 readings used (1 below a detection limit), 1 entry not used": for the status line and tooltips."""
+    text = f"{_plural(entries.readings, 'reading')} used"
+    if entries.censored:
+        text += f" ({entries.censored} below a detection limit)"
+    if entries.not_used:
+        text += f", {_plural(len(entries.not_used), 'entry', 'entries')} not used"
+    return text
+
+
 def entry_notes(analysis: Analysis) -> tuple[str, ...]:
     """Per group with anything beyond plain readings: its count, then each entry not used and each
     flagged reading, once, with its row and text."""
