@@ -22,6 +22,7 @@ _MODULE_OF = {
     "critical_t": "paired",
     "plan_group_size": "planning",
     "plan_paired_size": "planning",
+    "plan_several_size": "planning",
     "simulate_paired_power": "planning",
     "simulate_power": "planning",
     "critical_u": "critical",
@@ -83,7 +84,13 @@ if TYPE_CHECKING:
     )
     from rankwise.stats.critical import critical_u
     from rankwise.stats.paired import compare_paired, critical_t
-    from rankwise.stats.planning import plan_group_size, plan_paired_size, simulate_paired_power, simulate_power
+    from rankwise.stats.planning import (
+        plan_group_size,
+        plan_paired_size,
+        plan_several_size,
+        simulate_paired_power,
+        simulate_power,
+    )
     from rankwise.stats.progress import Cancelled, Monitor
     from rankwise.stats.ranks import midranks
     from rankwise.stats.results import (
