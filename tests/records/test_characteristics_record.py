@@ -17,6 +17,7 @@ from rankwise.stats.results import Result
 from rankwise.wording import CAUTION_SHORT
 
 from record_builders import signoff
+from test_record_verify import edited_copy
 
 DEMO = Path(__file__).resolve().parents[2] / "demo_files" / "housing_two_dies.csv"
 CHOSEN = ["Bore depth", "Face flatness", "Mass", "Hardness"]
@@ -69,20 +70,12 @@ def test_the_sheets_hold_summary_details_and_readings(written):
     assert titles == [f"{name}: {die}" for name in CHOSEN for die in ("old die", "new die")]
 
 
-def _edited(path, tmp_path, edit):
-    book = load_workbook(path)
-    edit(book)
-    target = tmp_path / "edited.xlsx"
-    book.save(target)
-    return target
-
-
 def test_an_edited_reading_is_found(written, tmp_path):
     def edit(book):
         cell = book[READINGS_TITLE].cell(row=FIRST_ENTRY_ROW, column=2)
         cell.value = cell.value + 0.01
 
-    verification = verify_record(_edited(written[0], tmp_path, edit))
+    verification = verify_record(edited_copy(written[0], tmp_path, edit))
     assert verification.status == "changed"
 
 
@@ -92,7 +85,7 @@ def test_an_edited_adjusted_p_on_the_summary_is_found(written, tmp_path):
         target = next(c for row in sheet.iter_rows() for c in row if c.value == "moved down")
         target.value = "no change shown"
 
-    verification = verify_record(_edited(written[0], tmp_path, edit))
+    verification = verify_record(edited_copy(written[0], tmp_path, edit))
     assert verification.status == "changed"
     assert any("Summary" in difference for difference in verification.differences)
 

@@ -11,7 +11,7 @@ from PySide6.QtCore import QRectF, Qt
 from PySide6.QtGui import QPainter
 
 from rankwise.ui.printing.page_content import PageContent
-from rankwise.ui.printing.page_layout import FITS, MUTED_INK, PagePlan, _Composer
+from rankwise.ui.printing.page_layout import MUTED_INK, PagePlan, _Composer, draw_verdict_page
 from rankwise.ui.printing.page_text import line_height, page_font
 from rankwise.wording import QUESTION_TITLES, describe, describe_question, key_numbers
 from rankwise.wording.characteristics import BEYOND_LIMIT_SHORT, COLUMNS, SummaryLine, summary_lines
@@ -108,18 +108,6 @@ class _SummaryComposer(_Composer):
 
 def draw_characteristics_page(painter: QPainter, area: QRectF, record, fingerprint: str) -> PagePlan:
     """Draw the one-page summary verdict into ``area`` with the first arrangement that fits."""
-    content = characteristics_content(record, fingerprint)
     lines = summary_lines(record.result, record.analysis)
-    for fit in FITS:
-        composer = _SummaryComposer(painter, area, content, fit, lines)
-        bottom, footer_top = composer.compose(drawing=False)
-        room = footer_top - composer.pt(6)
-        if bottom <= room:
-            break
-    painter.save()
-    painter.setClipRect(area)
-    composer.compose(drawing=True)
-    painter.restore()
-    return PagePlan(fit=fit, fits=bottom <= room, used_height=bottom - area.top(),
-                    available_height=room - area.top())
-
+    return draw_verdict_page(painter, area, characteristics_content(record, fingerprint),
+                             lambda *arguments: _SummaryComposer(*arguments, lines))

@@ -366,14 +366,16 @@ class _Composer:
         return top
 
 
-def draw_verdict_page(painter: QPainter, area: QRectF, content: PageContent) -> PagePlan:
+def draw_verdict_page(painter: QPainter, area: QRectF, content: PageContent, composer_class=None) -> PagePlan:
     """Draw the one-page verdict into ``area`` (device pixels) with the first arrangement that fits.
 
     When even the most compact arrangement is too tall (not seen with the content Rankwise
     produces, but guarded), it is drawn clipped to ``area``: the page never spills onto a second one.
+    ``composer_class`` (painter, area, content, fit) lays out a page of another kind (the summary of
+    many characteristics); by default the verdict page.
     """
     for fit in FITS:
-        composer = _Composer(painter, area, content, fit)
+        composer = (composer_class or _Composer)(painter, area, content, fit)
         bottom, footer_top = composer.compose(drawing=False)
         room = footer_top - composer.pt(6)
         if bottom <= room:
