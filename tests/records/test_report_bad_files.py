@@ -53,3 +53,21 @@ def test_report_exits_2_with_a_plain_message(tmp_path, kind):
     message = done.stderr.strip()
     assert message.startswith("rankwise: ") and message.endswith(".") and "Traceback" not in message, message
     assert not (tmp_path / "out.xlsx").exists()
+
+
+@pytest.mark.parametrize("kind", ["far.xlsx", "bomb.xlsx"])
+def test_verify_says_not_a_record_before_reading_a_hostile_workbook(tmp_path, kind):
+    path = tmp_path / kind
+    if kind == "far.xlsx":
+        far_workbook(path)
+    else:
+        import zipfile
+
+        with zipfile.ZipFile(path, "w", zipfile.ZIP_DEFLATED) as archive:
+            archive.writestr("xl/workbook.xml", "<workbook/>")
+            archive.writestr("xl/sharedStrings.xml", b"<sst>" + bytes(30_000_000) + b"</sst>")
+    env = dict(os.environ, PYTHONPATH=str(ROOT / "desktop"))
+    done = subprocess.run([sys.executable, "-m", "rankwise", "verify", str(path)],
+                          capture_output=True, text=True, env=env, cwd=ROOT, check=False, timeout=300)
+    assert done.returncode == 2, done.stderr[-2000:]
+    assert "not a Rankwise record" in done.stderr or "cannot be read" in done.stderr, done.stderr

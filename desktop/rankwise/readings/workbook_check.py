@@ -97,8 +97,33 @@ class WorkbookCheck:
         return max(self.extents.values(), key=lambda e: (bool(e.damaged), e.cells, e.filled), default=SheetExtent())
 
 
+_RECENT: dict[tuple[str, int, int], WorkbookCheck] = {}
+"""The last few workbooks measured, by path, size and change time: a file opened twice in a row
+(is it a record? then its readings) is measured once."""
+
+
 def check_workbook(path: Path) -> WorkbookCheck:
     """Measure every part of the workbook at ``path``; refuse a damaged or suspicious one with a plain sentence."""
+    try:
+        status = path.stat()
+        key = (str(path.resolve()), status.st_size, status.st_mtime_ns)
+    except OSError as error:
+        raise damaged(path) from error
+    if key in _RECENT:
+        return _RECENT[key]
+    check = _measure(path)
+    if len(_RECENT) >= 4:
+        _RECENT.pop(next(iter(_RECENT)))
+    _RECENT[key] = check
+    return check
+
+
+def within_limits(check: WorkbookCheck) -> bool:
+    """True when no sheet of the workbook is damaged or spans more cells than a readings export holds."""
+    return all(not e.damaged and e.cells <= MAX_SHEET_CELLS and e.filled <= MAX_SHEET_CELLS for e in check.extents.values())
+
+
+def _measure(path: Path) -> WorkbookCheck:
     try:
         with zipfile.ZipFile(path) as archive:
             members = archive.infolist()

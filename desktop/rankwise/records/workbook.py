@@ -12,6 +12,8 @@ from typing import Any
 
 from openpyxl import Workbook, load_workbook
 
+from rankwise.readings.errors import ReadingsError
+from rankwise.readings.workbook_check import check_workbook, within_limits
 from rankwise.records.atomic import write_atomically
 from rankwise.records.canonical import canonical_bytes, sha256_hex
 from rankwise.records.characteristics_sheets import fill_characteristics_workbook
@@ -146,11 +148,22 @@ def write_record(path: str | os.PathLike[str], record: ResultRecord, *, overwrit
         raise RecordError(f"The result could not be saved to '{target}': {error.strerror or error}.") from error
 
 
+def _measured_first(path: str | os.PathLike[str]) -> bool:
+    """True when the workbook is fit to be read at all: its parts unpack as declared and no sheet is
+    damaged or vast (``rankwise.readings.workbook_check``, before openpyxl sees it)."""
+    try:
+        return within_limits(check_workbook(Path(path)))
+    except ReadingsError:
+        return False
+
+
 def is_record_file(path: str | os.PathLike[str]) -> bool:
     """True when ``path`` is a workbook holding a Rankwise record's program data (signed or not,
     intact or not), whatever its file name ends with; False for anything else, including files
     that cannot be read."""
     try:
+        if not _measured_first(path):
+            return False
         with open(path, "rb") as file:
             workbook = load_workbook(file, read_only=True)
             try:
@@ -187,6 +200,8 @@ def resaved_by(path: str | os.PathLike[str]) -> str | None:
 
 def load_workbook_safely(path: str | os.PathLike[str]) -> Workbook:
     """Open a workbook, or raise ``RecordError`` in plain words when it cannot be read as one."""
+    if Path(path).is_file() and not _measured_first(path):
+        raise RecordError(f"'{Path(path).name}' cannot be read as a workbook; it is not a Rankwise record.")
     try:
         return load_workbook(path)
     except FileNotFoundError as error:
