@@ -270,3 +270,24 @@ def test_power_curve_marks_the_target_and_the_planned_size(chart):
     result, analysis = paired_case()
     chart.show_result(result, analysis)
     assert "how many parts" in chart.note()
+
+
+@pytest.mark.parametrize("chart", [ReadingsDotPlot], indirect=True)
+def test_a_large_group_shows_an_even_sample_of_its_readings_and_says_so(chart):
+    from rankwise.ui.charts.dot_plot import DOT_LIMIT
+
+    generator = np.random.default_rng(5)
+    large = tuple(np.round(generator.normal(12.5, 0.4, 50 * DOT_LIMIT), 2))
+    small = tuple(np.round(generator.normal(12.6, 0.4, 30), 2))
+    groups = (GroupReadings("Press 1", large, "kN", None, None, None, 2),
+              GroupReadings("Press 2", small, "kN", None, None, None, 2))
+    analysis = Analysis(Question.TWO_GROUPS, groups, Settings())
+    chart.show_result(compare_two(large, small, name_a="Press 1", name_b="Press 2", method="normal"), analysis)
+    save(chart, "dots-large-group")
+    _, drawn = chart._dots[0].getData()
+    assert len(drawn) == DOT_LIMIT and len(chart._dots[1].getData()[1]) == 30
+    assert drawn.min() == min(large) and drawn.max() == max(large)  # the ends are always drawn
+    # An even sample in order of size: its median is the group's median (common practice, no source).
+    assert np.median(drawn) == pytest.approx(np.median(large), abs=0.01)
+    assert "even sample" in chart.plot_item.getAxis("bottom").labelText
+    assert chart.dot_tip(0.02, 12.5) == "Press 1: 12.50 kN"

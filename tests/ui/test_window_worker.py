@@ -8,6 +8,7 @@ from PySide6.QtCore import QCoreApplication
 
 from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
 from rankwise.ui.worker import AnalysisRunner
+from window_support import answers, wait_for_verdict, window  # noqa: F401 - pytest fixtures
 
 
 def _paired(shift: float) -> Analysis:
@@ -57,3 +58,29 @@ def test_readings_the_statistics_refuse_come_back_as_a_problem_in_words(qtbot):
         runner.request_now(uneven)
     assert signal.args[0] and "Traceback" not in signal.args[0]
     assert not runner.busy
+
+
+def test_a_large_sheet_is_read_into_its_analysis_on_the_worker(qtbot, window, monkeypatch):
+    """Past LARGE_SHEET_CELLS the window hands the worker a copy of the sheet; the verdict is the
+    same as when the window reads the sheet itself (the same readings, the same analysis)."""
+    import rankwise.ui.window_analysis as window_analysis
+    from rankwise.readings import ReadingSheet
+
+    threads = []
+    real_to_analysis = ReadingSheet.to_analysis
+
+    def watched(sheet, *args, **kwargs):
+        threads.append(threading.current_thread())
+        return real_to_analysis(sheet, *args, **kwargs)
+
+    window.grid.paste_text("".join(f"0,{40 + i % 9}\t0,{43 + i % 7}\n" for i in range(40)))
+    wait_for_verdict(qtbot, window)
+    small_path = window.last_result
+    monkeypatch.setattr(ReadingSheet, "to_analysis", watched)
+    monkeypatch.setattr(window_analysis, "LARGE_SHEET_CELLS", 10)
+    window.last_result = None
+    window.question_panel.select_option("b-higher")
+    window.question_panel.select_option("differ")
+    wait_for_verdict(qtbot, window)
+    assert threads and all(thread is not threading.main_thread() for thread in threads)
+    assert window.last_result.p_value == small_path.p_value and window.last_result.u == small_path.u

@@ -57,6 +57,8 @@ class MainWindow(WindowPanes, WindowMenus, WindowKeyboard, WindowSheet, WindowGr
         self.recovery = recovery if recovery is not None else RecoveryFile.for_new_window()
         self.source_path: Path | None = None
         self.restored_unsaved = False
+        self.opening = None
+        """The ``FileOpening`` of a large file being read, or None."""
         self.restored_windows: list[MainWindow] = []
         """Further windows opened at start for entries restored beyond the first."""
         self.last_result = None

@@ -7,7 +7,11 @@ same-parts question it lists the differences ranked by size with their signs.
 
 from __future__ import annotations
 
+import functools
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
+
+import numpy as np
 
 from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt
 from PySide6.QtGui import QBrush, QColor, QFont
@@ -47,75 +51,104 @@ def _bracket(position: int, count: int) -> str:
     return "└" if position == count - 1 else "│"
 
 
-def _tie_columns(sorted_keys: list[float], blocks: dict[float, TieBlock], mark: str) -> list[tuple[str, str, int]]:
-    """For keys sorted ascending: (bracket mark, words, block number) per row; number 0 = no tie."""
-    out: list[tuple[str, str, int]] = []
-    position = 0
-    block_number = 0
-    previous = None
-    for key in sorted_keys:
-        block = blocks.get(key)
-        if block is None:
-            out.append(("", "", 0))
-            previous = None
-            continue
-        if key != previous:
-            block_number += 1
-            position = 0
-        out.append((_bracket(position, block.count), _tie_words(block, mark), block_number))
-        position += 1
-        previous = key
-    return out
+class RankRows(Sequence):
+    """Rows of the rank table, worded only when they are looked at.
+
+    A 10^6-reading result gives 10^6 rows; sorting and finding the tie blocks is done once with
+    numpy arrays, and each row's texts are made when the table (or a test) asks for that row.
+    """
+
+    def __init__(self, count: int, make: Callable[[int], RankRow]) -> None:
+        self._count = count
+        self._make = functools.lru_cache(maxsize=1024)(make)  # a painted row is asked for once per role
+
+    def __len__(self) -> int:
+        return self._count
+
+    def __getitem__(self, position):
+        if isinstance(position, slice):
+            return [self[i] for i in range(*position.indices(self._count))]
+        if position < 0:
+            position += self._count
+        if not 0 <= position < self._count:
+            raise IndexError(position)
+        return self._make(position)
+
+
+def _tie_positions(sorted_keys: np.ndarray, tied_keys: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """For keys sorted ascending: each row's place in its tie block, and the block's number
+    (counting tie blocks from 1; 0 for a reading that ties with none)."""
+    tied = np.isin(sorted_keys, tied_keys)
+    first = np.searchsorted(sorted_keys, sorted_keys, side="left")
+    starts = tied & (np.arange(sorted_keys.size) == first)
+    return np.arange(sorted_keys.size) - first, np.where(tied, np.cumsum(starts), 0)
+
+
+def _tie_cells(block: TieBlock | None, place: int, number: int, mark: str) -> tuple[str, str, int]:
+    """The tie column of a row: bracket mark, words, block number ("", "", 0 without a tie)."""
+    if block is None:
+        return "", "", 0
+    return _bracket(place, block.count), _tie_words(block, mark), number
 
 
 def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...],
                     ranks: tuple[tuple[float, ...], ...], tie_blocks: tuple[TieBlock, ...],
-                    decimals: int | None, mark: str = ".") -> list[RankRow]:
+                    decimals: int | None, mark: str = ".") -> RankRows:
     """Combined sorted readings of independent groups: position, group, reading, rank, tie
-    (numbers written with the decimal ``mark``)."""
-    entries = sorted(
-        ((rank, value, group, row) for group, (vals, rks) in enumerate(zip(values, ranks))
-         for row, (value, rank) in enumerate(zip(vals, rks))),
-        key=lambda entry: (entry[0], entry[2], entry[3]),
-    )
+    (numbers written with the decimal ``mark``); ordered by rank, then group, then entry."""
+    all_values = np.concatenate([np.asarray(v, dtype=float) for v in values]) if values else np.empty(0)
+    all_ranks = np.concatenate([np.asarray(r, dtype=float) for r in ranks]) if ranks else np.empty(0)
+    group_of = np.concatenate([np.full(len(v), g) for g, v in enumerate(values)]) if values else np.empty(0, int)
+    entry_of = np.concatenate([np.arange(len(v)) for v in values]) if values else np.empty(0, int)
+    order = np.lexsort((entry_of, group_of, all_ranks))
+    sorted_ranks = all_ranks[order]
     by_rank = {block.mid_rank: block for block in tie_blocks}
-    ties = _tie_columns([entry[0] for entry in entries], by_rank, mark)
-    rows = []
-    for position, ((rank, value, group, row), (bracket, words, number)) in enumerate(zip(entries, ties), start=1):
-        reading = format_reading(value, decimals, mark)
+    place, number = _tie_positions(sorted_ranks, np.array(sorted(by_rank), dtype=float))
+
+    def make(position: int) -> RankRow:
+        index = order[position]
+        rank, group, row = float(all_ranks[index]), int(group_of[index]), int(entry_of[index])
+        bracket, words, block_number = _tie_cells(by_rank.get(rank), int(place[position]), int(number[position]), mark)
+        reading = format_reading(float(all_values[index]), decimals, mark)
         rank_text = format_count(rank, mark)
-        rows.append(RankRow(
-            cells=(str(position), names[group], reading, rank_text),
-            tie_mark=bracket, tie_text=words, block_number=number,
+        return RankRow(
+            cells=(str(position + 1), names[group], reading, rank_text),
+            tie_mark=bracket, tie_text=words, block_number=block_number,
             tooltip=f"{names[group]}, reading {row + 1} of that group: {reading}, rank {rank_text}"
                     + (f"; {words}" if words else ""),
-        ))
-    return rows
+        )
+
+    return RankRows(int(order.size), make)
 
 
-def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") -> list[RankRow]:
+def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") -> RankRows:
     """Differences of the same parts, ranked by size: pair, before, after, difference, signed rank
     (numbers written with the decimal ``mark``)."""
-    entries = sorted(
-        range(len(result.differences)),
-        key=lambda i: (abs(result.signed_ranks[i]) if result.signed_ranks[i] else 0.0, abs(result.differences[i]), i),
-    )
+    signed = np.asarray(result.signed_ranks, dtype=float)
+    differences = np.asarray(result.differences, dtype=float)
+    size_of_rank = np.abs(signed)
+    order = np.lexsort((np.arange(signed.size), np.abs(differences), size_of_rank))
+    sorted_keys = size_of_rank[order]
     by_rank = {block.mid_rank: block for block in result.tie_blocks}
-    ties = _tie_columns([abs(result.signed_ranks[i]) for i in entries], by_rank, mark)
-    rows = []
-    for i, (bracket, words, number) in zip(entries, ties):
-        signed = result.signed_ranks[i]
+    place, number = _tie_positions(sorted_keys, np.array(sorted(by_rank), dtype=float))
+
+    def make(position: int) -> RankRow:
+        i = int(order[position])
+        bracket, words, block_number = _tie_cells(by_rank.get(float(sorted_keys[position])), int(place[position]),
+                                                  int(number[position]), mark)
+        signed_rank = result.signed_ranks[i]
         difference = format_reading(result.differences[i], decimals, mark)
-        rank_text = "not ranked (no difference)" if signed == 0 else (
-            ("+" if signed > 0 else "−") + format_count(abs(signed), mark))
-        rows.append(RankRow(
+        rank_text = "not ranked (no difference)" if signed_rank == 0 else (
+            ("+" if signed_rank > 0 else "−") + format_count(abs(signed_rank), mark))
+        return RankRow(
             cells=(str(i + 1), format_reading(result.values_a[i], decimals, mark),
                    format_reading(result.values_b[i], decimals, mark), difference, rank_text),
-            tie_mark=bracket, tie_text=words, block_number=number,
+            tie_mark=bracket, tie_text=words, block_number=block_number,
             tooltip=f"Pair {i + 1}: {result.name_b} minus {result.name_a} = {difference}; signed rank {rank_text}"
                     + (f"; {words}" if words else ""),
-        ))
-    return rows
+        )
+
+    return RankRows(int(order.size), make)
 
 
 class RankTableModel(QAbstractTableModel):
@@ -124,10 +157,10 @@ class RankTableModel(QAbstractTableModel):
     def __init__(self, parent=None) -> None:
         super().__init__(parent)
         self._headers: tuple[str, ...] = ()
-        self._rows: list[RankRow] = []
+        self._rows: Sequence[RankRow] = ()
         self._numeric: frozenset[int] = frozenset()
 
-    def set_rows(self, headers: tuple[str, ...], rows: list[RankRow], numeric_columns: frozenset[int] = frozenset()) -> None:
+    def set_rows(self, headers: tuple[str, ...], rows: Sequence[RankRow], numeric_columns: frozenset[int] = frozenset()) -> None:
         """Replace the table's contents; ``numeric_columns`` are right-aligned."""
         self.beginResetModel()
         self._headers = (*headers, "Tie") if headers else ()

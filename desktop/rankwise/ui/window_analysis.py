@@ -6,16 +6,45 @@ result is worded once (``rankwise.wording``) and shown in the results panel, ran
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import replace
 
-from rankwise.readings import ReadingsError
+from rankwise.readings import ReadingSheet, ReadingsError, SheetSnapshot
 from rankwise.readings.censored import MixedLimitsError
 from rankwise.readings.for_analysis import build_analysis as analysis_of_columns
 from rankwise.stats.analysis import Analysis, Question
 
 PROGRESS_DELAY_MS = 250
 """A calculation shows its progress strip only when it takes longer than this."""
+
+LARGE_SHEET_CELLS = 50_000
+"""A sheet with more cells is read into an analysis on the worker, not on the window's thread."""
+
+
+def analysis_for(sheet: ReadingSheet, choice) -> Analysis:
+    """The analysis ``sheet`` and the question ``choice`` ask for; the reason it cannot be made
+    yet raises ``ReadingsError`` (``MixedLimitsError`` for readings below different limits)."""
+    if choice.question is Question.PLAN and not choice.group_indices:
+        return replace(analysis_of_columns((), choice.question, choice.settings, decimal=sheet.decimal),
+                       notes=choice.notes)
+    analysis = sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
+    if sheet.decimal != "auto":  # the sheet reads one stated mark: numbers are shown with it
+        analysis = replace(analysis, decimal_mark=sheet.decimal)
+    if choice.notes:  # e.g. where a plan's starting values came from, kept in the record
+        analysis = replace(analysis, notes=(*analysis.notes, *choice.notes))
+    empty = [group.name for group in analysis.groups if not any(math.isfinite(v) for v in group.values)]
+    if choice.question is not Question.PLAN and empty:
+        if len(empty) == len(analysis.groups):
+            raise ReadingsError("Type or paste the readings into the sheet, one column per group, "
+                                "or open a file with File > Open readings (Ctrl+O).")
+        raise ReadingsError(f"{empty[0]} has no readings yet: type or paste them into its column.")
+    return analysis
+
+
+def analysis_of_copy(snapshot: SheetSnapshot, choice) -> Analysis:
+    """``analysis_for`` a copy of the sheet (runs on the worker thread; the copy cannot change)."""
+    return analysis_for(ReadingSheet.from_snapshot(snapshot), choice)
 
 
 class WindowAnalysis:
@@ -30,30 +59,25 @@ class WindowAnalysis:
         choice = self.question_panel.choice()
         if choice.problem:
             return None, choice.problem
-        if choice.question is Question.PLAN and not choice.group_indices:
-            return replace(analysis_of_columns((), choice.question, choice.settings, decimal=self.sheet.decimal),
-                           notes=choice.notes), ""
         try:
-            analysis = self.sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
+            return analysis_for(self.sheet, choice), ""
         except MixedLimitsError as error:
             self.mixed_limits_problem = error
             return None, str(error)
         except ReadingsError as error:
             return None, str(error)
-        if self.sheet.decimal != "auto":  # the sheet reads one stated mark: numbers are shown with it
-            analysis = replace(analysis, decimal_mark=self.sheet.decimal)
-        if choice.notes:  # e.g. where a plan's starting values came from, kept in the record
-            analysis = replace(analysis, notes=(*analysis.notes, *choice.notes))
-        empty = [group.name for group in analysis.groups if not any(math.isfinite(v) for v in group.values)]
-        if choice.question is not Question.PLAN and empty:
-            if len(empty) == len(analysis.groups):
-                return None, ("Type or paste the readings into the sheet, one column per group, "
-                              "or open a file with File > Open readings (Ctrl+O).")
-            return None, f"{empty[0]} has no readings yet: type or paste them into its column."
-        return analysis, ""
 
     def request_analysis(self, immediately: bool = False) -> None:
-        """Recompute after an edit (debounced) or at once (after opening or a question change)."""
+        """Recompute after an edit (debounced) or at once (after opening or a question change).
+
+        A large sheet (more than ``LARGE_SHEET_CELLS`` cells) is read into an analysis on the worker,
+        from a copy of the sheet taken now, so that the window never waits for it."""
+        if sum(len(group.cells) for group in self.sheet.groups) > LARGE_SHEET_CELLS:
+            choice = self.question_panel.choice()
+            if not choice.problem:
+                job = functools.partial(analysis_of_copy, self.sheet.snapshot(), choice)
+                self.runner.request_now(job) if immediately else self.runner.request(job)
+                return
         analysis, reason = self.build_analysis()
         if analysis is None:
             self.runner.discard_pending()
@@ -109,6 +133,7 @@ class WindowAnalysis:
     def _on_result_ready(self, result, analysis) -> None:
         from rankwise.wording import describe, key_numbers
 
+        self.question_panel.set_decimal_mark(analysis.decimal_mark)
         self._calculation_ended()
         self.last_result = result
         self.last_analysis = analysis

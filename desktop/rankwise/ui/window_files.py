@@ -2,7 +2,10 @@
 
 from __future__ import annotations
 
+import threading
 from pathlib import Path
+
+from PySide6.QtCore import QObject, Signal
 
 import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError
@@ -22,6 +25,51 @@ def demo_folder() -> Path:
 def empty_sheet() -> ReadingSheet:
     """A new entry: two empty groups, A (the reference) and B (the changed process)."""
     return ReadingSheet([GroupColumn("A"), GroupColumn("B")])
+
+
+LARGE_FILE_BYTES = 2_000_000
+"""A file larger than this opens on a thread of its own (the window keeps answering meanwhile)."""
+
+
+def _sheet_of(reading_set) -> ReadingSheet:
+    sheet = ReadingSheet.from_reading_set(reading_set)
+    sheet.mark_saved()
+    return sheet
+
+
+class FileOpening(QObject):
+    """Reads a large file into a sheet on a thread of its own.
+
+    Signals:
+        opened(object, object): the ``ReadingSet`` read and the ``ReadingSheet`` built from it.
+        failed(str): the plain-words reason the file cannot be opened.
+    """
+
+    opened = Signal(object, object)
+    failed = Signal(str)
+
+    def __init__(self, path: Path, parent: QObject | None = None) -> None:
+        super().__init__(parent)
+        self.path = path
+        self._thread = threading.Thread(target=self._read, name="rankwise-open", daemon=True)
+
+    def start(self) -> None:
+        """Begin reading; one of the signals follows."""
+        self._thread.start()
+
+    def _read(self) -> None:
+        from rankwise.readings.open import open_readings
+
+        try:
+            reading_set = open_readings(self.path)
+            sheet = _sheet_of(reading_set)
+        except ReadingsError as error:
+            self.failed.emit(str(error))
+        except OSError as error:
+            self.failed.emit(f"The file cannot be read ({error.strerror or error}). Check that it is there and not open "
+                             "in another program.")
+        else:
+            self.opened.emit(reading_set, sheet)
 
 
 class WindowFiles:
@@ -77,6 +125,13 @@ class WindowFiles:
                 remember_file(path)
             return many
 
+        if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
+            self.opening = FileOpening(path, self)
+            self.opening.opened.connect(self._on_file_opened)
+            self.opening.failed.connect(self._on_file_failed)
+            self.statusBar().showMessage(f"Opening {path.name}…")
+            self.opening.start()
+            return True
         try:
             reading_set = OpenReadingsDialog.ask(self, path) if show_dialog else open_readings(path)
         except ReadingsError as error:
@@ -88,10 +143,20 @@ class WindowFiles:
         remember_file(path)
         return True
 
-    def load_reading_set(self, reading_set, path: Path) -> None:
-        """Put opened readings into the sheet and analyse them."""
-        sheet = ReadingSheet.from_reading_set(reading_set)
-        sheet.mark_saved()
+    def _on_file_opened(self, reading_set, sheet: ReadingSheet) -> None:
+        path, self.opening = self.opening.path, None
+        self.load_reading_set(reading_set, path, sheet)
+        remember_file(path)
+
+    def _on_file_failed(self, message: str) -> None:
+        self.opening = None
+        self.statusBar().clearMessage()
+        dialogs.show_problem(self, "Cannot open the file", message)
+
+    def load_reading_set(self, reading_set, path: Path, sheet: ReadingSheet | None = None) -> None:
+        """Put opened readings into the sheet (``sheet``: already built from them) and analyse them."""
+        if sheet is None:
+            sheet = _sheet_of(reading_set)
         several = len(sheet.groups) >= 3
         if several != (self.question_panel.option.question is Question.SEVERAL):
             self.question_panel.select_option("several" if several else "differ")

@@ -50,14 +50,18 @@ class _AnalysisJob(QRunnable):
         """Compute on the worker thread; report only through signals."""
         from rankwise.stats.progress import Cancelled, Monitor
 
+        from rankwise.readings import ReadingsError
+
         monitor = Monitor(progress=self._report, cancelled=self.stop_requested.is_set)
         try:
             from rankwise.stats.service import run
 
+            if callable(self.analysis):  # a large sheet's copy, read into an analysis here
+                self.analysis = self.analysis()
             result = run(self.analysis, monitor)
         except Cancelled:
             self.signals.cancelled.emit(self.generation)
-        except ValueError as error:
+        except (ValueError, ReadingsError) as error:
             self.signals.failed.emit(self.generation, str(error))
         except Exception as error:  # noqa: BLE001 - any failure must reach the screen, not kill the thread
             self.signals.failed.emit(
@@ -109,7 +113,8 @@ class AnalysisRunner(QObject):
         return self._running is not None or self._timer.isActive()
 
     def request(self, analysis: object) -> None:
-        """Analyse ``analysis`` after the debounce delay; a newer request replaces it."""
+        """Analyse ``analysis`` after the debounce delay; a newer request replaces it. ``analysis``
+        may also be a function that makes the analysis: it is then called on the worker thread."""
         self._pending = analysis
         self._timer.start()
 

@@ -18,6 +18,10 @@ NAME_CHARACTERS = 22
 """Group names longer than this are shortened under the axis (the full name is in the tooltip)."""
 PIXELS_PER_CHARACTER = 7.5
 """Rough width of one character of the axis font, to decide how much of a name fits under a column."""
+DOT_LIMIT = 4000
+"""A group with more readings shows this many dots: an even sample of its readings in order of size
+(for the same parts measured twice, every k-th part), so that a 10^6-reading export draws at once.
+The median bars, the limits and the rank table still use every reading."""
 
 TOOLTIP = (
     "Each dot is one reading; equal readings sit side by side so that every reading shows. "
@@ -29,6 +33,21 @@ TOOLTIP = (
 def shorten(name: str, characters: int = NAME_CHARACTERS) -> str:
     """``name`` cut to ``characters`` with an ellipsis when longer."""
     return name if len(name) <= characters else name[: characters - 1].rstrip() + "…"
+
+
+def dots_to_draw(values: tuple[tuple[float, ...], ...], paired: bool) -> list[np.ndarray]:
+    """The readings drawn as dots per group: all of them, or ``DOT_LIMIT`` of a larger group, taken
+    evenly from its readings in order of size (its smallest and largest included); for the same
+    parts measured twice, the same parts from both groups, evenly in entry order."""
+    arrays = [np.asarray(group, dtype=float) for group in values]
+    if paired:
+        count = min((array.size for array in arrays), default=0)
+        if count > DOT_LIMIT:
+            picks = np.linspace(0, count - 1, DOT_LIMIT).round().astype(int)
+            return [array[picks] for array in arrays]
+        return arrays
+    return [np.sort(array)[np.linspace(0, array.size - 1, DOT_LIMIT).round().astype(int)]
+            if array.size > DOT_LIMIT else array for array in arrays]
 
 
 class ReadingsDotPlot(ChartFrame):
@@ -78,7 +97,7 @@ class ReadingsDotPlot(ChartFrame):
                 size=style.MARKER_SIZE,
                 **style.group_marker(number),
                 hoverable=True,
-                tip=lambda x, y, data: f"{data}",
+                tip=lambda x, y, data: self.dot_tip(x, y),
             )
             dots.setZValue(10)
             self.plot_item.addItem(dots)
@@ -104,21 +123,30 @@ class ReadingsDotPlot(ChartFrame):
         if view is None:
             return
         self.view = view
+        drawn = dots_to_draw(view.values, view.paired)
         positions = []
-        for index, (name, values) in enumerate(zip(view.names, view.values)):
+        for index, values in enumerate(drawn):
             x = index + stacked_offsets(values, spacing=TIE_SPACING, half_width=MEDIAN_HALF_WIDTH - 0.04)
             positions.append(x)
-            tips = [f"{name}: {view.format(value)}" + (f" {view.unit}" if view.unit else "") for value in values]
-            self._dots_for(index).setData(x=x, y=np.asarray(values, dtype=float), data=tips)
+            self._dots_for(index).setData(x=x, y=values)
         for dots in self._dots[len(view.names):]:
             dots.setData([], [])
         self._draw_medians(view)
-        self._draw_pairs(view, positions)
+        self._draw_pairs(drawn, view.paired, positions)
         self._draw_limits(view)
         self._update_ticks()
-        self._label_axes(bottom="Group", left=view.axis_label())
+        sampled = any(len(values) > DOT_LIMIT for values in view.values)
+        self._label_axes(bottom=f"Group (dots: an even sample of {DOT_LIMIT:,} readings per large group)"
+                         if sampled else "Group", left=view.axis_label())
         self._set_legend([(self._medians, "median")])
         self._fit_range(view)
+
+    def dot_tip(self, x: float, y: float) -> str:
+        """The words shown when the pointer rests on a dot: its group and its reading."""
+        if self.view is None:
+            return ""
+        name = self.view.names[min(max(int(round(x)), 0), len(self.view.names) - 1)]
+        return f"{name}: {self.view.format(y)}" + (f" {self.view.unit}" if self.view.unit else "")
 
     def tick_labels(self) -> list[str]:
         """The labels under the columns: number and name, shortened to the room each column has."""
@@ -150,13 +178,13 @@ class ReadingsDotPlot(ChartFrame):
             y += [median, median]
         self._medians.setData(np.asarray(x), np.asarray(y))
 
-    def _draw_pairs(self, view: ReadingsView, positions) -> None:
+    def _draw_pairs(self, drawn: list[np.ndarray], paired: bool, positions) -> None:
         """Thin lines joining each part's two readings (same parts measured twice only)."""
-        if not view.paired:
+        if not paired:
             self._pair_lines.setData([], [])
             return
         x = np.column_stack((positions[0], positions[1])).ravel()
-        y = np.column_stack((view.values[0], view.values[1])).ravel()
+        y = np.column_stack((drawn[0], drawn[1])).ravel()
         self._pair_lines.setData(x, y)
 
     def _draw_limits(self, view: ReadingsView) -> None:
@@ -170,8 +198,8 @@ class ReadingsDotPlot(ChartFrame):
 
     def _fit_range(self, view: ReadingsView) -> None:
         """Show every reading and every limit that is set, with a margin."""
-        numbers = [v for group in view.values for v in group]
-        numbers += [v for v in (view.lsl, view.usl, view.nominal) if v is not None]
+        ends = [float(f(np.asarray(group, dtype=float))) for group in view.values if len(group) for f in (np.min, np.max)]
+        numbers = ends + [v for v in (view.lsl, view.usl, view.nominal) if v is not None]
         low, high = min(numbers), max(numbers)
         pad = (high - low) * 0.08 or max(abs(high) * 0.05, 1e-6)
         self.plot_item.setRange(xRange=(-0.6, len(view.names) - 0.4),

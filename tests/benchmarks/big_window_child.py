@@ -1,0 +1,123 @@
+"""One measured run of the window on a big stacked export, in a process of its own (run by bench_window.py).
+
+    python big_window_child.py FILE [--profile OUT.pstats]
+
+A QTimer heartbeat every 5 ms records how long the window's event loop went without turning; the
+run opens FILE in the window, waits for the verdict, shows the rank table and the dot plot, types
+one reading, and waits for the updated verdict. It prints one line of JSON: the longest stall of
+each step, the time to each verdict, and the peak memory of the process (ru_maxrss).
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import resource
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
+
+from PySide6.QtCore import QEventLoop, QTimer  # noqa: E402
+from PySide6.QtWidgets import QApplication  # noqa: E402
+
+HEARTBEAT_MS = 5
+
+
+class Heartbeat:
+    """Records the gaps between the turns of the event loop (a stall is a long gap)."""
+
+    def __init__(self) -> None:
+        self.timer = QTimer(interval=HEARTBEAT_MS)
+        self.timer.timeout.connect(self._beat)
+        self.last = time.perf_counter()
+        self.longest = 0.0
+        self.timer.start()
+
+    def _beat(self) -> None:
+        now = time.perf_counter()
+        self.longest = max(self.longest, now - self.last)
+        self.last = now
+
+    def step(self) -> float:
+        """The longest gap since the last call, in ms (the gap running into this call counts too)."""
+        self._beat()
+        longest, self.longest = self.longest, 0.0
+        return longest * 1000.0
+
+
+def wait(condition, timeout_s: float = 600.0) -> None:
+    """Turn the event loop until ``condition()`` holds (the heartbeat keeps beating meanwhile)."""
+    loop = QEventLoop()
+    poll = QTimer(interval=HEARTBEAT_MS)
+    poll.timeout.connect(lambda: loop.quit() if condition() else None)
+    poll.start()
+    deadline = time.perf_counter() + timeout_s
+    while not condition():
+        loop.exec()
+        if time.perf_counter() > deadline:
+            raise TimeoutError("the window did not get there in time")
+    poll.stop()
+
+
+def measure(path: Path) -> dict:
+    from rankwise.ui import dialogs
+    from rankwise.ui.main_window import MainWindow
+    from rankwise.ui.recovery import RecoveryFile
+
+    dialogs.ask_keep_changes = lambda parent, text: "discard"
+    window = MainWindow(recovery=RecoveryFile.for_new_window(Path(tempfile.mkdtemp(prefix="rankwise-bench-"))))
+    window.resize(1440, 900)
+    window.show()
+    shown: list[object] = []
+    window.runner.result_ready.connect(lambda result, analysis: shown.append(result))
+    heartbeat = Heartbeat()
+    wait(lambda: window.isVisible())
+    heartbeat.step()
+    figures: dict[str, float] = {}
+
+    start = time.perf_counter()
+    window.open_path(path)
+    wait(lambda: bool(shown) and not window.runner.busy and getattr(window, "opening", None) is None)
+    figures["open_to_verdict_s"] = time.perf_counter() - start
+    figures["stall_open_ms"] = heartbeat.step()
+
+    window.tabs.setCurrentWidget(window.rank_table)
+    wait(lambda: window.rank_table.model.rowCount() > 0)
+    window.tabs.setCurrentWidget(window.dot_plot)
+    wait(lambda: window.dot_plot.chart is not None and window.dot_plot.chart.view is not None)
+    figures["stall_show_ms"] = heartbeat.step()
+
+    shown.clear()
+    start = time.perf_counter()
+    window.grid.setFocus()
+    window.grid.setCurrentIndex(window.sheet_model.index(5, 0))
+    window.sheet_model.setData(window.sheet_model.index(5, 0), "0,01")
+    wait(lambda: bool(shown) and not window.runner.busy)
+    figures["edit_to_verdict_s"] = time.perf_counter() - start
+    assert window.keeper.wait_until_written(600)
+    figures["stall_edit_ms"] = heartbeat.step()
+    figures["peak_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
+    window.close()
+    return figures
+
+
+def main() -> None:
+    path = Path(sys.argv[1])
+    application = QApplication.instance() or QApplication(sys.argv[:1])
+    if "--profile" in sys.argv:
+        import cProfile
+
+        profiler = cProfile.Profile()
+        figures = profiler.runcall(measure, path)
+        profiler.dump_stats(sys.argv[sys.argv.index("--profile") + 1])
+    else:
+        figures = measure(path)
+    del application
+    print(json.dumps(figures))
+
+
+if __name__ == "__main__":
+    main()
