@@ -194,3 +194,16 @@ def test_a_zip_that_is_not_deflated_or_stored_is_refused(tmp_path):
             archive.writestr(name, data)
     with pytest.raises(ReadingsError, match="is damaged"):
         open_readings(path)
+
+
+def test_cells_without_addresses_after_megabytes_of_addressed_ones_are_placed_as_the_reader_places_them(tmp_path):
+    """A sheet that leaves out addresses only late in its XML is walked again from its start; the extent
+    measured equals the reader's own (python-calamine's sheet height and width, on this small case)."""
+    import python_calamine
+
+    addressed = "".join(f'<row r="{i}"><c r="A{i}"><v>1.5</v></c></row>' for i in range(1, 150_001))
+    bare = '<row><c><v>2</v></c></row>' * 10 + "<row>" + "<c><v>3</v></c>" * 5 + "</row>"
+    path = write_workbook(tmp_path / "late.xlsx", ("S", addressed + bare))
+    extent = workbook_check.check_workbook(path).extent_of("xl/worksheets/sheet1.xml")
+    sheet = python_calamine.CalamineWorkbook.from_path(str(path)).get_sheet_by_index(0)
+    assert (extent.rows, extent.columns) == (sheet.height, sheet.width) == (150_011, 5)

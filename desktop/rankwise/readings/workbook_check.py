@@ -150,6 +150,9 @@ def _measure(path: Path) -> WorkbookCheck:
                     if looked_at:
                         scanner.feed(piece)
                 scanner.finish()
+                if scanner.irregular:
+                    # walk the whole part again from its start, tag by tag (its size is bounded, see _look_at)
+                    scanner.extent = _walk_irregular(b"".join(_unpacked_pieces(path, stream, member)))
                 if scanner.is_xml:
                     extents[member.filename] = scanner.extent
                 if keep:
@@ -236,7 +239,8 @@ class _PartScanner:
         self.extent = SheetExtent()
         self.carry = b""
         self.since_tag = 0
-        self.irregular: list[bytes] | None = None
+        self.irregular = False
+        """True once a cell without the usual address is met: the part is then walked as a whole."""
         self.size = 0
 
     def feed(self, piece: bytes) -> None:
@@ -266,8 +270,6 @@ class _PartScanner:
     def finish(self) -> None:
         if self.is_xml:
             self._look_at(self.carry)
-            if self.irregular is not None:
-                self.extent = _walk_irregular(b"".join(self.irregular))
 
     def _check_stretch(self, length: int) -> None:
         if length > MAX_ENTRY_BYTES:
@@ -293,13 +295,10 @@ class _PartScanner:
         else:
             self.since_tag += len(data)
             self._check_stretch(self.since_tag)
-        if self.irregular is not None:
-            self.irregular.append(data)
-            return
-        if not _measure_addressed_cells(array, opens, data, self.extent):
-            if self.size > MAX_IRREGULAR_SHEET_BYTES:
-                raise _suspicious(self.path, "holds a very large sheet laid out unlike any spreadsheet program writes it")
-            self.irregular = [data]
+        if not self.irregular and not _measure_addressed_cells(array, opens, data, self.extent):
+            self.irregular = True
+        if self.irregular and self.size > MAX_IRREGULAR_SHEET_BYTES:
+            raise _suspicious(self.path, "holds a very large sheet laid out unlike any spreadsheet program writes it")
 
 
 def _walk_irregular(data: bytes) -> SheetExtent:
