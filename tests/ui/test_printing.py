@@ -162,10 +162,11 @@ def test_the_page_carries_verdict_caution_signatures_fingerprint_and_version(qap
     text = page_text(path)
     verdict = describe(record.result, record.analysis)
     for expected in (verdict.headline, CAUTION_SHORT, "Dana Whitfield", "Rui Castellanos",
-                     "quality engineer", CLOCK.isoformat(timespec="seconds"), fingerprint(record),
+                     "quality engineer", "30 Nov 2026, 14:05:09 (UTC+01:00)", fingerprint(record),
                      f"Rankwise {record.program_version}", "Coating thickness", "before cure", "after cure",
                      "LSL 11.5", "USL 14.5", "Signature", "page 1 of 1"):
         assert re.sub(r"\s+", " ", expected) in text, expected
+    assert "T14:05" not in text  # dates as people write them, not in the ISO 'T' form
 
 
 def test_an_unsigned_draft_says_so_and_leaves_lines_to_sign_by_hand(qapp, tmp_path):

@@ -55,7 +55,8 @@ def test_typing_name_role_decision_and_comment_signs_with_the_clocks_time(dialog
     qtbot.keyClicks(dialog.role_box.lineEdit(), "setter, line 3")
     dialog.decision_box.setCurrentIndex(DECISIONS.index("collect more data"))
     qtbot.keyClicks(dialog.comment_edit, "Ten more parts from the night shift.")
-    assert "2026-11-30T07:45:12-05:00" in dialog.time_label.text()
+    assert "30 Nov 2026, 07:45:12 (UTC-05:00)" in dialog.time_label.text()  # as people write it, not ISO 'T'
+    assert "T07" not in dialog.time_label.text()
     save(dialog, "filled")
     qtbot.keyClick(dialog.name_edit, Qt.Key.Key_Return)
     assert dialog.result() == QDialog.DialogCode.Accepted

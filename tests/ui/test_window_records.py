@@ -191,3 +191,32 @@ def test_a_reopened_record_is_countersigned_later_and_checks_as_intact(qtbot, wi
     assert verify_record(answers.save_path).intact
     assert not reviewer.records.countersign_action.isEnabled()
     assert verify_record(path).intact  # the technician's record is untouched
+
+
+def test_a_signed_analysis_says_so_over_the_readings_and_typing_offers_a_revision(qtbot, window, answers, monkeypatch,
+                                                                                  tmp_path):
+    """Over the sheet: who signed, when (with the offset, not ISO 'T'), which revision. A key typed into the
+    signed sheet explains and asks; "no" keeps it signed; "yes" starts revision 2 and the typing lands."""
+    from PySide6.QtCore import Qt
+
+    from window_support import press, screenshot
+
+    _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    strip = window.signed_strip
+    assert strip.isVisible()
+    words = strip.words.text()
+    assert "revision 1" in words and "T. Example (process technician)" in words
+    assert "2 Mar 2026, 09:30 (UTC+00:00)" in words and "T09" not in words
+    assert strip.button.text() == "Start rev&ision 2"
+    screenshot(window, "window-signed")
+    window.grid.setFocus()
+    window.grid.move_to(0, 0)
+    answers.confirm = False
+    press(qtbot, "7")
+    assert answers.questions and "Start revision 2" in answers.questions[-1]
+    assert window.sheet_model.read_only and window.sheet.cell(0, 0).text == "0,38"
+    answers.confirm = True
+    press(qtbot, "0", ",", "3", "9", Qt.Key.Key_Return)
+    assert not window.sheet_model.read_only and not strip.isVisible()
+    assert window.sheet.cell(0, 0).text == "0,39"
+    assert window.status_state.text() == "Revision 2, not signed yet"

@@ -102,6 +102,8 @@ class MainWindow(WindowPanes, WindowMenus, WindowKeyboard, WindowSheet, WindowGr
         self.results_panel.choice_taken.connect(lambda: self.set_mixed_limits("below-highest"))
         self.grid.problem.connect(lambda text: self.statusBar().showMessage(text, 8000))
         self.grid.notice.connect(lambda text: self.statusBar().showMessage(text, 15000))
+        self.grid.read_only_edit.connect(self.offer_revision)
+        self.signed_strip.revision_requested.connect(self.records.start_revision)
         self.grid.header_double_clicked.connect(self.edit_group_details)
 
     def closeEvent(self, event: QCloseEvent) -> None:  # noqa: N802 - Qt API

@@ -42,11 +42,13 @@ class ReadingsGrid(QTableView):
     Signals:
         problem(str): an edit was refused, in plain words (e.g. the sheet is signed).
         notice(str): an edit did something worth saying (a pasted title row named the groups).
+        read_only_edit(str): the technician tried to change a signed analysis (with the text typed, if any).
         header_double_clicked(int): the user wants to edit that group's details.
     """
 
     problem = Signal(str)
     notice = Signal(str)
+    read_only_edit = Signal(str)
     header_double_clicked = Signal(int)
 
     def __init__(self, parent: QWidget | None = None) -> None:
@@ -214,6 +216,10 @@ class ReadingsGrid(QTableView):
         if self.state() != QAbstractItemView.State.EditingState:
             if self._navigate(event):
                 return
+            typed = event.text()
+            plain = not event.modifiers() & (Qt.KeyboardModifier.ControlModifier | Qt.KeyboardModifier.AltModifier)
+            if plain and typed.isprintable() and typed.strip() and self._refuse_if_read_only(typed):
+                return
             if event.key() in (Qt.Key.Key_Return, Qt.Key.Key_Enter):
                 step = -1 if event.modifiers() & Qt.KeyboardModifier.ShiftModifier else 1
                 current = self.currentIndex()
@@ -242,11 +248,18 @@ class ReadingsGrid(QTableView):
             indexes = [self.currentIndex()]
         return sorted({(i.column(), i.row()) for i in indexes if i.column() < groups})
 
-    def _refuse_if_read_only(self) -> bool:
+    def _refuse_if_read_only(self, typed: str = "") -> bool:
         if self.sheet_model().read_only:
-            self.problem.emit("This analysis is signed and read-only. Start a new revision to change it.")
+            self.read_only_edit.emit(typed)
             return True
         return False
+
+    def type_into_current(self, text: str) -> None:
+        """Open the current cell's editor with ``text`` typed in it (typing goes on from there)."""
+        self.edit(self.currentIndex())
+        editor = self.indexWidget(self.currentIndex()) or self.focusWidget()
+        if hasattr(editor, "setText") and editor is not self:
+            editor.setText(text)
 
     def clear_selected_cells(self) -> None:
         """Empty the selected cells (one undoable step)."""

@@ -91,7 +91,7 @@ class ResultsPanel(QWidget):
         self.more_button.setToolButtonStyle(Qt.ToolButtonStyle.ToolButtonTextBesideIcon)
         self.more_button.setArrowType(Qt.ArrowType.RightArrow)
         self.more_button.setFocusPolicy(Qt.FocusPolicy.StrongFocus)
-        self.more_button.setSizePolicy(QSizePolicy.Policy.Minimum, QSizePolicy.Policy.Fixed)
+        self.more_button.setSizePolicy(QSizePolicy.Policy.Fixed, QSizePolicy.Policy.Fixed)
         self.more_button.toggled.connect(self._show_more)
         self._more_box, self._more_grid = _numbers_grid()
         self._more_box.hide()

@@ -19,6 +19,7 @@ from PySide6.QtWidgets import (
 )
 
 from rankwise.records.signoff import DECISIONS, Signature
+from rankwise.wording.moments import written_moment
 
 ROLE_SUGGESTIONS = ("process technician", "quality technician", "quality engineer", "production supervisor")
 """Roles offered in the role box; any other role can be typed."""
@@ -132,7 +133,7 @@ class SignOffDialog(QDialog):
 
     def _show_time(self) -> None:
         """Show the clock's present time as it will be recorded."""
-        self.time_label.setText(self._clock().isoformat(timespec="seconds") + "  (from this computer's clock)")
+        self.time_label.setText(written_moment(self._clock()) + ", from this computer's clock")
 
     def problems(self) -> list[tuple[QWidget, str]]:
         """Missing required entries, each with its field and a plain message, in form order."""

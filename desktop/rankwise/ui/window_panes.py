@@ -19,6 +19,7 @@ from PySide6.QtWidgets import (
 import rankwise
 from rankwise.ui.chart_tab import ChartTab
 from rankwise.ui.screen_fit import fit_to_screen
+from rankwise.ui.signed_strip import SignedStrip
 
 NARROW_WIDTH = 1280
 """Below this window width (in Qt's scaled pixels) the question and the sheet fold into tabs."""
@@ -116,7 +117,9 @@ class WindowPanes:
                             "Double-click a column title (or Ctrl+G) for its name, unit and limits.")
         sheet_hint.setWordWrap(True)
         sheet_hint.setObjectName("sheetHint")
+        self.signed_strip = SignedStrip()
         sheet_layout.addWidget(sheet_title)
+        sheet_layout.addWidget(self.signed_strip)
         sheet_layout.addWidget(self.grid, 1)
         sheet_layout.addWidget(sheet_hint)
 

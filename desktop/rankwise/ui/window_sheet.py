@@ -6,6 +6,7 @@ from pathlib import Path
 
 from rankwise.readings import ReadingSheet
 from rankwise.readings.entry_counts import count_entries
+from rankwise.ui import dialogs
 from rankwise.wording.entries import count_phrase
 
 
@@ -69,12 +70,32 @@ class WindowSheet:
         signed = " (signed, read-only)" if self.sheet_model.read_only else ""
         self.setWindowTitle(f"{name}{marker}{signed} — Rankwise")
         record = self.records.signed_record
+        self.signed_strip.show_signoff(record.signoff if record is not None else None, self.records.next_revision)
         if record is not None:
             self.status_state.setText(f"Signed record, revision {record.signoff.revision}: read-only")
         elif self.records.next_revision > 1:
             self.status_state.setText(f"Revision {self.records.next_revision}, not signed yet")
         else:
             self.status_state.setText("Unsaved readings" if self.has_unsaved_readings() else "")
+
+    def offer_revision(self, typed: str = "") -> None:
+        """Typing into a signed analysis: explain that its readings cannot change, and start the next
+        revision on request, carrying on with what was typed."""
+        if self.records.signed_record is None:
+            return
+        revision = self.records.next_revision
+        if not dialogs.confirm(
+            self, "This analysis is signed",
+            f"The readings of a signed analysis stay as they were signed. Start revision {revision}, a copy "
+            "that can be changed and signed again? The signed record itself does not change.",
+            f"Start revision {revision}", "Keep it as signed",
+        ):
+            self.grid.setFocus()
+            return
+        self.records.start_revision()
+        self.grid.setFocus()
+        if typed:
+            self.grid.type_into_current(typed)
 
     def undo(self) -> None:
         """Undo the last edit of the sheet."""

@@ -19,6 +19,7 @@ from rankwise.ui.printing.page_chart import draw_marker, draw_power_curve, draw_
 from rankwise.ui.printing.page_content import PageContent
 from rankwise.ui.printing.page_text import Paragraph, line_height, one_line, page_font
 from rankwise.wording.entries import READINGS_USED
+from rankwise.wording.moments import written_moment
 
 RULE_COLOUR = "#8C8C8C"
 ACCENT_COLOUR = "#0072B2"
@@ -312,7 +313,7 @@ class _Composer:
         fields = (
             ("Printed name", signature.name if signature else ""),
             ("Role", signature.role if signature else ""),
-            ("Date and time", signature.signed_at.isoformat(timespec="seconds") if signature else ""),
+            ("Date and time", written_moment(signature.signed_at) if signature else ""),
             ("Decision", signature.decision if signature else ""),
         )
         for label, value in fields:
@@ -349,7 +350,7 @@ class _Composer:
         x = self.area.left()
         versions = " · ".join(f"{name} {version}" for name, version in c.library_versions
                               if name in ("numpy", "scipy"))
-        written = c.created_at.isoformat(timespec="minutes") if c.created_at is not None else "not recorded"
+        written = written_moment(c.created_at, seconds=False) if c.created_at is not None else "not recorded"
         lines = [
             self.paragraph("Fingerprint (SHA-256 of the readings, settings, results and sign-off):", "small",
                            self.width),
