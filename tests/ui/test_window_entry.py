@@ -39,7 +39,7 @@ def test_invalid_cell_keeps_its_text_and_says_why(qtbot, window):
     assert cell.text == "12..5" and cell.kind is CellKind.INVALID and cell.reason
     index = window.sheet_model.index(1, 1)
     assert cell.reason in window.sheet_model.data(index, Qt.ItemDataRole.ToolTipRole)
-    qtbot.waitUntil(lambda: "B: 1 reading used, 1 entry not used" in window.status_counts.text(), timeout=60000)
+    qtbot.waitUntil(lambda: "B: 1 reading, 1 not used" in window.status_counts.text(), timeout=60000)
     screenshot(window, "window-invalid-cell")
 
 

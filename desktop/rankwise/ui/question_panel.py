@@ -50,7 +50,7 @@ PAIRED_DIRECTIONS = (
 )
 POWERS = ((0.8, "8 in 10"), (0.9, "9 in 10"), (0.95, "19 in 20"))
 PLAN_DESIGNS = ((False, "two separate groups of parts"), (True, "the same parts, measured twice"),
-                ("several", "several separate groups (one column each)"))
+                ("several", "several separate groups"))
 PLAN_DIRECTIONS = (("two-sided", "any change"), ("b-greater", "B reads higher"), ("b-less", "B reads lower"))
 """The planner's directions for two separate groups (the same parts use ``PAIRED_DIRECTIONS``)."""
 METHODS = (

@@ -51,7 +51,7 @@ class WindowSheet:
     def _update_status(self) -> None:
         parts = []
         for group in self.sheet.groups:
-            parts.append(f"{group.name}: {count_phrase(count_entries(group.name, group.cells))}")
+            parts.append(f"{group.name}: {count_phrase(count_entries(group.name, group.cells), brief=True)}")
         self.status_counts.setText("   ·   ".join(parts) if parts else "No readings yet: type or paste them into the sheet.")
         self.status_decimal.setText(self.sheet.decimal_label)
         self.status_decimal.setToolTip(f"{self.sheet.decimal_status} Change it in Edit > Decimal separator.")

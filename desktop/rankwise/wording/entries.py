@@ -45,13 +45,15 @@ def count_sentence(entries: GroupEntries, question: Question) -> str:
     return f"{entries.name}: " + "; ".join(parts) + "."
 
 
-def count_phrase(entries: GroupEntries) -> str:
-    """ "7 readings used (1 below a detection limit), 1 entry not used": for the status line and tooltips."""
-    text = f"{_plural(entries.readings, 'reading')} used"
+def count_phrase(entries: GroupEntries, *, brief: bool = False) -> str:
+    """ "7 readings used (1 below a detection limit), 1 entry not used" for tooltips; ``brief`` for the
+    status line: "7 readings (1 below a limit), 1 not used"."""
+    text = f"{_plural(entries.readings, 'reading')}{'' if brief else ' used'}"
     if entries.censored:
-        text += f" ({entries.censored} below a detection limit)"
+        text += f" ({entries.censored} below {'a limit' if brief else 'a detection limit'})"
     if entries.not_used:
-        text += f", {_plural(len(entries.not_used), 'entry', 'entries')} not used"
+        text += (f", {len(entries.not_used)} not used" if brief
+                 else f", {_plural(len(entries.not_used), 'entry', 'entries')} not used")
     return text
 
 
