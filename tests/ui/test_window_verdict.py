@@ -175,3 +175,21 @@ def test_verdict_first_then_the_few_key_numbers_the_rest_folded(qtbot, window):
     press(qtbot, Qt.Key.Key_Space)
     assert panel._number_labels["u_a"].isVisible()
     screenshot(window, "window-more-numbers")
+
+
+def test_charts_write_numbers_with_the_sheets_decimal_mark_and_whole_axis_titles(qtbot, window):
+    """The demo is typed with a decimal comma: the charts' axes write 0,30, not 0.30, and each axis
+    title fits beside its axis (none cut off) at a shop-floor window size."""
+    window.resize(1024, 700)
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    for tab in (window.dot_plot, window.cumulative_plot, window.null_plot):
+        window.tabs.setCurrentWidget(tab)
+        qtbot.waitUntil(lambda tab=tab: tab.chart is not None and tab.chart.isVisible(), timeout=60000)
+        for side in ("bottom", "left"):
+            axis = tab.chart.plot_item.getAxis(side)
+            assert axis.tickStrings([0.3, 0.35], 1.0, 0.05) == ["0,30", "0,35"]
+            title = axis.label.boundingRect().width()  # the text's own length, before any turning
+            room = axis.height() if side == "left" else axis.width()
+            assert title <= room, f"{tab.chart_name} {side} axis title needs {title:.0f} px, has {room}"
+        screenshot(window, f"window-1024-chart-{tab.chart_name}")

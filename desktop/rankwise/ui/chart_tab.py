@@ -55,4 +55,5 @@ class ChartTab(QWidget):
         if self._shown is None:
             self.chart.clear()
         else:
+            self.chart.use_decimal_mark(self._shown[1].decimal_mark)
             self.chart.show_result(*self._shown)

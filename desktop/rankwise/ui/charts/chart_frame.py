@@ -7,6 +7,16 @@ from rankwise.ui.charts import style
 from rankwise.ui.charts.readings_view import ReadingsView, readings_view
 
 
+class MarkedAxis(pg.AxisItem):
+    """An axis whose tick numbers use the sheet's decimal mark (0,30 where the sheet writes 0,30)."""
+
+    decimal_mark = "."
+
+    def tickStrings(self, values, scale, spacing):  # noqa: N802 - pyqtgraph API
+        strings = super().tickStrings(values, scale, spacing)
+        return strings if self.decimal_mark == "." else [text.replace(".", self.decimal_mark) for text in strings]
+
+
 class ChartFrame(pg.PlotWidget):
     """A plot with our look and a centred plain-words note shown when there is nothing to draw.
 
@@ -16,7 +26,8 @@ class ChartFrame(pg.PlotWidget):
 
     def __init__(self, parent=None, *, accessible_name: str, tooltip: str, idle_note: str,
                  bottom: str, left: str, legend_corner: str = "top-right") -> None:
-        super().__init__(parent, background=style.BACKGROUND)
+        super().__init__(parent, background=style.BACKGROUND,
+                         axisItems={"bottom": MarkedAxis("bottom"), "left": MarkedAxis("left")})
         # PlotWidget copies the plot's own clear() (which removes every item) onto the instance;
         # drop that copy so that our clear(), which keeps the items and empties them, is the one used.
         self.__dict__.pop("clear", None)
@@ -78,6 +89,15 @@ class ChartFrame(pg.PlotWidget):
         """Set the axis titles (they carry the unit)."""
         self.plot_item.setLabel("bottom", bottom, color=style.INK, **{"font-size": "11pt"})
         self.plot_item.setLabel("left", left, color=style.INK, **{"font-size": "11pt"})
+
+    def use_decimal_mark(self, mark: str) -> None:
+        """Write the axes' numbers with ``mark`` ("." or ","), as the sheet does."""
+        for side in ("bottom", "left"):
+            axis = self.plot_item.getAxis(side)
+            if isinstance(axis, MarkedAxis) and axis.decimal_mark != mark:
+                axis.decimal_mark = mark
+                axis.picture = None
+                axis.update()
 
     def idle(self) -> None:
         """Show the idle note (used by ``clear``)."""

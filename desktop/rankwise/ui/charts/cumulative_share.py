@@ -48,7 +48,7 @@ class CumulativeSharePlot(ChartFrame):
             tooltip=TOOLTIP,
             idle_note="The share of readings at or below each value appears here, one curve per group.",
             bottom="Reading",
-            left="Share of readings at or below (%)",
+            left="Share at or below (%)",
             legend_corner="top-left",
         )
         self._curves: list[pg.PlotDataItem] = []
@@ -80,7 +80,7 @@ class CumulativeSharePlot(ChartFrame):
         for curve, tops in zip(self._curves, self._tops):
             curve.setData([], [])
             tops.setData([], [])
-        self._label_axes(bottom="Reading", left="Share of readings at or below (%)")
+        self._label_axes(bottom="Reading", left="Share at or below (%)")
         self.idle()
 
     def show_result(self, result, analysis: Analysis) -> None:
@@ -101,7 +101,7 @@ class CumulativeSharePlot(ChartFrame):
         self._set_legend(entries)
         unit = f" ({view.unit})" if view.unit else ""
         self._label_axes(bottom=(view.characteristic or "Reading") + unit,
-                         left="Share of readings at or below (%)")
+                         left="Share at or below (%)")
         numbers = [v for group in view.values for v in group]
         low, high = min(numbers), max(numbers)
         pad = (high - low) * 0.06 or max(abs(high) * 0.05, 1e-6)

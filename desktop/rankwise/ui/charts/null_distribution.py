@@ -132,7 +132,7 @@ class NullDistributionPlot(ChartFrame):
         self._mark_observed(distribution.observed, f"{distribution.statistic} = {distribution.observed:g}",
                             float(x.min()), float(x.max()))
         self._label_axes(bottom=f"{distribution.statistic} (exact distribution if the change did nothing)",
-                         left="Chance of each value (%)")
+                         left="Chance (%)")
         self._set_legend([(self._bars, "if the change did nothing"),
                           (self._region_bars, self._counts_as_change(result.alpha))])
         self.plot_item.setRange(xRange=(x.min() - width, x.max() + width), yRange=(0, 100 * p.max() * 1.15),
