@@ -70,3 +70,17 @@ def test_spreadsheet_moves(qtbot, window):
     press(qtbot, (Qt.Key.Key_Home, Qt.KeyboardModifier.ControlModifier),
           (Qt.Key.Key_Down, Qt.KeyboardModifier.ControlModifier | Qt.KeyboardModifier.ShiftModifier))
     assert window.grid.selected_block() == [[f"0,{40 + row}"] for row in range(25)]
+
+
+def test_readings_keep_the_resolution_they_were_typed_with(qtbot, window):
+    """25.010 typed from a 0.001 gauge stays 25.010 in the sheet, the rank table and the median
+    (the median of 25.010, 25.010, 25.011, 25.012 is 25.0105: common practice, no source)."""
+    from window_support import wait_for_verdict
+
+    press(qtbot, "25.010", ENTER, "25.012", ENTER, "25.011", ENTER, "25.010", ENTER, (Qt.Key.Key_Home,
+          Qt.KeyboardModifier.ControlModifier), TAB, "25.020", ENTER, "25.030", ENTER, "25.025", ENTER)
+    wait_for_verdict(qtbot, window)
+    model = window.rank_table.model
+    readings = [model.index(row, 2).data() for row in range(model.rowCount())]
+    assert readings[0] == "25.010" and "25.020" in readings and "25.030" in readings
+    assert window.results_panel.number_text("median_a") == "25.0105"
