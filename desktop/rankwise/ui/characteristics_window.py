@@ -69,6 +69,7 @@ class CharacteristicsWindow(QDialog):
                                           settings=Settings(adjust=choice.adjust))
         self.result = None
         self.lines = ()
+        self.last_record: ResultRecord | None = None
         self.setWindowTitle(f"Characteristics: {choice.group_b} against {choice.group_a} — {Path(table.path).name}")
         self.resize(1400, 680)
         layout = QVBoxLayout(self)
@@ -231,7 +232,7 @@ class CharacteristicsWindow(QDialog):
     def save_pdf(self) -> Path | None:
         from rankwise.ui.printing import write_verdict_pdf
 
-        record = getattr(self, "last_record", None) or self._record()
+        record = self.last_record or self._record()
         if record is None:
             return None
         path = dialogs.ask_save_path(self, "Save one-page summary", Path(self.table.path).stem + "-characteristics.pdf",
