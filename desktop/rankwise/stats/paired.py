@@ -10,9 +10,11 @@ Methods, 2nd ed., ch. 3):
   the ties), two-sided p by doubling the smaller tail;
 - normal approximation: tie-corrected variance, continuity correction 0.5 (as
   ``scipy.stats.wilcoxon(..., method="asymptotic", correction=True)``);
-- Hodges-Lehmann pseudo-median and its interval: over every complete pair, zeros included
-  (the interval inverts the test at shifts other than the observed differences, where no
-  difference is zero); the critical value is that of n differences without ties.
+- Hodges-Lehmann pseudo-median: the median of the Walsh averages over every complete pair;
+- its interval (a one-sided bound for a one-sided question): with tied or zero changes, where
+  affordable, every shift the exact signed-rank test given the ties accepts, parts whose change
+  equals the shift treated by the same zero convention as the test (``rankwise.stats.change_inversion``);
+  otherwise the Walsh order statistics at the no-ties critical value (approximate with ties).
 """
 
 from __future__ import annotations

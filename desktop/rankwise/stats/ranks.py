@@ -94,8 +94,9 @@ def _rank_by_sorting(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.ndarr
 def midranks(values: Sequence[float] | np.ndarray) -> np.ndarray:
     """1-based ranks; tied readings get the average of the ranks they span (mid-ranks).
 
-    Readings are compared on their common decimal resolution (see ``rankwise.stats.grid``), so
-    binary floating-point noise never splits a true tie. Raises ``ValueError`` for NaN.
+    Readings are compared on their common decimal resolution, or off every grid as the decimals
+    they were typed as (up to 15 significant digits; see ``rankwise.stats.grid``), so binary
+    floating-point noise never splits a true tie. Raises ``ValueError`` for NaN.
     """
     array = np.asarray(values, dtype=float).ravel()
     if np.isnan(array).any():

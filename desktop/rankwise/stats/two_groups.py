@@ -2,8 +2,9 @@
 
 ``compare_two`` validates the readings, ranks them on their gauge grid, finds the p-value (the
 exact conditional permutation distribution given the observed ties, or the normal approximation
-with tie and continuity correction), the critical U, the Hodges-Lehmann shift with its Moses
-interval, the effect sizes, the same-shape companions and plain-words warnings, and returns one
+with tie and continuity correction), the critical U, the Hodges-Lehmann shift with the set of
+shifts the test accepts (Moses' interval, or with ties the exact inversion; one-sided bounds for
+one-sided questions), the effect sizes, the same-shape companions and plain-words warnings, and returns one
 frozen ``TwoGroupResult``. Conventions: two-sided exact p by doubling
 (resources/decisions/two-sided-exact-p.md); the automatic method switch
 (resources/decisions/exact-method-choice.md).

@@ -118,10 +118,12 @@ def interval_disagreement(interval: ConfidenceInterval | None, significant: bool
     if interval is None or abs(interval.level - (1.0 - alpha)) > 1e-9 or interval.contains(0.0) != significant:
         return None
     if significant:
-        return (f"The {what}'s interval is an approximation here and still reaches 0 although the test "
-                f"found a change; the p-value decides, the interval only shows the likely size.")
-    return (f"The {what}'s interval is an approximation here and leaves out 0 although the test found no "
-            f"change at this level; the p-value decides, the interval only shows the likely size.")
+        return (f"The {what}'s interval still reaches 0 although the test found a change: one of the two is "
+                f"an approximation here (the method note says which); the p-value decides, the interval only "
+                f"shows the likely size.")
+    return (f"The {what}'s interval leaves out 0 although the test found no change at this level: one of the "
+            f"two is an approximation here (the method note says which); the p-value decides, the interval "
+            f"only shows the likely size.")
 
 
 def size_sentence(what: str, names: tuple[str, str], value: float, interval: ConfidenceInterval,
