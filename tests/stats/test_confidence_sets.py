@@ -181,3 +181,19 @@ def test_one_zero_convention_for_test_and_interval_is_stated():
     pratt = compare_paired(before, after, zero_method="pratt").shift_ci
     assert "test inversion" in wilcox.method and "left out" in wilcox.method
     assert "Pratt" in pratt.method
+
+
+def test_when_the_test_accepts_no_shift_at_all_the_interval_says_so():
+    """320 + 320 readings on a two-step gauge (300 and 260 at the lower step): the exact test
+    rejects every shift (at 0 p is about 2e-6, inside the gap about 7e-62, checked here by the
+    hypergeometric tail of the count of A's readings at the upper step, scipy.stats.hypergeom,
+    for the shift 0), so no single shift describes the change; the order statistics stay, and
+    their method text says why."""
+    a = [0.0] * 300 + [0.01] * 20
+    b = [0.0] * 260 + [0.01] * 60
+    result = compare_two(a, b)
+    # With two values the rank-sum test is the two-sided Fisher-type test on A's upper-step count.
+    lower_tail = stats.hypergeom.cdf(20, 640, 80, 320)
+    assert result.p_value == pytest.approx(min(1.0, 2 * lower_tail), rel=1e-9)
+    assert "accepts no single shift" in result.shift_ci.method
+    assert "approximate" in result.shift_ci.method

@@ -18,7 +18,7 @@ from __future__ import annotations
 import numpy as np
 
 from rankwise.stats.exact_signed_rank import signed_rank_p
-from rankwise.stats.shift_inversion import AcceptedShifts
+from rankwise.stats.shift_inversion import NO_SHIFT, AcceptedShifts
 
 INVERSION_WORK = 3e8
 """Largest (candidates tried) x n x (n (n + 1)), the sign-flip counts' work (about 0.3 s)."""
@@ -39,7 +39,8 @@ def accepted_changes(d_counts: np.ndarray, level: float, alternative: str = "two
     ``d_counts`` are the changes in whole gauge steps. "b-greater" gives a lower bound
     [low, +inf), "b-less" an upper bound (-inf, high]. None when not affordable, when the changes
     are not whole numbers, when every shift on a side that should be bounded is accepted (too few
-    parts), or when a rejected shift lies between accepted ones.
+    parts), or when a rejected shift lies between accepted ones; ``NO_SHIFT`` when the test
+    accepts no shift at all.
     """
     d = np.sort(np.asarray(d_counts, dtype=float))
     n = d.size
@@ -61,7 +62,9 @@ def accepted_changes(d_counts: np.ndarray, level: float, alternative: str = "two
     if (alternative != "b-less" and accepted[0]) or (alternative != "b-greater" and accepted[-1]):
         return None
     inside = np.flatnonzero(accepted)
-    if inside.size == 0 or inside.size != inside[-1] - inside[0] + 1:
+    if inside.size == 0:
+        return NO_SHIFT
+    if inside.size != inside[-1] - inside[0] + 1:
         return None
     first, last = int(inside[0]), int(inside[-1])
     low, low_in = (-np.inf, False) if alternative == "b-less" else (_end(tried, first, -1), first % 2 == 1)

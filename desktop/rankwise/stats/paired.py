@@ -359,9 +359,10 @@ def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, purpose: str,
     one_sided = {"b-greater": "lower bound: ", "b-less": "upper bound: "}.get(alternative, "")
     magnitudes = np.abs(sorted_counts)
     tied = bool(np.any(sorted_counts == 0)) or np.unique(magnitudes).size < n
+    accepted = None
     if tied and grid.decimals is not None:
         accepted = accepted_changes(sorted_counts, level, alternative, zero_method)
-        if accepted is not None:
+        if accepted is not None and not accepted.empty:
             zeros = ("left out, as the test leaves out parts with no change" if zero_method == "wilcox"
                      else "ranked and given no sign, as the test treats parts with no change (Pratt)")
             return ConfidenceInterval(
@@ -380,6 +381,9 @@ def _walsh_interval(sorted_counts: np.ndarray, grid, level: float, purpose: str,
     low, high = select_walsh_sums(sorted_counts, [c + 1, total - c])
     attained = 1.0 - (2.0 if alternative == "two-sided" else 1.0) * _no_ties_tail(n, c)
     approximate = " (changes tie or are zero: approximate)" if tied else ""
+    if accepted is not None and accepted.empty:
+        approximate += ("; the exact test given the ties accepts no single change: on this gauge the parts "
+                        "changed in a way one typical change alone does not describe")
     return ConfidenceInterval(
         low=-np.inf if alternative == "b-less" else float(grid.to_readings(low)) / 2.0,
         high=np.inf if alternative == "b-greater" else float(grid.to_readings(high)) / 2.0,

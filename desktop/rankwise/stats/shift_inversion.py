@@ -38,12 +38,19 @@ class AcceptedShifts:
     """The shifts (B - A, in gauge steps) the exact test accepts: an interval with open or closed ends.
 
     ``low`` is -inf and ``high`` +inf for a one-sided bound; an infinite end counts as open.
+    ``empty`` is True when the test accepts no shift at all (the groups differ in a way no single
+    shift on the gauge describes); the ends are then NaN.
     """
 
     low: float
     high: float
     low_included: bool
     high_included: bool
+    empty: bool = False
+
+
+NO_SHIFT = AcceptedShifts(low=float("nan"), high=float("nan"), low_included=False, high_included=False, empty=True)
+"""The answer when the test accepts no shift at all."""
 
 
 def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
@@ -55,7 +62,7 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     [low, +inf); "b-less" an upper bound, (-inf, high]. Returns None when the inversion is not
     affordable, when the readings are not whole numbers, when the test accepts every shift on a
     side that should be bounded (too few readings), or when a rejected shift lies between
-    accepted ones.
+    accepted ones; ``NO_SHIFT`` when the test accepts no shift at all.
     """
     a = np.asarray(counts_a, dtype=float)
     b = np.asarray(counts_b, dtype=float)
@@ -76,7 +83,9 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     if alternative != "b-greater" and accepted[-1]:
         return None
     inside = np.flatnonzero(accepted)
-    if inside.size == 0 or inside.size != inside[-1] - inside[0] + 1:
+    if inside.size == 0:
+        return NO_SHIFT
+    if inside.size != inside[-1] - inside[0] + 1:
         return None
     first, last = int(inside[0]), int(inside[-1])
     # An accepted gap (even index) ends open at the rejected difference beside it.

@@ -38,6 +38,10 @@ AUTO_EXACT_READINGS = 100
 AUTO_EXACT_SECONDS = 0.3
 """Beyond that, "auto" stays exact while the cheapest exact count is estimated to take at most this long."""
 
+NO_SINGLE_SHIFT = ("; the exact test given the ties accepts no single shift: on this gauge the groups "
+                   "differ in a way a shift alone does not describe")
+"""Added to the interval's method text when the test inversion finds no shift it accepts."""
+
 COMPANION_LIMIT = 200_000
 """Largest number of readings for which the same-shape check and the companion tests are run."""
 
@@ -311,9 +315,10 @@ def _shift_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, grid: Grid, leve
     interval on whole-number gauges, by the simulation in the tests). The method text says which.
     """
     one_sided = {"b-greater": "lower bound: ", "b-less": "upper bound: "}.get(alternative, "")
+    accepted = None
     if ties and grid.decimals is not None:
         accepted = accepted_shifts(sorted_a, sorted_b, level, alternative)
-        if accepted is not None:
+        if accepted is not None and not accepted.empty:
             return ConfidenceInterval(
                 low=float(grid.to_readings(accepted.low)),
                 high=float(grid.to_readings(accepted.high)),
@@ -329,6 +334,8 @@ def _shift_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, grid: Grid, leve
     method = f"{one_sided}Moses order statistics of the differences, {source}"
     if ties:
         method += " (readings tie: approximate, no-ties critical value, conservative)"
+        if accepted is not None and accepted.empty:
+            method += NO_SINGLE_SHIFT
     tails = 2.0 if alternative == "two-sided" else 1.0
     if critical.u is None:
         attained = 1.0 - tails * float(_extreme_split_probability(n_a, n_b))
