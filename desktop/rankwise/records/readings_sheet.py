@@ -47,11 +47,13 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot, entries: Sequ
               CENSORED]
     for offset, label in enumerate(labels):
         put(sheet, 3 + offset, 1, label, bold=True)
-    put(sheet, FIRST_ENTRY_ROW - 1, 1, "Entry", bold=True)
+    parts = snapshot.parts
+    put(sheet, FIRST_ENTRY_ROW - 1, 1, "Entry" if parts.ids is None else f"Entry: part ({parts.column})", bold=True)
 
     longest = max((len(group.cells) for group in snapshot.groups), default=0)
     for row in range(longest):
-        put(sheet, FIRST_ENTRY_ROW + row, 1, row + 1)
+        part = parts.id_of(row)
+        put(sheet, FIRST_ENTRY_ROW + row, 1, f"{row + 1}: {part}" if part else row + 1)
 
     not_used = []
     for index, group in enumerate(snapshot.groups):

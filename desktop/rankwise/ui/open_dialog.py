@@ -1,5 +1,8 @@
 """The open dialog: what the file looks like, how it was understood, what will be skipped, then load.
 
+It also says when the file holds the same parts measured twice and how they are paired, and
+proposes the question the readings suggest; the technician confirms it or chooses another.
+
 The file is read with ``rankwise.readings.open_readings`` (automatic choices first); the dialog shows
 the first rows, the worksheet, the layout (a column per group, or a value column with a group
 column), the columns used and the decimal mark, and lets the user change each one. Every cell that
@@ -9,6 +12,7 @@ only read, never changed.
 
 from __future__ import annotations
 
+import dataclasses
 from pathlib import Path
 
 from PySide6.QtCore import Qt
@@ -29,6 +33,7 @@ from PySide6.QtWidgets import (
 
 from rankwise.readings import ReadingSet, ReadingsError
 from rankwise.ui.screen_fit import fit_to_screen
+from rankwise.stats.analysis import Question
 
 PREVIEW_ROWS = 15
 """Rows of the file shown in the preview."""
@@ -36,6 +41,12 @@ PREVIEW_ROWS = 15
 PREVIEW_COLUMN_WIDTH = 240
 """Widest a preview column gets; longer texts (title lines) show whole in their tooltip."""
 
+QUESTIONS = (
+    (Question.PAIRED, "The same parts measured twice (before / after), paired by part"),
+    (Question.TWO_GROUPS, "Two separate groups of parts"),
+    (Question.SEVERAL, "Several groups (three or more)"),
+)
+"""The questions the dialog may propose, with their words."""
 LAYOUTS = (("wide", "A column per group"), ("stacked", "A value column and a group column"))
 DECIMALS = (("auto", "Decide from the file"), (".", "Point (0.42)"), (",", "Comma (0,42)"))
 
@@ -76,6 +87,13 @@ class OpenReadingsDialog(QDialog):
         form.addRow(self.value_label, self.value_column)
         form.addRow(self.group_label, self.group_column)
         form.addRow("Decimal mark", self.decimal_choice)
+        self.question_choice = _combo("Question to ask")
+        self.question_choice.setToolTip("The question these readings suggest; choose another if it fits better.")
+        form.addRow("Question to ask", self.question_choice)
+        self.same_parts = QLabel()
+        self.same_parts.setObjectName("openSameParts")
+        self.same_parts.setWordWrap(True)
+        self.same_parts.setAccessibleName("Same parts found")
 
         self.found = QLabel()
         self.found.setObjectName("openFound")
@@ -118,6 +136,7 @@ class OpenReadingsDialog(QDialog):
         preview_title.setObjectName("sectionTitle")
         layout = QVBoxLayout(self)
         layout.addWidget(self.found)
+        layout.addWidget(self.same_parts)
         layout.addWidget(self.notes)
         layout.addLayout(form)
         layout.addWidget(preview_title)
@@ -156,6 +175,7 @@ class OpenReadingsDialog(QDialog):
         finally:
             self._filling = False
         self._show_found(reading_set)
+        self._show_question(reading_set)
         self._show_preview(source)
         self._show_groups(reading_set)
 
@@ -175,6 +195,39 @@ class OpenReadingsDialog(QDialog):
         self.found.setText(f"<b>{_escape(self.path.name)}</b>: found " + _escape(", ".join(details)) + ".")
         self.notes.setText("".join(f"• {_escape(note)}<br>" for note in reading_set.notes))
         self.notes.setVisible(bool(reading_set.notes))
+
+    def _show_question(self, reading_set: ReadingSet) -> None:
+        """Propose the question the readings suggest, with the others that fit them."""
+        fitting = [(question, words) for question, words in QUESTIONS
+                   if (question is not Question.PAIRED or reading_set.pairing is not None)
+                   and (question is not Question.SEVERAL or len(reading_set.groups) >= 3)]
+        self._filling = True
+        try:
+            self.question_choice.clear()
+            for question, words in fitting:
+                self.question_choice.addItem(words, question)
+            self.question_choice.setCurrentIndex(max(0, self.question_choice.findData(reading_set.suggested_question)))
+        finally:
+            self._filling = False
+        found = reading_set.found
+        if reading_set.pairing is not None and reading_set.pairing.unpaired:
+            from rankwise.wording.pairing import unpaired_parts
+
+            found += " " + unpaired_parts(reading_set.pairing.unpaired, reading_set.pairing.noun)
+        problem = reading_set.pairing_problem
+        self.same_parts.setText(f"<b>{_escape(found)}</b>" if found else (f"⚠ {_escape(problem)}" if problem else ""))
+        self.same_parts.setVisible(bool(found or problem))
+
+    @property
+    def question(self) -> Question:
+        """The question chosen in the dialog."""
+        return Question(self.question_choice.currentData())
+
+    def accept(self) -> None:
+        """Load: the readings carry the question chosen here as the one to start from."""
+        if self.reading_set is not None and self.question_choice.count():
+            self.reading_set = dataclasses.replace(self.reading_set, suggested_question=self.question)
+        super().accept()
 
     def _show_preview(self, source) -> None:
         rows = source.preview[:PREVIEW_ROWS]

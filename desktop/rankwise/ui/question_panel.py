@@ -42,6 +42,10 @@ QUESTION_OPTIONS: tuple[QuestionOption, ...] = (
 )
 """The questions offered, in the order shown."""
 
+OPTION_OF_QUESTION = {Question.TWO_GROUPS: "differ", Question.PAIRED: "paired", Question.SEVERAL: "several",
+                      Question.PLAN: "plan"}
+"""The picker entry that asks each question in its plain form."""
+
 LEVELS = ((0.10, "0.10 (10 %)"), (0.05, "0.05 (5 %)"), (0.01, "0.01 (1 %)"))
 PAIRED_DIRECTIONS = (
     ("two-sided", "any change"),
@@ -227,6 +231,21 @@ class QuestionPanel(QWidget):
             self._refresh_margin_units()
         finally:
             self._updating = False
+
+    def set_same_parts_unavailable(self, reason: str) -> None:
+        """Offer the same-parts question only where the readings can be paired; ``reason`` says why
+        not (shown as the option's tooltip), or "" to offer it."""
+        position = next(k for k, option in enumerate(QUESTION_OPTIONS) if option.question is Question.PAIRED)
+        button = self._buttons.button(position)
+        button.setEnabled(not reason)
+        button.setToolTip(reason or "The same parts measured twice: each part's two readings are taken together.")
+
+    def select_question(self, question: Question) -> bool:
+        """Tick the plain form of ``question`` (two groups: "do they differ?"); True when that changed the option."""
+        key = OPTION_OF_QUESTION[Question(question)]
+        changed = self.option.key != key
+        self.select_option(key)
+        return changed
 
     def select_option(self, key: str) -> None:
         """Tick the question with ``key`` (see ``QUESTION_OPTIONS``)."""

@@ -108,6 +108,7 @@ class ReadingsGrid(QTableView):
             else:  # the spare column only as wide as its short title, so it stays in view
                 wanted = max(header.minimumSectionSize(), header.sectionSizeHint(column))
             header.resizeSection(column, min(wanted, MAXIMUM_COLUMN_WIDTH))
+        self.updateGeometries()  # the row titles widen to show part identifiers
 
     def _on_header_double_clicked(self, section: int) -> None:
         if section < len(self.sheet_model().sheet.groups):

@@ -204,8 +204,11 @@ class SheetModel(QAbstractTableModel):
 
     def headerData(self, section: int, orientation: Qt.Orientation, role: int = Qt.ItemDataRole.DisplayRole):  # noqa: N802
         if orientation == Qt.Orientation.Vertical:
+            part = self._sheet.parts.id_of(section) if 0 <= section < self._rows else ""
             if role == Qt.ItemDataRole.DisplayRole and 0 <= section < self._rows:
-                return str(section + 1)
+                return f"{section + 1}  {part}" if part else str(section + 1)
+            if role == Qt.ItemDataRole.ToolTipRole and part:
+                return f"Row {section + 1}: part '{part}' (column '{self._sheet.parts.column}' of the file)"
             return None
         if not 0 <= section < self._columns:
             return None

@@ -28,6 +28,10 @@ def analysis_for(sheet: ReadingSheet, choice) -> Analysis:
     if choice.question is Question.PLAN and not choice.group_indices:
         return replace(analysis_of_columns((), choice.question, choice.settings, decimal=sheet.decimal),
                        notes=choice.notes)
+    if choice.question is Question.PAIRED and len(choice.group_indices) == 2:
+        cannot_pair = sheet.pairing_refusal(choice.group_indices)
+        if cannot_pair:
+            raise ReadingsError(cannot_pair)
     analysis = sheet.to_analysis(choice.question, choice.settings, list(choice.group_indices))
     if sheet.decimal != "auto":  # the sheet reads one stated mark: numbers are shown with it
         analysis = replace(analysis, decimal_mark=sheet.decimal)

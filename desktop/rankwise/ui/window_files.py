@@ -9,9 +9,9 @@ from PySide6.QtCore import QObject, Signal
 
 import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError
-from rankwise.stats.analysis import Question
 from rankwise.ui import dialogs
 from rankwise.ui.recent_files import remember_file
+from rankwise.wording.pairing import CHOSEN_WHEN_OPENING, question_suggested, suggestion_reason
 
 DEMO_FILE_NAME = "two_wheels_roughness.csv"
 """The demo readings opened by ``rankwise --demo`` and the Help menu (invented data)."""
@@ -157,16 +157,23 @@ class WindowFiles:
         """Put opened readings into the sheet (``sheet``: already built from them) and analyse them."""
         if sheet is None:
             sheet = _sheet_of(reading_set)
-        several = len(sheet.groups) >= 3
-        if several != (self.question_panel.option.question is Question.SEVERAL):
-            self.question_panel.select_option("several" if several else "differ")
+        question = reading_set.suggested_question
+        self.question_panel.set_same_parts_unavailable(sheet.parts.not_parts)
+        changed = self.question_panel.select_question(question)
         self.set_sheet(sheet, path)
         used = sum(len(group.values) for group in reading_set.groups)
         skipped = sum(len(group.skipped) for group in reading_set.groups)
-        self.statusBar().showMessage(
-            f"Opened {path.name}: {used} readings in {len(reading_set.groups)} groups"
-            + (f", {skipped} cell{'s' if skipped != 1 else ''} skipped (hover over them in the sheet to see why)."
-               if skipped else "."), 15000)
+        message = (f"Opened {path.name}: {used} readings in {len(reading_set.groups)} groups"
+                   + (f", {skipped} cell{'s' if skipped != 1 else ''} skipped (hover over them in the sheet to see why)."
+                      if skipped else "."))
+        if changed:
+            from rankwise.readings.same_parts import suggest
+
+            natural = suggest(reading_set.groups, reading_set.pairing).question
+            reason = (suggestion_reason(question.value, len(reading_set.groups), reading_set.found)
+                      if question is natural else CHOSEN_WHEN_OPENING)
+            message += " " + question_suggested(self.question_panel.option.text, reason)
+        self.statusBar().showMessage(message, 30000)
 
     def open_demo(self) -> bool:
         """Open the demo readings (surface roughness from two grinding wheels; invented data)."""

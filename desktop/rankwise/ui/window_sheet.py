@@ -41,6 +41,7 @@ class WindowSheet:
             [group.usl - group.lsl if group.usl is not None and group.lsl is not None else None for group in self.sheet.groups],
         )
         self.question_panel.set_plan_sheet(self.sheet)
+        self.question_panel.set_same_parts_unavailable(self.sheet.parts.not_parts)
         self._update_status()
         self.update_undo_actions()
         self.below_highest_action.setChecked(self.sheet.mixed_limits == "below-highest")

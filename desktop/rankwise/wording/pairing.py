@@ -8,8 +8,6 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from rankwise.wording.questions import QUESTION_TITLES
-
 _LISTED = 10
 """Identifiers named in a note before the rest are counted."""
 
@@ -73,9 +71,8 @@ def suggestion_reason(question: str, group_count: int, pairing_words: str = "") 
     return f"the file holds {group_count} group{'s' if group_count != 1 else ''} of different parts."
 
 
-def title_of(question: str) -> str:
-    """The plain title of a question value, for messages."""
-    return QUESTION_TITLES.get(question, question)
+CHOSEN_WHEN_OPENING = "as chosen when the file was opened."
+"""Why the question changed when the technician picked another one in the open dialog."""
 
 
 def small_group(name: str, count: int) -> str:
