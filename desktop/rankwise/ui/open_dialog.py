@@ -206,7 +206,12 @@ class OpenReadingsDialog(QDialog):
             self.question_choice.clear()
             for question, words in fitting:
                 self.question_choice.addItem(words, question)
-            self.question_choice.setCurrentIndex(max(0, self.question_choice.findData(reading_set.suggested_question)))
+            proposed = self.question_choice.findData(reading_set.suggested_question)
+            if proposed < 0:  # a question the window does not ask: the groups' own
+                from rankwise.readings.same_parts import suggest
+
+                proposed = self.question_choice.findData(suggest(reading_set.groups, reading_set.pairing).question)
+            self.question_choice.setCurrentIndex(max(0, proposed))
         finally:
             self._filling = False
         found = reading_set.found

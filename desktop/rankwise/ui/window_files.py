@@ -10,6 +10,7 @@ from PySide6.QtCore import QObject, Signal
 import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError
 from rankwise.ui import dialogs
+from rankwise.ui.question_panel import OPTION_OF_QUESTION
 from rankwise.ui.recent_files import remember_file
 from rankwise.wording.pairing import CHOSEN_WHEN_OPENING, question_suggested, suggestion_reason
 
@@ -157,7 +158,12 @@ class WindowFiles:
         """Put opened readings into the sheet (``sheet``: already built from them) and analyse them."""
         if sheet is None:
             sheet = _sheet_of(reading_set)
+        from rankwise.readings.same_parts import suggest
+
+        natural = suggest(reading_set.groups, reading_set.pairing).question
         question = reading_set.suggested_question
+        if question not in OPTION_OF_QUESTION:  # a question the picker does not ask: the groups' own
+            question = natural
         self.question_panel.set_same_parts_unavailable(sheet.parts.not_parts)
         changed = self.question_panel.select_question(question)
         self.set_sheet(sheet, path)
@@ -167,9 +173,6 @@ class WindowFiles:
                    + (f", {skipped} cell{'s' if skipped != 1 else ''} skipped (hover over them in the sheet to see why)."
                       if skipped else "."))
         if changed:
-            from rankwise.readings.same_parts import suggest
-
-            natural = suggest(reading_set.groups, reading_set.pairing).question
             reason = (suggestion_reason(question.value, len(reading_set.groups), reading_set.found)
                       if question is natural else CHOSEN_WHEN_OPENING)
             message += " " + question_suggested(self.question_panel.option.text, reason)
