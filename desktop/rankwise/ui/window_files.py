@@ -116,9 +116,7 @@ class WindowFiles:
         if path.suffix.lower() in (".xlsx", ".xlsm") and self.records.try_reopen(path):
             remember_file(path)
             return True
-        from rankwise.readings import open_readings
         from rankwise.ui.characteristics_window import offer_characteristics
-        from rankwise.ui.open_dialog import OpenReadingsDialog
 
         many = offer_characteristics(self, path)
         if many is not None:
@@ -127,12 +125,15 @@ class WindowFiles:
             return many
 
         if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
-            self.opening = FileOpening(path, self)
+            self.opening = FileOpening(path, self)  # the file readers load on that thread too
             self.opening.opened.connect(self._on_file_opened)
             self.opening.failed.connect(self._on_file_failed)
             self.statusBar().showMessage(f"Opening {path.name}…")
             self.opening.start()
             return True
+        from rankwise.readings import open_readings
+        from rankwise.ui.open_dialog import OpenReadingsDialog
+
         try:
             reading_set = OpenReadingsDialog.ask(self, path) if show_dialog else open_readings(path)
         except ReadingsError as error:
