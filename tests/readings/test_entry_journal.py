@@ -140,3 +140,13 @@ def test_a_damaged_or_foreign_header_is_refused_in_words():
         read_journal(['{"format": "some-later-form"}\n'])
     with pytest.raises(ReadingsError, match="damaged"):
         read_journal([])
+
+
+def test_a_last_line_without_its_ending_is_left_out():
+    """A kill can cut a line right before its line ending: the change is not taken as complete."""
+    sheet = started_sheet()
+    journal = Journal(sheet)
+    before = sheet.snapshot()
+    sheet.delete_rows(0)
+    journal.lines[-1] = journal.lines[-1].rstrip("\n")
+    assert read_journal(journal.lines).snapshot == before

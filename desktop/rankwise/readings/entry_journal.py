@@ -159,6 +159,8 @@ def read_journal(lines: Iterable[str]) -> JournalEntry:
         ) from error
     changes = 0
     for text in stream:
+        if not text.endswith("\n"):
+            break  # the last line, cut short by the kill (its ending is written with it)
         try:
             record = json.loads(text)
             if "question" in record:
