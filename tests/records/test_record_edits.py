@@ -100,7 +100,7 @@ VISIBILITY_EDITS = [
     (tiny_text, f"Cell B{FOURTH} of '{READINGS}' cannot be read: its text is the colour of its background "
                 "or too small to see."),
     (invisible_format, f"Sheet '{READINGS}', cell B{FOURTH}: the same value is now shown as nothing (format ';;;') "
-                       "instead of 2.48 (format '0.00')."),
+                       "instead of 2.48 (format '[$-409]0.00')."),
     (remove_protection, "Sheet 'Verdict' is no longer protected against edits."),
 ]
 

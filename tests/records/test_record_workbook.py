@@ -38,9 +38,9 @@ def test_readings_are_stored_as_numbers_at_their_resolution_and_notes_as_text(tm
     write_record(path, paired_record())
     sheet = load_workbook(path)["Readings as entered"]
     first = sheet.cell(row=FIRST_ENTRY_ROW, column=2)
-    assert first.value == 1.83 and first.number_format == "0.00"
+    assert first.value == 1.83 and first.number_format == "[$-409]0.00"
     second = sheet.cell(row=FIRST_ENTRY_ROW, column=3)
-    assert second.value == 0.878 and second.number_format == "0.000"
+    assert second.value == 0.878 and second.number_format == "[$-409]0.000"
     assert sheet.cell(row=FIRST_ENTRY_ROW + 9, column=2).value == "scrap"
     reasons = [c.value for c in cells_of(sheet) if isinstance(c.value, str) and "scrap" in c.value]
     assert len(reasons) >= 3  # in the column, in the list of entries not used, and its reason
@@ -55,8 +55,8 @@ def test_key_numbers_are_numbers_and_signing_times_are_dates(tmp_path):
     for r in range(1, sheet.max_row + 1):  # the first row of each label (the preparer signs first)
         rows.setdefault(sheet.cell(row=r, column=1).value, sheet.cell(row=r, column=2))
     assert rows["p-value"].value == record.result.p_value
-    assert rows["p-value"].number_format == "0.0000"
-    assert rows["Typical change per part, After cure minus Before cure"].number_format == '0.000" µm"'
+    assert rows["p-value"].number_format == "[$-409]0.0000"
+    assert rows["Typical change per part, After cure minus Before cure"].number_format == '[$-409]0.000" µm"'
     assert isinstance(rows["Signed at"].value, datetime)
     assert rows["Signed at"].value == datetime(2026, 11, 30, 14, 5, 9)
     assert sheet.cell(row=rows["Signed at"].row, column=3).value == "UTC+01:00"

@@ -76,3 +76,18 @@ def test_a_pdf_is_never_saved_over_a_record_and_a_completed_name_asks_first(qtbo
     answers.confirm = True
     assert window.records.save_pdf() == earlier
     assert earlier.read_bytes().startswith(b"%PDF") and b"an earlier verdict" not in earlier.read_bytes()
+
+
+def test_checking_a_record_resaved_by_another_program_says_so(qtbot, window, answers, monkeypatch, tmp_path):
+    from openpyxl import load_workbook
+
+    opened_export(qtbot, window, tmp_path)
+    monkeypatch.setattr(SignOffDialog, "ask", classmethod(lambda cls, parent=None, **kw: SIGNATURE))
+    answers.save_path = tmp_path / "signed.xlsx"
+    assert window.records.sign_and_save()
+    load_workbook(tmp_path / "signed.xlsx").save(tmp_path / "resaved.xlsx")
+    answers.open_path = tmp_path / "resaved.xlsx"
+    window.records.check_record()
+    title, text = answers.messages[-1]
+    assert title == "Record unchanged" and "resaved.xlsx is intact" in text
+    assert "saved again by another program" in text

@@ -37,6 +37,8 @@ class _Rows:
     def __init__(self, sheet: Worksheet) -> None:
         self.sheet = sheet
         self.row = 1
+        self.longest_table = (0, None)
+        """(rows, heading row) of the longest table: its headings repeat on every printed page."""
 
     def heading(self, text: str) -> None:
         if self.row > 1:
@@ -57,6 +59,7 @@ class _Rows:
         for column, heading in enumerate(headings, start=1):
             put(self.sheet, self.row, column, heading, bold=True, wrap=True)
             fit_row_height(self.sheet, self.row, heading, LABEL_WIDTH if column == 1 else TABLE_WIDTH)
+        self.longest_table = max(self.longest_table, (len(rows), self.row), key=lambda table: table[0])
         self.row += 1
         for cells in rows:
             for column, (value, number_format) in enumerate(cells, start=1):
@@ -83,6 +86,9 @@ def fill_details_sheet(sheet: Worksheet, result: Result, analysis: Analysis) -> 
         _plan(rows, result)
     else:
         raise ValueError(f"result must be a result of the statistics service; got {type(result).__name__}.")
+    heading_row = rows.longest_table[1]
+    if heading_row is not None:
+        sheet.print_title_rows = f"{heading_row}:{heading_row}"
 
 
 def _settings(rows: _Rows, analysis: Analysis) -> None:

@@ -75,7 +75,7 @@ def fill_readings_sheet(sheet: Worksheet, snapshot: SheetSnapshot, entries: Sequ
             if cell.kind is CellKind.NUMBER:
                 put(sheet, target, column, cell.value, reading_format(cell.decimals))
             elif cell.kind is not CellKind.EMPTY:
-                put(sheet, target, column, cell.text)
+                put(sheet, target, column, cell.text, indent=True)  # clear of a number beside it
             if cell.kind in (CellKind.NOTE, CellKind.INVALID, CellKind.CENSORED):
                 not_used.append((group.name, row + 1, cell.text, reason_not_used(cell)))
 

@@ -21,6 +21,8 @@ GENERAL_DIGITS = 10
 
 _SELF_LITERAL = set(" -+/():$!^&'~{}<>=")
 """Characters a number format shows as themselves whether or not they are escaped or quoted."""
+_LEADING_BRACKETS = re.compile(r"^(?:\[[^\]]*\])*")
+"""Language tags and conditions at the start of a format section, e.g. "[$-409][<0.001]"."""
 _CONDITION = re.compile(r"^\[(<=|>=|<>|<|>|=)(-?[\d.]+)\]")
 _NUMBER_PATTERN = re.compile(r"[0#?][0#?,]*(?:\.([0#?]+))?(?:E[+-]([0#]+))?")
 
@@ -86,8 +88,25 @@ def format_key(number_format: str | None) -> str | None:
             parts.append(char.lower() if char.isalpha() and text.lower() != "general" else char)
         index += 1
     flush()
+    parts = _brackets_in_order(parts)
     joined = "".join(parts)
     return "General" if joined.lower() == "general" else joined
+
+
+def _brackets_in_order(parts: list[str]) -> list[str]:
+    """Neighbouring bracketed tokens (language tag, condition, colour) sorted: their order carries no
+    meaning, and LibreOffice Calc writes "[$-407][<0.001]" back as "[<0.001][$-407]"."""
+    ordered: list[str] = []
+    run: list[str] = []
+    for part in [*parts, ""]:
+        if part.startswith("["):
+            run.append(part)
+            continue
+        ordered.extend(sorted(run))
+        run = []
+        if part:
+            ordered.append(part)
+    return ordered
 
 
 def meaning(kind: str, text: str, number_format: str | None) -> tuple[str, str, str | None]:
@@ -122,13 +141,14 @@ def _number_shown(value: float, number_format: str) -> str:
     """``value`` through ``number_format`` (the parts of the format language the records use)."""
     sections = _sections(number_format)
     section = sections[0]
-    condition = _CONDITION.match(section)
+    condition = next((found for found in map(_CONDITION.match, _LEADING_BRACKETS.match(section).group(0)
+                                             .replace("][", "]\n[").split("\n")) if found), None)
     if condition is not None:
         if not _holds(value, condition.group(1), float(condition.group(2))):
             section = sections[1] if len(sections) > 1 else section
     elif value < 0 and len(sections) > 1:
         section, value = sections[1], -value
-    section = re.sub(r"^(\[[^\]]*\])+", "", section)
+    section = _LEADING_BRACKETS.sub("", section)
     if not section and len(sections) > 1:
         return ""  # an empty section shows nothing (";;;" hides every number)
     if section.lower() == "general" or not section:

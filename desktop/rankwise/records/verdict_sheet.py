@@ -25,13 +25,14 @@ NOTE_COLUMN_WIDTH = 52
 
 
 def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str) -> None:
-    """Write the summary: what was asked, the verdict in words, the key numbers, who signed."""
+    """Write the summary: what was asked, the verdict in words, the key numbers, who signed and,
+    beside the signatures, the fingerprint; printed on one page."""
     analysis, result = record.analysis, record.result
     verdict = describe(result, analysis)
     sheet.column_dimensions["A"].width = LABEL_WIDTH
     sheet.column_dimensions["B"].width = VALUE_WIDTH
     sheet.column_dimensions["C"].width = NOTE_COLUMN_WIDTH
-    set_print_setup(sheet)
+    set_print_setup(sheet, one_page=True)
 
     put(sheet, 1, 1, "Result record", bold=True)
     sheet["A1"].font = TITLE
@@ -74,6 +75,9 @@ def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str)
 
     row += 1
     row = _signoff_block(sheet, row, record)
+    row = _text_line(sheet, row, "Fingerprint (SHA-256)", fingerprint)
+    row = _text_line(sheet, row, "", "Any change to the readings, settings, results or sign-off changes this "
+                                     "fingerprint; the program's check of a record recomputes it.")
     row += 1
     row = _text_line(sheet, row, "Written by", f"Rankwise {record.program_version}")
     for name, version in record.library_versions:
@@ -81,10 +85,6 @@ def fill_verdict_sheet(sheet: Worksheet, record: ResultRecord, fingerprint: str)
         put(sheet, row, 2, version)
         row += 1
     _moment(sheet, row, "Record written at", record.created_at)
-    row += 2
-    row = _text_line(sheet, row, "Fingerprint (SHA-256)", fingerprint)
-    _text_line(sheet, row, "", "Any change to the readings, settings, results or sign-off changes this "
-                               "fingerprint; the program's check of a record recomputes it.")
 
 
 def _text_line(sheet: Worksheet, row: int, label: str, text: str, *, bold: bool = False) -> int:

@@ -25,7 +25,7 @@ from rankwise.records.ranks_sheet import fill_ranks_sheet, ranks_sheet_title
 from rankwise.records.readings_sheet import SHEET_TITLE as READINGS_TITLE
 from rankwise.records.readings_sheet import fill_readings_sheet
 from rankwise.records.record import ResultRecord, record_from_data, record_to_data
-from rankwise.records.sheet_cells import put
+from rankwise.records.sheet_cells import put, with_decimal_mark
 from rankwise.records.sheet_listing import pack_listing, sheet_listing, unpack_listing
 from rankwise.records.verdict_sheet import SHEET_TITLE as VERDICT_TITLE
 from rankwise.records.verdict_sheet import fill_verdict_sheet
@@ -92,6 +92,7 @@ def _visible_workbook(record: ResultRecord, fingerprint: str) -> Workbook:
         fill_readings_sheet(workbook.create_sheet(READINGS_TITLE), record.snapshot, record.analysis.entries)
         fill_ranks_sheet(workbook.create_sheet(ranks_sheet_title(record.result)), record.result, record.analysis)
         fill_details_sheet(workbook.create_sheet(DETAILS_TITLE), record.result, record.analysis)
+    with_decimal_mark(workbook, getattr(record.analysis, "decimal_mark", "."))
     for sheet in workbook.worksheets:
         sheet.protection.sheet = True  # against accidental edits; no password (see the decision record)
     return workbook

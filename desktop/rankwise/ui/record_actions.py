@@ -235,8 +235,10 @@ class RecordActions(QObject):
             return
         verification = verify_record(path)
         if verification.status == "intact":
+            notes = "".join(f"\n\n{note}" for note in verification.notes)
             dialogs.show_message(self.window, "Record unchanged",
-                                 f"{path.name} is intact: its readings, results and sign-off are as they were signed.")
+                                 f"{path.name} is intact: its readings, results and sign-off are as they were "
+                                 f"signed.{notes}")
             return
         if verification.status == "changed":
             listed = "\n".join(f"• {difference}" for difference in verification.differences[:20])
