@@ -27,7 +27,8 @@ PAGE_FOOTER = "&A, page &P of &N"
 DECIMAL_MARK_TAGS = {".": "[$-409]", ",": "[$-407]"}
 """Language tags of number formats: English (United States) writes a decimal point, German
 (Germany) a decimal comma (Windows language identifiers 0x0409 and 0x0407)."""
-_MINUS_BEFORE_DIGIT = re.compile(r"(?:(?<=^)|(?<=[\s(]))-(?=\d)")
+_MINUS_BEFORE_DIGIT = re.compile(r"(?<=[ (])-(?=\d)")
+"""A minus sign inside a text, after a space or bracket (a text that starts with "-" is kept as typed)."""
 _SPACE_BEFORE_UNIT = re.compile(r"(?<=\d) (?=[%‰°]|µ|(?:mm|cm|kg|Nm|MPa|bar|HRC)\b)")
 """The space between a number and its per cent sign or unit (the units the shop floor writes most)."""
 _LEADING_NUMBER = re.compile(r"^[-+]?\d+(?:[.,](\d+))?")
