@@ -125,13 +125,17 @@ class ReadingsGrid(QTableView):
         self.scrollTo(index)
 
     def closeEditor(self, editor: QWidget, hint: QAbstractItemDelegate.EndEditHint) -> None:  # noqa: N802
-        """Enter while typing commits the reading and moves down, like a gauge sheet."""
+        """Enter while typing commits the reading and moves down, like a gauge sheet; the keyboard
+        stays in the sheet for the next reading."""
+        had_keyboard = editor is not None and editor.hasFocus()
         if hint == QAbstractItemDelegate.EndEditHint.SubmitModelCache:
             super().closeEditor(editor, QAbstractItemDelegate.EndEditHint.NoHint)
             current = self.currentIndex()
             self.move_to(current.row() + 1, current.column())
         else:
             super().closeEditor(editor, hint)
+        if had_keyboard and not self.hasFocus():
+            self.setFocus(Qt.FocusReason.OtherFocusReason)
 
     def _filled(self, row: int, column: int) -> bool:
         sheet = self.sheet_model().sheet
