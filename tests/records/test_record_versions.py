@@ -25,6 +25,8 @@ from rankwise.records.workbook import (
 
 from record_builders import paired_record
 
+WRITTEN_BY = rankwise.__version__  # the version that writes the record in these tests, before a later one is simulated
+
 LATER_HEADLINE = "A later release words this verdict differently."
 READING = ("Readings as entered", f"B{FIRST_ENTRY_ROW + 3}")
 """The fourth reading of the first group: 2.48 in Hollander & Wolfe (1999), 2nd ed., p. 39."""
@@ -96,7 +98,7 @@ def test_the_later_wording_really_differs_from_what_was_signed(written, later_ve
 def test_an_untouched_record_checked_by_a_later_version_is_intact_with_a_note(written, later_version):
     verification = verify_record(written)
     assert verification.status == "intact", verification.differences
-    assert any("Rankwise 9.0.0 checked the visible sheets" in note and "Rankwise 0.1.0" in note
+    assert any("Rankwise 9.0.0 checked the visible sheets" in note and f"Rankwise {WRITTEN_BY}" in note
                for note in verification.notes), verification.notes
 
 
