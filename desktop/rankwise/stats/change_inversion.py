@@ -18,7 +18,7 @@ from __future__ import annotations
 import numpy as np
 
 from rankwise.stats.exact_signed_rank import signed_rank_p
-from rankwise.stats.shift_inversion import NO_SHIFT, AcceptedShifts
+from rankwise.stats.shift_inversion import AcceptedShifts, accepted_set
 
 INVERSION_WORK = 3e8
 """Largest (candidates tried) x n x (n (n + 1)), the sign-flip counts' work (about 0.3 s)."""
@@ -59,19 +59,4 @@ def accepted_changes(d_counts: np.ndarray, level: float, alternative: str = "two
     four_d = 4 * d
     p = np.array([signed_rank_p(four_d - t, zero_method, alternative) for t in tried.tolist()])
     accepted = p > 1.0 - level + _P_TOLERANCE
-    if (alternative != "b-less" and accepted[0]) or (alternative != "b-greater" and accepted[-1]):
-        return None
-    inside = np.flatnonzero(accepted)
-    if inside.size == 0:
-        return NO_SHIFT
-    if inside.size != inside[-1] - inside[0] + 1:
-        return None
-    first, last = int(inside[0]), int(inside[-1])
-    low, low_in = (-np.inf, False) if alternative == "b-less" else (_end(tried, first, -1), first % 2 == 1)
-    high, high_in = (np.inf, False) if alternative == "b-greater" else (_end(tried, last, +1), last % 2 == 1)
-    return AcceptedShifts(low=low, high=high, low_included=low_in, high_included=high_in)
-
-
-def _end(tried: np.ndarray, index: int, side: int) -> float:
-    """The set's end at candidate ``index`` (in gauge steps): a Walsh average, or the one beside an accepted gap."""
-    return float(tried[index] if index % 2 == 1 else tried[index + side]) / 4.0
+    return accepted_set(tried, accepted, alternative, steps_per_unit=4)

@@ -78,6 +78,17 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     if tried.size * one_count > INVERSION_SECONDS:
         return None
     accepted = np.array([_p_value(a, b, int(t), alternative) > 1.0 - level + _P_TOLERANCE for t in tried])
+    return accepted_set(tried, accepted, alternative, steps_per_unit=2)
+
+
+def accepted_set(tried: np.ndarray, accepted: np.ndarray, alternative: str,
+                 steps_per_unit: int) -> AcceptedShifts | None:
+    """The accepted candidates as one set with open or closed ends.
+
+    ``tried`` alternates gaps (even index) and candidate values (odd index), ascending, in
+    ``1 / steps_per_unit`` of a gauge step. None when the set runs past the last candidate on a
+    bounded side or has a rejected candidate inside; ``NO_SHIFT`` when nothing is accepted.
+    """
     if alternative != "b-less" and accepted[0]:
         return None
     if alternative != "b-greater" and accepted[-1]:
@@ -88,15 +99,14 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     if inside.size != inside[-1] - inside[0] + 1:
         return None
     first, last = int(inside[0]), int(inside[-1])
-    # An accepted gap (even index) ends open at the rejected difference beside it.
-    low, low_in = (-np.inf, False) if alternative == "b-less" else (_end(tried, first, -1), first % 2 == 1)
-    high, high_in = (np.inf, False) if alternative == "b-greater" else (_end(tried, last, +1), last % 2 == 1)
+
+    def end(index: int, side: int) -> float:
+        """A candidate value itself, or, for an accepted gap, the rejected value beside it (an open end)."""
+        return float(tried[index] if index % 2 == 1 else tried[index + side]) / steps_per_unit
+
+    low, low_in = (-np.inf, False) if alternative == "b-less" else (end(first, -1), first % 2 == 1)
+    high, high_in = (np.inf, False) if alternative == "b-greater" else (end(last, +1), last % 2 == 1)
     return AcceptedShifts(low=low, high=high, low_included=low_in, high_included=high_in)
-
-
-def _end(tried: np.ndarray, index: int, side: int) -> float:
-    """The set's end at candidate ``index``: the difference itself, or the one beside an accepted gap."""
-    return float(tried[index] if index % 2 == 1 else tried[index + side]) / 2.0
 
 
 def _doubled_ranks(a: np.ndarray, b: np.ndarray, twice_shift: int) -> tuple[np.ndarray, float]:
