@@ -5,8 +5,12 @@ from __future__ import annotations
 
 from PySide6.QtWidgets import QAbstractButton, QLabel, QTabBar, QWidget
 
+from rankwise.ui.elided_label import ElidedLabel
+
 
 def _label_cut(label: QLabel) -> str | None:
+    if isinstance(label, ElidedLabel):  # ends in "…" by design when narrow; the whole text is its tooltip
+        return None if label.toolTip() == label.text() else "shortened without its whole text in the tooltip"
     if label.wordWrap():
         needed = label.heightForWidth(label.width()) if label.hasHeightForWidth() else label.sizeHint().height()
         if needed > label.height() + 1:

@@ -106,3 +106,19 @@ def test_nothing_is_cut_off_at_200_percent_scaling(tmp_path):
     assert report["scale"] == 2.0
     assert report["window_inside_screen"] and report["dialog_inside_screen"]
     assert report["window_problems"] == []
+
+
+def test_a_long_status_line_ends_in_an_ellipsis_with_the_whole_count_in_its_tooltip(qtbot, window):
+    """Four groups with long names at 1024 x 700: the counts never stop mid-word at the edge."""
+    window.resize(1024, 700)
+    qtbot.waitUntil(lambda: window.width() == 1024, timeout=PATIENCE_MS)
+    names = ["Wheel A, current supplier", "Wheel B, new supplier", "Wheel C, trial dressing", "Wheel D, trial coolant"]
+    rows = ["\t".join(names)] + ["\t".join(f"3,{10 + row + column}" for column in range(4)) for row in range(6)]
+    window.grid.move_to(0, 0)
+    window.grid.paste_text("\n".join(rows))
+    status = window.status_counts
+    qtbot.waitUntil(lambda: status.text().startswith(names[0]), timeout=PATIENCE_MS)
+    assert all(name in status.toolTip() for name in names)
+    shown = status.shown_text()
+    assert shown.endswith("…") and status.fontMetrics().horizontalAdvance(shown) <= status.contentsRect().width()
+    screenshot(window, "window-1024x700-long-status-line")

@@ -18,6 +18,7 @@ from PySide6.QtWidgets import (
 
 import rankwise
 from rankwise.ui.chart_tab import ChartTab
+from rankwise.ui.elided_label import ElidedLabel
 from rankwise.ui.screen_fit import fit_to_screen
 from rankwise.ui.signed_strip import SignedStrip
 
@@ -166,7 +167,7 @@ class WindowPanes:
         self.setCentralWidget(self.main_splitter)
         self._narrow: bool | None = None
         self._arrange_panes()
-        self.status_counts = QLabel()
+        self.status_counts = ElidedLabel()
         self.status_counts.setAccessibleName("Readings per group")
         self.status_state = QLabel()
         self.status_decimal = QLabel()
