@@ -84,3 +84,20 @@ def test_readings_keep_the_resolution_they_were_typed_with(qtbot, window):
     readings = [model.index(row, 2).data() for row in range(model.rowCount())]
     assert readings[0] == "25.010" and "25.020" in readings and "25.030" in readings
     assert window.results_panel.number_text("median_a") == "25.0105"
+
+
+def test_a_reading_half_typed_when_the_panes_fold_or_unfold_is_kept_and_typing_goes_on(qtbot, window):
+    """The window crosses the width where the question and the sheet fold into tabs (a late fit to a
+    small screen, or the technician resizing it) while a reading is half typed: the keyboard stays
+    in that cell, so the rest of the reading and the next ones land."""
+    window.resize(1500, 900)
+    qtbot.waitUntil(lambda: window.width() == 1500 and window.grid.hasFocus(), timeout=60000)
+    press(qtbot, "3,1")
+    window.resize(1000, 700)
+    qtbot.waitUntil(lambda: window.width() == 1000, timeout=60000)
+    press(qtbot, "2", ENTER, "3,1")
+    window.resize(1500, 900)
+    qtbot.waitUntil(lambda: window.width() == 1500, timeout=60000)
+    press(qtbot, "5", ENTER, "3,11", ENTER)
+    assert _texts(window, 0, 3) == ["3,12", "3,15", "3,11"]
+    assert QApplication.focusWidget() is window.grid

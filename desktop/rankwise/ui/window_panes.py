@@ -6,6 +6,7 @@ from pathlib import Path
 
 from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
+    QAbstractItemView,
     QFrame,
     QLabel,
     QScrollArea,
@@ -58,6 +59,7 @@ class WindowPanes:
             return
         self._narrow = narrow
         focused = self.focusWidget()  # the control to keep the keyboard, even while the window is inactive
+        typing = self._text_being_typed(focused)  # moving the sheet closes its editor: typing goes on after
         width = max(self.width(), 800)
         if narrow:
             self.folded_panes.addTab(self.question_box, "Question")
@@ -74,9 +76,21 @@ class WindowPanes:
             self._size_panes({self.question_box: (0, 310), self.sheet_box: (2, 490),
                               self.right_panes: (3, max(640, width - 800))})
         self._set_tab_order()  # moving the panes moved them in the focus chain
-        if focused is not None:
+        if typing is not None:
+            self.reveal(self.grid)
+            self.grid.setFocus()
+            self.grid.type_into_current(typing)
+        elif focused is not None:
             self.reveal(focused)
             focused.setFocus()
+
+    def _text_being_typed(self, focused: QWidget | None) -> str | None:
+        """The text in the sheet's open cell editor, when the keyboard is in it; else None."""
+        if focused is None or focused is self.grid or not self.grid.isAncestorOf(focused):
+            return None
+        if self.grid.state() != QAbstractItemView.State.EditingState or not hasattr(focused, "text"):
+            return None
+        return focused.text()
 
     def _size_panes(self, wanted: dict[QWidget, tuple[int, int]]) -> None:
         """Stretch factor and width per pane; panes not named (hidden) get none."""
