@@ -19,7 +19,7 @@ from rankwise.stats.analysis import ALTERNATIVES, METHODS
 from rankwise.stats.inputs import check_choice, check_level
 from rankwise.stats.progress import SILENT, Monitor
 from rankwise.stats.results import CharacteristicRow, CharacteristicsResult
-from rankwise.stats.several import holm_adjust
+from rankwise.stats.several import checked_p_values, holm_adjust
 from rankwise.stats.two_groups import compare_two
 
 ADJUSTMENTS = ("holm", "fdr", "none")
@@ -117,11 +117,9 @@ def benjamini_hochberg_adjust(p_values: Sequence[float] | np.ndarray) -> np.ndar
     Sorted ascending, the i-th smallest (1-based) becomes min over j >= i of min(1, m p_(j) / j);
     the running minimum from the largest down keeps the adjusted values in the raw ones' order.
     """
-    p = np.asarray(p_values, dtype=float)
+    p = checked_p_values(p_values)
     if p.size == 0:
         return p.copy()
-    if np.any((p < 0.0) | (p > 1.0)) or np.isnan(p).any():
-        raise ValueError("p_values must all lie between 0 and 1.")
     order = np.argsort(p, kind="mergesort")
     scaled = np.minimum(1.0, p.size * p[order] / np.arange(1, p.size + 1))
     stepped = np.minimum.accumulate(scaled[::-1])[::-1]

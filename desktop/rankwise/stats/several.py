@@ -165,6 +165,14 @@ def _dunn_pairs(names, sizes, mean_ranks, total, ties, alpha, reference, degener
     )
 
 
+def checked_p_values(p_values: Sequence[float] | np.ndarray) -> np.ndarray:
+    """The p-values as a float array; a ValueError when one lies outside [0, 1] or is not a number."""
+    p = np.asarray(p_values, dtype=float)
+    if np.any((p < 0.0) | (p > 1.0)) or np.isnan(p).any():
+        raise ValueError("p_values must all lie between 0 and 1.")
+    return p
+
+
 def holm_adjust(p_values: Sequence[float] | np.ndarray) -> np.ndarray:
     """Holm (1979) step-down adjusted p-values, in the order given.
 
@@ -172,11 +180,9 @@ def holm_adjust(p_values: Sequence[float] | np.ndarray) -> np.ndarray:
     the running maximum keeps the adjusted values in the order of the raw ones, which is why
     several pairs can share one adjusted value.
     """
-    p = np.asarray(p_values, dtype=float)
+    p = checked_p_values(p_values)
     if p.size == 0:
         return p.copy()
-    if np.any((p < 0.0) | (p > 1.0)) or np.isnan(p).any():
-        raise ValueError("p_values must all lie between 0 and 1.")
     order = np.argsort(p, kind="mergesort")
     multipliers = p.size - np.arange(p.size)
     stepped = np.maximum.accumulate(np.minimum(1.0, multipliers * p[order]))
