@@ -16,7 +16,7 @@ from typing import TYPE_CHECKING
 
 import numpy as np
 
-from rankwise.readings.cells import CellKind
+from rankwise.readings.column_arrays import NO_DECIMALS, NUMBER
 
 if TYPE_CHECKING:
     from rankwise.readings.sheet import GroupColumn
@@ -57,16 +57,19 @@ def plan_start(columns: Sequence[GroupColumn], *, paired: bool = False, share: f
     """Starting values for a plan over ``columns`` (A and B in that order for the same parts)."""
     if not 0.0 < share <= 1.0:
         raise ValueError(f"share must lie above 0 and at most 1; got {share!r}.")
-    measured = [_measured(column) for column in columns]
-    decimals = max((cell.decimals for column in columns for cell in column.cells
-                    if cell.kind is CellKind.NUMBER and cell.decimals is not None), default=None)
+    arrays = [column.arrays() for column in columns]
+    measured = [column.measured() for column in arrays]
+    decimals = max((int(column.decimals.max()) for column in arrays if column.decimals.size), default=NO_DECIMALS)
+    decimals = None if decimals == NO_DECIMALS else decimals
     if paired and len(columns) >= 2:
-        a, b = measured[0], measured[1]
-        differences = np.array([b[row] - a[row] for row in sorted(set(a) & set(b))])
+        a, b = arrays[0], arrays[1]
+        rows = min(a.kinds.size, b.kinds.size)
+        both = (a.kinds[:rows] == NUMBER) & (b.kinds[:rows] == NUMBER)  # the rows measured at both stages
+        differences = b.values[:rows][both] - a.values[:rows][both]
         spread = float(np.std(differences, ddof=1)) if differences.size >= 2 else None
         count = int(differences.size)
     else:
-        values = [np.array(list(group.values())) for group in measured if len(group) >= 2]
+        values = [group for group in measured if group.size >= 2]
         degrees = sum(v.size - 1 for v in values)
         spread = math.sqrt(sum(float(np.sum((v - v.mean()) ** 2)) for v in values) / degrees) if degrees else None
         count = sum(v.size for v in values)
@@ -77,7 +80,7 @@ def plan_start(columns: Sequence[GroupColumn], *, paired: bool = False, share: f
     return PlanStart(
         spread=spread,
         spread_count=count if spread is not None else 0,
-        spread_groups=tuple(column.name for column, group in zip(columns, measured) if group),
+        spread_groups=tuple(column.name for column, group in zip(columns, measured) if group.size),
         of_differences=paired,
         shift=None if tolerance is None else share * (tolerance[2] - tolerance[1]),
         tolerance=tolerance,
@@ -86,7 +89,3 @@ def plan_start(columns: Sequence[GroupColumn], *, paired: bool = False, share: f
         unit=next((column.unit for column in columns if column.unit), ""),
     )
 
-
-def _measured(column: GroupColumn) -> dict[int, float]:
-    """The group's measured readings by row (censored readings, notes and blanks left out)."""
-    return {row: float(cell.value) for row, cell in enumerate(column.cells) if cell.kind is CellKind.NUMBER}

@@ -15,7 +15,7 @@ from typing import TYPE_CHECKING
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.censored import check_mixed_limits
-from rankwise.readings.entry_counts import count_entries
+from rankwise.readings.column_arrays import ColumnArrays
 from rankwise.readings.group_names import next_group_names
 from rankwise.readings import decimal_mark
 from rankwise.readings.parse import check_decimal, parse_reading
@@ -48,10 +48,21 @@ class GroupColumn:
     usl: float | None = None
     nominal: float | None = None
     cells: list[Cell] = field(default_factory=list)
+    _arrays: ColumnArrays | None = field(default=None, init=False, compare=False, repr=False)
 
     def copy(self) -> GroupColumn:
         """An independent copy (the cells themselves are immutable)."""
         return dataclasses.replace(self, cells=list(self.cells))
+
+    def arrays(self) -> ColumnArrays:
+        """The cells as arrays: made on first use, then kept in step by the sheet's edits."""
+        if self._arrays is None or not self._arrays.mirrors(self.cells):
+            self._arrays = ColumnArrays(self.cells)
+        return self._arrays
+
+    def _kept_arrays(self) -> ColumnArrays | None:
+        """The arrays to keep in step with the next change of ``cells``; None when there are none yet."""
+        return self._arrays if self._arrays is not None and self._arrays.mirrors(self.cells) else None
 
 
 @dataclass(frozen=True)
@@ -219,14 +230,7 @@ class ReadingSheet:
     def counts(self, group: int) -> GroupCounts:
         """How many readings of a group are used, skipped, censored, and how many blanks lie between them
         (the count of ``rankwise.readings.entry_counts``, which the verdict shows)."""
-        column = self.groups[self._group_index(group)]
-        entries = count_entries(column.name, column.cells)
-        return GroupCounts(
-            used=entries.readings - entries.censored,
-            skipped=len(entries.not_used),
-            censored=entries.censored,
-            blanks=entries.empty_between,
-        )
+        return self.groups[self._group_index(group)].arrays().counts()
 
     def skipped(self, group: int) -> list[SkippedCell]:
         """The cells of a group that are not used (notes, unreadable entries), with their rows and reasons."""
@@ -469,20 +473,15 @@ class ReadingSheet:
             for (g, r), cell in writes.items():
                 cells = self.groups[g].cells
                 old_cells[(g, r)] = cells[r] if r < len(cells) else EMPTY_CELL
-                if r >= len(cells):
-                    cells.extend([EMPTY_CELL] * (r + 1 - len(cells)))
-                cells[r] = cell
+                _put(self.groups[g], r, cell)
             for g in groups:
-                _trim(self.groups[g].cells)
+                _trim_column(self.groups[g])
 
         def revert() -> None:
             for (g, r), cell in old_cells.items():
-                cells = self.groups[g].cells
-                if r >= len(cells):
-                    cells.extend([EMPTY_CELL] * (r + 1 - len(cells)))
-                cells[r] = cell
+                _put(self.groups[g], r, cell)
             for g in groups:
-                del self.groups[g].cells[old_lengths[g]:]
+                _delete(self.groups[g], old_lengths[g], len(self.groups[g].cells))
 
         change = SheetChange("cells", groups[0], groups[-1], min(rows), max(rows))
         return _Operation(apply, revert, change, change)
@@ -506,13 +505,13 @@ class ReadingSheet:
         def apply() -> None:
             for group in self.groups:
                 if row < len(group.cells):
-                    group.cells[row:row] = [EMPTY_CELL] * count
+                    _insert(group, row, [EMPTY_CELL] * count)
             self.parts = parts.with_rows_inserted(row, count)
 
         def revert() -> None:
             for group in self.groups:
                 if row < len(group.cells):
-                    del group.cells[row:row + count]
+                    _delete(group, row, row + count)
             self.parts = parts
 
         last = row + count - 1
@@ -535,8 +534,8 @@ class ReadingSheet:
             removed.clear()
             for group in self.groups:
                 removed.append(group.cells[row:row + count])
-                del group.cells[row:row + count]
-                _trim(group.cells)
+                _delete(group, row, row + count)
+                _trim_column(group)
             self.parts = parts.with_rows_deleted(row, count)
 
         def revert() -> None:
@@ -544,8 +543,8 @@ class ReadingSheet:
             for group, cells in zip(self.groups, removed):
                 if cells:
                     if len(group.cells) < row:
-                        group.cells.extend([EMPTY_CELL] * (row - len(group.cells)))
-                    group.cells[row:row] = cells
+                        _insert(group, len(group.cells), [EMPTY_CELL] * (row - len(group.cells)))
+                    _insert(group, row, cells)
 
         last = row + count - 1
         operation = _Operation(
@@ -754,6 +753,46 @@ def _limit(name: str, value: object) -> float | None:
 def _trim(cells: list[Cell]) -> None:
     while cells and cells[-1].kind is CellKind.EMPTY:
         cells.pop()
+
+
+# The changes below are the only ones made to a column's list of cells in place; each keeps the
+# column's arrays (``GroupColumn.arrays``) in step.
+
+def _put(column: GroupColumn, row: int, cell: Cell) -> None:
+    """``column.cells[row] = cell``, extending the column with blanks when ``row`` lies past its end."""
+    if row >= len(column.cells):
+        _insert(column, len(column.cells), [EMPTY_CELL] * (row + 1 - len(column.cells)))
+    arrays = column._kept_arrays()
+    column.cells[row] = cell
+    if arrays is not None:
+        arrays.set(row, cell)
+
+
+def _insert(column: GroupColumn, row: int, cells: list[Cell]) -> None:
+    """``column.cells[row:row] = cells``."""
+    arrays = column._kept_arrays()
+    column.cells[row:row] = cells
+    if arrays is not None:
+        arrays.insert(row, cells)
+
+
+def _delete(column: GroupColumn, start: int, stop: int) -> None:
+    """``del column.cells[start:stop]``."""
+    stop = min(stop, len(column.cells))
+    if start >= stop:
+        return
+    arrays = column._kept_arrays()
+    del column.cells[start:stop]
+    if arrays is not None:
+        arrays.delete(start, stop)
+
+
+def _trim_column(column: GroupColumn) -> None:
+    """Remove the blanks at the end of the column."""
+    end = len(column.cells)
+    while end and column.cells[end - 1].kind is CellKind.EMPTY:
+        end -= 1
+    _delete(column, end, len(column.cells))
 
 
 def _trimmed(cells: list[Cell]) -> list[Cell]:

@@ -15,7 +15,6 @@ from PySide6.QtCore import QAbstractTableModel, QModelIndex, QObject, Qt, Signal
 from PySide6.QtGui import QBrush, QColor, QFont
 
 from rankwise.readings import CellKind, ReadingSheet
-from rankwise.readings.entry_counts import count_entries
 from rankwise.wording.entries import count_phrase
 from rankwise.readings.suspicious import flag_readings
 
@@ -228,7 +227,8 @@ class SheetModel(QAbstractTableModel):
 
     def _group_tooltip(self, section: int) -> str:
         group = self._sheet.groups[section]
-        lines = [f"{group.name}: {count_phrase(count_entries(group.name, group.cells))}"]
+        counts = self._sheet.counts(section)
+        lines = [f"{group.name}: {count_phrase(counts.used + counts.censored, counts.censored, counts.skipped)}"]
         for label, value in (("Unit", group.unit), ("LSL", group.lsl), ("USL", group.usl), ("Nominal", group.nominal)):
             if value not in (None, ""):
                 lines.append(f"{label}: {value:g}" if isinstance(value, float) else f"{label}: {value}")

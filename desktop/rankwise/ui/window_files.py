@@ -35,6 +35,8 @@ LARGE_FILE_BYTES = 2_000_000
 def _sheet_of(reading_set) -> ReadingSheet:
     sheet = ReadingSheet.from_reading_set(reading_set)
     sheet.mark_saved()
+    for group in sheet.groups:
+        group.arrays()  # made here, on the opening thread for a large file; the window's edits keep them
     return sheet
 
 

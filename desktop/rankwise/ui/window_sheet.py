@@ -5,7 +5,6 @@ from __future__ import annotations
 from pathlib import Path
 
 from rankwise.readings import ReadingSheet
-from rankwise.readings.entry_counts import count_entries
 from rankwise.ui import dialogs
 from rankwise.wording.entries import count_phrase
 
@@ -51,8 +50,10 @@ class WindowSheet:
 
     def _update_status(self) -> None:
         parts = []
-        for group in self.sheet.groups:
-            parts.append(f"{group.name}: {count_phrase(count_entries(group.name, group.cells), brief=True)}")
+        for index, group in enumerate(self.sheet.groups):
+            counts = self.sheet.counts(index)
+            phrase = count_phrase(counts.used + counts.censored, counts.censored, counts.skipped, brief=True)
+            parts.append(f"{group.name}: {phrase}")
         self.status_counts.setText("   ·   ".join(parts) if parts else "No readings yet: type or paste them into the sheet.")
         self.status_decimal.setText(self.sheet.decimal_label)
         self.status_decimal.setToolTip(f"{self.sheet.decimal_status} Change it in Edit > Decimal separator.")

@@ -45,15 +45,16 @@ def count_sentence(entries: GroupEntries, question: Question) -> str:
     return f"{entries.name}: " + "; ".join(parts) + "."
 
 
-def count_phrase(entries: GroupEntries, *, brief: bool = False) -> str:
-    """ "7 readings used (1 below a detection limit), 1 entry not used" for tooltips; ``brief`` for the
-    status line: "7 readings (1 below a limit), 1 not used"."""
-    text = f"{_plural(entries.readings, 'reading')}{'' if brief else ' used'}"
-    if entries.censored:
-        text += f" ({entries.censored} below {'a limit' if brief else 'a detection limit'})"
-    if entries.not_used:
-        text += (f", {len(entries.not_used)} not used" if brief
-                 else f", {_plural(len(entries.not_used), 'entry', 'entries')} not used")
+def count_phrase(readings: int, censored: int, not_used: int, *, brief: bool = False) -> str:
+    """A group's count (as in ``GroupEntries``: readings including those below a detection limit,
+    those below it, entries not used): "7 readings used (1 below a detection limit), 1 entry not used"
+    for tooltips; ``brief`` for the status line: "7 readings (1 below a limit), 1 not used"."""
+    text = f"{_plural(readings, 'reading')}{'' if brief else ' used'}"
+    if censored:
+        text += f" ({censored} below {'a limit' if brief else 'a detection limit'})"
+    if not_used:
+        text += (f", {not_used} not used" if brief
+                 else f", {_plural(not_used, 'entry', 'entries')} not used")
     return text
 
 

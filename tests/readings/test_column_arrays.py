@@ -1,0 +1,79 @@
+"""A group's arrays kept in step with each edit: after any sequence of edits, undos and redos they hold
+what a fresh pass over the cells finds, and the counts and planning values drawn from them agree
+with the full count of ``count_entries`` and with a cell-by-cell computation (the references)."""
+
+import math
+
+import numpy as np
+import pytest
+
+from rankwise.readings import CellKind, ReadingsError
+from rankwise.readings.column_arrays import ColumnArrays
+from rankwise.readings.entry_counts import count_entries
+from rankwise.readings.plan_start import plan_start
+
+from test_sheet import _apply, _edit_strategy, make_sheet
+
+
+def _full_count(column):
+    """The reference: every cell counted again (``count_entries``, the count the verdict shows)."""
+    entries = count_entries(column.name, column.cells)
+    return (entries.readings - entries.censored, len(entries.not_used), entries.censored, entries.empty_between)
+
+
+def _spread_by_cells(columns, paired):
+    """The reference: the planner's spread, decimals and spread groups worked out cell by cell."""
+    measured = [{row: float(cell.value) for row, cell in enumerate(column.cells) if cell.kind is CellKind.NUMBER}
+                for column in columns]
+    decimals = max((cell.decimals for column in columns for cell in column.cells
+                    if cell.kind is CellKind.NUMBER and cell.decimals is not None), default=None)
+    if paired and len(columns) >= 2:
+        a, b = measured[0], measured[1]
+        differences = np.array([b[row] - a[row] for row in sorted(set(a) & set(b))])
+        spread = float(np.std(differences, ddof=1)) if differences.size >= 2 else None
+    else:
+        values = [np.array(list(group.values())) for group in measured if len(group) >= 2]
+        degrees = sum(v.size - 1 for v in values)
+        spread = math.sqrt(sum(float(np.sum((v - v.mean()) ** 2)) for v in values) / degrees) if degrees else None
+    if spread is not None and not spread > 0.0:
+        spread = None
+    return spread, decimals, tuple(column.name for column, group in zip(columns, measured) if group)
+
+
+def _check(sheet):
+    for index, column in enumerate(sheet.groups):
+        counts = sheet.counts(index)
+        assert (counts.used, counts.skipped, counts.censored, counts.blanks) == _full_count(column)
+        kept, fresh = column.arrays(), ColumnArrays(column.cells)
+        assert np.array_equal(kept.kinds, fresh.kinds)
+        assert np.array_equal(kept.values, fresh.values, equal_nan=True)
+        assert np.array_equal(kept.decimals, fresh.decimals)
+    for paired in (False, True):
+        start = plan_start(sheet.groups, paired=paired)
+        assert (start.spread, start.decimals, start.spread_groups) == _spread_by_cells(sheet.groups, paired)
+
+
+def test_kept_arrays_match_a_full_recount_after_any_edits():
+    from hypothesis import given, settings
+    from hypothesis import strategies as st
+
+    @settings(max_examples=150, deadline=None)
+    @given(edits=st.lists(st.one_of(_edit_strategy(), st.just(("undo",)), st.just(("redo",))), max_size=14))
+    def run(edits):
+        sheet = make_sheet(["1", "", "2", "n/a"], ["", "3", "<0,5"], names=["A", "B"])
+        _check(sheet)  # the arrays made now are then kept in step by every edit below
+        for edit in edits:
+            try:
+                _apply(sheet, edit)
+            except (ValueError, ReadingsError):
+                pass
+            _check(sheet)
+
+    run()
+
+
+@pytest.mark.parametrize("texts", [[], ["", "", "x"], ["1,5", "", "", "0,25", "", "scrap", "<0,1"]])
+def test_counts_of_a_column_as_read(texts):
+    sheet = make_sheet(texts, names=["A"])
+    counts = sheet.counts(0)
+    assert (counts.used, counts.skipped, counts.censored, counts.blanks) == _full_count(sheet.groups[0])
