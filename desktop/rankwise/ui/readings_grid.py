@@ -124,6 +124,14 @@ class ReadingsGrid(QTableView):
         self.setCurrentIndex(index)
         self.scrollTo(index)
 
+    def go_to_new_group(self) -> None:
+        """Take the keyboard to the top of the spare column at the right, scrolled into view, where
+        typing or pasting starts another group (the sheet may be wider than a small screen)."""
+        if self._refuse_if_read_only():
+            return
+        self.move_to(0, self.model().columnCount() - 1)
+        self.setFocus(Qt.FocusReason.ShortcutFocusReason)
+
     def closeEditor(self, editor: QWidget, hint: QAbstractItemDelegate.EndEditHint) -> None:  # noqa: N802
         """Enter while typing commits the reading and moves down, like a gauge sheet; the keyboard
         stays in the sheet for the next reading."""

@@ -8,7 +8,9 @@ from PySide6.QtCore import Qt
 from PySide6.QtWidgets import (
     QAbstractItemView,
     QFrame,
+    QHBoxLayout,
     QLabel,
+    QPushButton,
     QScrollArea,
     QSplitter,
     QStackedWidget,
@@ -128,12 +130,23 @@ class WindowPanes:
         sheet_title = QLabel("Rea&dings: one column per group")
         sheet_title.setBuddy(self.grid)
         sheet_title.setObjectName("panelTitle")
+        self.new_group_button = QPushButton("+ New &group")
+        self.new_group_button.setObjectName("newGroupButton")
+        self.new_group_button.setToolTip("Go to the spare column at the right of the sheet: type or paste there "
+                                         "to start another group (Alt+G).")
+        self.new_group_button.setFocusPolicy(Qt.FocusPolicy.NoFocus)  # Tab keeps its way through the window
+        self.new_group_button.clicked.connect(self.grid.go_to_new_group)
+        title_row = QHBoxLayout()
+        title_row.setContentsMargins(0, 0, 0, 0)
+        title_row.addWidget(sheet_title)
+        title_row.addStretch(1)
+        title_row.addWidget(self.new_group_button)
         sheet_hint = QLabel("Enter moves down, Tab moves right, Ctrl+Tab leaves the sheet, F6 goes to the next pane. "
                             "Double-click a column title (or Ctrl+G) for its name, unit and limits.")
         sheet_hint.setWordWrap(True)
         sheet_hint.setObjectName("sheetHint")
         self.signed_strip = SignedStrip()
-        sheet_layout.addWidget(sheet_title)
+        sheet_layout.addLayout(title_row)
         sheet_layout.addWidget(self.signed_strip)
         sheet_layout.addWidget(self.grid, 1)
         sheet_layout.addWidget(sheet_hint)
