@@ -163,3 +163,29 @@ def test_a_large_file_that_cannot_be_read_is_reported_in_words(qtbot, window, tm
     qtbot.waitUntil(lambda: window.opening is None, timeout=PATIENCE_MS)
     assert answers.problems and answers.problems[-1][0] == "Cannot open the file"
     assert window.sheet.group_names == ["A", "B"]
+
+
+def test_a_large_file_of_many_characteristics_is_recognised_on_the_opening_thread(qtbot, window, monkeypatch):
+    """Past LARGE_FILE_BYTES the look for many characteristics runs on the opening thread too; the
+    window then offers their choice as for a small file (here the technician cancels it)."""
+    import threading
+
+    import rankwise.readings.characteristics as characteristics
+    import rankwise.ui.window_files as window_files
+    from rankwise.ui.characteristics_dialog import CharacteristicsDialog
+
+    looked_on, asked = [], []
+    real_check = characteristics.is_characteristics_file
+
+    def watched(path):
+        looked_on.append(threading.current_thread())
+        return real_check(path)
+
+    monkeypatch.setattr(characteristics, "is_characteristics_file", watched)
+    monkeypatch.setattr(CharacteristicsDialog, "ask", classmethod(lambda cls, parent, table: asked.append(table)))
+    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+    assert window.open_path(DEMO_FILES / "housing_two_dies.csv")
+    qtbot.waitUntil(lambda: window.opening is None and bool(asked), timeout=PATIENCE_MS)
+    assert looked_on[0] is not threading.main_thread()
+    assert len(asked[0].characteristics) >= 2
+    assert window.sheet.group_names == ["A", "B"] and window.source_path is None

@@ -41,15 +41,17 @@ def _sheet_of(reading_set) -> ReadingSheet:
 
 
 class FileOpening(QObject):
-    """Reads a large file into a sheet on a thread of its own.
+    """Reads a large file into a sheet on a thread of its own (the file readers load there too).
 
     Signals:
         opened(object, object): the ``ReadingSet`` read and the ``ReadingSheet`` built from it.
         failed(str): the plain-words reason the file cannot be opened.
+        many_characteristics(): the file holds many characteristics (one row per part); nothing was read.
     """
 
     opened = Signal(object, object)
     failed = Signal(str)
+    many_characteristics = Signal()
 
     def __init__(self, path: Path, parent: QObject | None = None) -> None:
         super().__init__(parent)
@@ -61,8 +63,12 @@ class FileOpening(QObject):
         self._thread.start()
 
     def _read(self) -> None:
+        from rankwise.readings.characteristics import is_characteristics_file
         from rankwise.readings.open import open_readings
 
+        if is_characteristics_file(self.path):
+            self.many_characteristics.emit()
+            return
         try:
             reading_set = open_readings(self.path)
             sheet = _sheet_of(reading_set)
@@ -118,21 +124,18 @@ class WindowFiles:
         if path.suffix.lower() in (".xlsx", ".xlsm") and self.records.try_reopen(path):
             remember_file(path)
             return True
-        from rankwise.ui.characteristics_window import offer_characteristics
-
-        many = offer_characteristics(self, path)
-        if many is not None:
-            if many:
-                remember_file(path)
-            return many
-
         if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
-            self.opening = FileOpening(path, self)  # the file readers load on that thread too
+            self.opening = FileOpening(path, self)  # it looks for many characteristics first, on its thread
             self.opening.opened.connect(self._on_file_opened)
             self.opening.failed.connect(self._on_file_failed)
+            self.opening.many_characteristics.connect(self._on_many_characteristics)
             self.statusBar().showMessage(f"Opening {path.name}…")
             self.opening.start()
             return True
+        many = self._offer_characteristics(path)
+        if many is not None:
+            return many
+
         from rankwise.readings import open_readings
         from rankwise.ui.open_dialog import OpenReadingsDialog
 
@@ -151,6 +154,20 @@ class WindowFiles:
         path, self.opening = self.opening.path, None
         self.load_reading_set(reading_set, path, sheet)
         remember_file(path)
+
+    def _offer_characteristics(self, path: Path) -> bool | None:
+        """When the file holds many characteristics, their choice and summary (see ``offer_characteristics``)."""
+        from rankwise.ui.characteristics_window import offer_characteristics
+
+        many = offer_characteristics(self, path)
+        if many:
+            remember_file(path)
+        return many
+
+    def _on_many_characteristics(self) -> None:
+        path, self.opening = self.opening.path, None
+        self.statusBar().clearMessage()
+        self._offer_characteristics(path)
 
     def _on_file_failed(self, message: str) -> None:
         self.opening = None
