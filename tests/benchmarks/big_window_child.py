@@ -1,11 +1,13 @@
 """One measured run of the window on a big stacked export, in a process of its own (run by bench_window.py).
 
-    python big_window_child.py FILE [--profile OUT.pstats]
+    python big_window_child.py FILE [--profile OUT.pstats] [--stalls]
 
 A QTimer heartbeat every 5 ms records how long the window's event loop went without turning; the
 run opens FILE in the window, waits for the verdict, shows the rank table and the dot plot, types
 one reading, and waits for the updated verdict. It prints one line of JSON: the longest stall of
-each step, the time to each verdict, and the peak memory of the process (ru_maxrss).
+each step, the time to each verdict, and the peak memory of the process (ru_maxrss). With
+``--stalls`` a watching thread looks at the window's thread every 10 ms while its event loop stands
+still for more than 50 ms and prints to stderr the lines of the package it found there most often.
 """
 
 from __future__ import annotations
@@ -15,7 +17,10 @@ import os
 import resource
 import sys
 import tempfile
+import threading
 import time
+import traceback
+from collections import Counter
 from pathlib import Path
 
 os.environ.setdefault("QT_QPA_PLATFORM", "offscreen")
@@ -48,6 +53,31 @@ class Heartbeat:
         return longest * 1000.0
 
 
+class StallWatch:
+    """Samples the window thread's stack while the heartbeat has not beaten for more than 50 ms."""
+
+    def __init__(self, heartbeat: Heartbeat) -> None:
+        self.heartbeat = heartbeat
+        self.seen: Counter[tuple[str, ...]] = Counter()
+        self.running = True
+        self.main = threading.main_thread().ident
+        threading.Thread(target=self._watch, daemon=True).start()
+
+    def _watch(self) -> None:
+        while self.running:
+            time.sleep(0.01)
+            if time.perf_counter() - self.heartbeat.last > 0.05:
+                frame = sys._current_frames().get(self.main)
+                if frame is not None:
+                    lines = [f"{Path(f.filename).name}:{f.lineno} {f.name}" for f in traceback.extract_stack(frame)]
+                    self.seen[tuple(lines[-7:])] += 1
+
+    def report(self) -> None:
+        self.running = False
+        for stack, count in self.seen.most_common(15):
+            print(f"{count * 10:6d} ms  " + "  <  ".join(reversed(stack)), file=sys.stderr)
+
+
 def wait(condition, timeout_s: float = 600.0) -> None:
     """Turn the event loop until ``condition()`` holds (the heartbeat keeps beating meanwhile)."""
     loop = QEventLoop()
@@ -74,6 +104,7 @@ def measure(path: Path) -> dict:
     shown: list[object] = []
     window.runner.result_ready.connect(lambda result, analysis: shown.append(result))
     heartbeat = Heartbeat()
+    watch = StallWatch(heartbeat) if "--stalls" in sys.argv else None
     wait(lambda: window.isVisible())
     heartbeat.step()
     figures: dict[str, float] = {}
@@ -100,6 +131,8 @@ def measure(path: Path) -> dict:
     wait(lambda: window.keeper.wait_until_written(0))  # the recovery copy written, the window turning meanwhile
     figures["stall_edit_ms"] = heartbeat.step()
     figures["peak_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
+    if watch is not None:
+        watch.report()
     window.close()
     return figures
 

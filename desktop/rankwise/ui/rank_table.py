@@ -8,12 +8,13 @@ same-parts question it lists the differences ranked by size with their signs.
 from __future__ import annotations
 
 import functools
+import threading
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 import numpy as np
 
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, Qt, Signal
 from PySide6.QtGui import QBrush, QColor, QFont
 from PySide6.QtWidgets import QLabel, QTableView, QVBoxLayout, QWidget
 
@@ -26,6 +27,10 @@ PAIR_NUMBERS = frozenset({0, 1, 2, 3, 4})
 
 TIE_TINT = QColor("#e8eef7")
 """Background of alternate tie blocks; the bracket marks and the words carry the meaning too."""
+
+LARGE_RESULT_READINGS = 50_000
+"""A result with more readings than this is sorted for the table on a thread of its own; until that is
+done the table stands empty and says so."""
 
 
 @dataclass(frozen=True)
@@ -206,11 +211,69 @@ class RankTableModel(QAbstractTableModel):
         return None
 
 
+@dataclass(frozen=True)
+class _Contents:
+    """What the table shows for one result: column titles, rows, right-aligned columns, rank sums."""
+
+    headers: tuple[str, ...]
+    rows: Sequence[RankRow]
+    numeric: frozenset[int]
+    sums: str
+
+
+def _contents(result, analysis) -> _Contents | None:
+    """The table's contents for a result of the statistics service (None for a question without
+    readings to rank). Sorting the readings is most of the work; it needs no Qt."""
+    decimals = decimals_of(analysis)
+    mark = analysis.decimal_mark
+    if isinstance(result, TwoGroupResult):
+        names = (result.name_a, result.name_b)
+        rows = rows_for_groups(names, (result.values_a, result.values_b), (result.ranks_a, result.ranks_b),
+                               result.tie_blocks, decimals, mark)
+        return _Contents(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS,
+            f"Rank sums: {result.name_a} {format_count(result.rank_sum_a, mark)} (n = {result.n_a}), "
+            f"{result.name_b} {format_count(result.rank_sum_b, mark)} (n = {result.n_b}). "
+            f"All ranks together add up to N(N + 1)/2 = {format_count((result.n_a + result.n_b) * (result.n_a + result.n_b + 1) / 2)}."
+        )
+    if isinstance(result, SeveralGroupsResult):
+        names = tuple(summary.name for summary in result.summaries)
+        rows = rows_for_groups(names, result.values, result.ranks, result.tie_blocks, decimals, mark)
+        parts = ", ".join(
+            f"{name} {format_count(total, mark)} (n = {summary.n}, mean rank {with_mark(f'{mean:.2f}', mark)})"
+            for name, total, mean, summary in zip(names, result.rank_sums, result.mean_ranks, result.summaries)
+        )
+        return _Contents(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS, f"Rank sums: {parts}.")
+    if isinstance(result, PairedResult):
+        rows = rows_for_pairs(result, decimals, mark)
+        return _Contents(("Pair", result.name_a, result.name_b, "Difference", "Signed rank"), rows, PAIR_NUMBERS,
+            f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus, mark)}, "
+            f"of the negative ones (W−) {format_count(result.w_minus, mark)}; "
+            f"{_no_difference_words(result)}."
+        )
+    return None
+
+
+def _readings_in(result) -> int:
+    """How many rows the table would have for ``result``."""
+    if isinstance(result, TwoGroupResult):
+        return len(result.values_a) + len(result.values_b)
+    if isinstance(result, SeveralGroupsResult):
+        return sum(len(values) for values in result.values)
+    if isinstance(result, PairedResult):
+        return len(result.signed_ranks)
+    return 0
+
+
 class RankTable(QWidget):
     """The rank table with the rank sums per group underneath."""
 
+    _contents_ready = Signal(int, object)
+
     def __init__(self, parent: QWidget | None = None) -> None:
         super().__init__(parent)
+        self._shown = 0
+        """Counts the results shown, so that a large result's table sorted meanwhile is used only if still wanted."""
+        self._contents_ready.connect(self._fill)
         self.model = RankTableModel(self)
         self.view = QTableView()
         self.view.setModel(self.model)
@@ -266,44 +329,35 @@ class RankTable(QWidget):
 
     def clear(self, message: str = "The ranks appear here once there is a verdict.") -> None:
         """Empty the table and say why."""
+        self._shown += 1
         self.model.set_rows((), [])
         self.sums.setText(message)
         self.sums.setMinimumHeight(self._sums_height())
 
     def show_result(self, result, analysis) -> None:
-        """Fill the table from a result of the statistics service."""
-        decimals = decimals_of(analysis)
-        mark = analysis.decimal_mark
-        if isinstance(result, TwoGroupResult):
-            names = (result.name_a, result.name_b)
-            rows = rows_for_groups(names, (result.values_a, result.values_b), (result.ranks_a, result.ranks_b),
-                                   result.tie_blocks, decimals, mark)
-            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS)
-            self.sums.setText(
-                f"Rank sums: {result.name_a} {format_count(result.rank_sum_a, mark)} (n = {result.n_a}), "
-                f"{result.name_b} {format_count(result.rank_sum_b, mark)} (n = {result.n_b}). "
-                f"All ranks together add up to N(N + 1)/2 = {format_count((result.n_a + result.n_b) * (result.n_a + result.n_b + 1) / 2)}."
-            )
-        elif isinstance(result, SeveralGroupsResult):
-            names = tuple(summary.name for summary in result.summaries)
-            rows = rows_for_groups(names, result.values, result.ranks, result.tie_blocks, decimals, mark)
-            self.model.set_rows(("#", "Group", "Reading", "Rank"), rows, GROUP_NUMBERS)
-            parts = ", ".join(
-                f"{name} {format_count(total, mark)} (n = {summary.n}, mean rank {with_mark(f'{mean:.2f}', mark)})"
-                for name, total, mean, summary in zip(names, result.rank_sums, result.mean_ranks, result.summaries)
-            )
-            self.sums.setText(f"Rank sums: {parts}.")
-        elif isinstance(result, PairedResult):
-            rows = rows_for_pairs(result, decimals, mark)
-            self.model.set_rows(("Pair", result.name_a, result.name_b, "Difference", "Signed rank"), rows, PAIR_NUMBERS)
-            self.sums.setText(
-                f"Sum of ranks of the positive differences (W+) {format_count(result.w_plus, mark)}, "
-                f"of the negative ones (W−) {format_count(result.w_minus, mark)}; "
-                f"{_no_difference_words(result)}."
-            )
-        else:
-            self.clear("The planning question uses no readings, so there is nothing to rank.")
+        """Fill the table from a result of the statistics service; a large one is sorted on a thread
+        of its own meanwhile (the table stands empty until then)."""
+        if _readings_in(result) <= LARGE_RESULT_READINGS:
+            contents = _contents(result, analysis)
+            if contents is None:
+                self.clear("The planning question uses no readings, so there is nothing to rank.")
+            else:
+                self._shown += 1
+                self._fill(self._shown, contents)
             return
+        self.clear(f"Ranking {format_count(_readings_in(result))} readings…")
+        shown = self._shown
+
+        def sort() -> None:
+            self._contents_ready.emit(shown, _contents(result, analysis))
+
+        threading.Thread(target=sort, name="rankwise-rank-table", daemon=True).start()
+
+    def _fill(self, shown: int, contents: _Contents) -> None:
+        if shown != self._shown:
+            return  # a newer result (or none) is shown by now
+        self.model.set_rows(contents.headers, contents.rows, contents.numeric)
+        self.sums.setText(contents.sums)
         self.sums.setMinimumHeight(self._sums_height())
         if self.model.headers != self._sized_for:
             self._sized_for = self.model.headers
