@@ -54,28 +54,38 @@ class Heartbeat:
 
 
 class StallWatch:
-    """Samples the window thread's stack while the heartbeat has not beaten for more than 50 ms."""
+    """Samples the window thread's stack every 10 ms while its heartbeat has not beaten for more than
+    50 ms; keeps the samples of each stall longer than 100 ms."""
 
     def __init__(self, heartbeat: Heartbeat) -> None:
         self.heartbeat = heartbeat
-        self.seen: Counter[tuple[str, ...]] = Counter()
+        self.stalls: list[tuple[float, Counter]] = []
         self.running = True
         self.main = threading.main_thread().ident
         threading.Thread(target=self._watch, daemon=True).start()
 
     def _watch(self) -> None:
+        began, seen = None, Counter()
         while self.running:
             time.sleep(0.01)
-            if time.perf_counter() - self.heartbeat.last > 0.05:
+            last = self.heartbeat.last
+            if began is not None and last != began:  # the loop turned again: the stall is over
+                if last - began > 0.1:
+                    self.stalls.append((last - began, seen))
+                began, seen = None, Counter()
+            if time.perf_counter() - last > 0.05:
+                began = last
                 frame = sys._current_frames().get(self.main)
                 if frame is not None:
                     lines = [f"{Path(f.filename).name}:{f.lineno} {f.name}" for f in traceback.extract_stack(frame)]
-                    self.seen[tuple(lines[-7:])] += 1
+                    seen[tuple(lines[-6:])] += 1
 
     def report(self) -> None:
         self.running = False
-        for stack, count in self.seen.most_common(15):
-            print(f"{count * 10:6d} ms  " + "  <  ".join(reversed(stack)), file=sys.stderr)
+        for duration, seen in sorted(self.stalls, key=lambda stall: -stall[0])[:8]:
+            print(f"stall of {duration * 1000:.0f} ms:", file=sys.stderr)
+            for stack, count in seen.most_common(4):
+                print(f"  {count * 10:6d} ms  " + "  <  ".join(reversed(stack)), file=sys.stderr)
 
 
 def wait(condition, timeout_s: float = 600.0) -> None:

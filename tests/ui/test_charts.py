@@ -273,7 +273,9 @@ def test_power_curve_marks_the_target_and_the_planned_size(chart):
 
 
 @pytest.mark.parametrize("chart", [ReadingsDotPlot], indirect=True)
-def test_a_large_group_shows_an_even_sample_of_its_readings_and_says_so(chart):
+def test_a_large_group_shows_an_even_sample_of_its_readings_and_says_so(chart, qtbot):
+    from window_support import PATIENCE_MS
+
     from rankwise.ui.charts.dot_plot import DOT_LIMIT
 
     generator = np.random.default_rng(5)
@@ -283,6 +285,7 @@ def test_a_large_group_shows_an_even_sample_of_its_readings_and_says_so(chart):
               GroupReadings("Press 2", small, "kN", None, None, None, 2))
     analysis = Analysis(Question.TWO_GROUPS, groups, Settings())
     chart.show_result(compare_two(large, small, name_a="Press 1", name_b="Press 2", method="normal"), analysis)
+    qtbot.waitUntil(lambda: chart.view is not None, timeout=PATIENCE_MS)  # placed on a thread of its own
     save(chart, "dots-large-group")
     _, drawn = chart._dots[0].getData()
     assert len(drawn) == DOT_LIMIT and len(chart._dots[1].getData()[1]) == 30

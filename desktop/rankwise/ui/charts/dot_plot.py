@@ -2,8 +2,12 @@
 
 from __future__ import annotations
 
+import threading
+from dataclasses import dataclass
+
 import numpy as np
 import pyqtgraph as pg
+from PySide6.QtCore import Signal
 
 from rankwise.stats import Analysis
 from rankwise.ui.charts import style
@@ -22,6 +26,9 @@ DOT_LIMIT = 4000
 """A group with more readings shows this many dots: an even sample of its readings in order of size
 (for the same parts measured twice, every k-th part), so that a 10^6-reading export draws at once.
 The median bars, the limits and the rank table still use every reading."""
+LARGE_VIEW_READINGS = 50_000
+"""With more readings than this the dots are chosen and placed on a thread of their own; the chart
+shows them when that is done."""
 
 TOOLTIP = (
     "Each dot is one reading; equal readings sit side by side so that every reading shows. "
@@ -39,7 +46,11 @@ def dots_to_draw(values: tuple[tuple[float, ...], ...], paired: bool) -> list[np
     """The readings drawn as dots per group: all of them, or ``DOT_LIMIT`` of a larger group, taken
     evenly from its readings in order of size (its smallest and largest included); for the same
     parts measured twice, the same parts from both groups, evenly in entry order."""
-    arrays = [np.asarray(group, dtype=float) for group in values]
+    return _sample([np.asarray(group, dtype=float) for group in values], paired)
+
+
+def _sample(arrays: list[np.ndarray], paired: bool) -> list[np.ndarray]:
+    """``dots_to_draw`` of readings already in arrays."""
     if paired:
         count = min((array.size for array in arrays), default=0)
         if count > DOT_LIMIT:
@@ -50,11 +61,35 @@ def dots_to_draw(values: tuple[tuple[float, ...], ...], paired: bool) -> list[np
             if array.size > DOT_LIMIT else array for array in arrays]
 
 
+@dataclass(frozen=True)
+class _Dots:
+    """Where the dots of a view go: the readings drawn per group, their places across the axis, and
+    the lowest and highest of all readings."""
+
+    drawn: list[np.ndarray]
+    positions: list[np.ndarray]
+    low: float | None
+    high: float | None
+
+
+def _place_dots(view: ReadingsView) -> _Dots:
+    """The dots of ``view`` placed (numpy only: it may run on a thread of its own)."""
+    arrays = [np.asarray(group, dtype=float) for group in view.values]
+    drawn = _sample(arrays, view.paired)
+    positions = [index + stacked_offsets(values, spacing=TIE_SPACING, half_width=MEDIAN_HALF_WIDTH - 0.04)
+                 for index, values in enumerate(drawn)]
+    filled = [array for array in arrays if array.size]
+    return _Dots(drawn, positions, min((float(np.min(a)) for a in filled), default=None),
+                 max((float(np.max(a)) for a in filled), default=None))
+
+
 class ReadingsDotPlot(ChartFrame):
     """Dots per group (stacked where readings are equal), medians, LSL/USL and nominal lines.
 
     For the same parts measured twice, a thin line joins each part's first and second reading.
     """
+
+    _dots_placed = Signal(int, object, object)
 
     def __init__(self, parent=None) -> None:
         super().__init__(
@@ -77,6 +112,9 @@ class ReadingsDotPlot(ChartFrame):
             "nominal": self._reference_line(style.nominal_pen()),
         }
         self.view: ReadingsView | None = None
+        self._asked = 0
+        """Counts the results asked for, so that dots placed meanwhile on a thread are drawn only if still wanted."""
+        self._dots_placed.connect(self._draw)
         self.clear()
 
     def _reference_line(self, pen) -> pg.InfiniteLine:
@@ -106,6 +144,7 @@ class ReadingsDotPlot(ChartFrame):
 
     def clear(self) -> None:
         """Remove all readings and show the idle note."""
+        self._asked = getattr(self, "_asked", 0) + 1
         self.view = None
         for dots in self._dots:
             dots.setData([], [])
@@ -122,24 +161,34 @@ class ReadingsDotPlot(ChartFrame):
         view = self._readings_to_draw(result, analysis)
         if view is None:
             return
+        self._asked += 1
+        if sum(len(values) for values in view.values) <= LARGE_VIEW_READINGS:
+            self._draw(self._asked, view, _place_dots(view))
+            return
+        asked = self._asked
+
+        def place() -> None:
+            self._dots_placed.emit(asked, view, _place_dots(view))
+
+        threading.Thread(target=place, name="rankwise-dot-plot", daemon=True).start()
+
+    def _draw(self, asked: int, view: ReadingsView, dots: _Dots) -> None:
+        if asked != self._asked:
+            return  # a newer result (or none) is asked for by now
         self.view = view
-        drawn = dots_to_draw(view.values, view.paired)
-        positions = []
-        for index, values in enumerate(drawn):
-            x = index + stacked_offsets(values, spacing=TIE_SPACING, half_width=MEDIAN_HALF_WIDTH - 0.04)
-            positions.append(x)
+        for index, (x, values) in enumerate(zip(dots.positions, dots.drawn)):
             self._dots_for(index).setData(x=x, y=values)
-        for dots in self._dots[len(view.names):]:
-            dots.setData([], [])
+        for item in self._dots[len(view.names):]:
+            item.setData([], [])
         self._draw_medians(view)
-        self._draw_pairs(drawn, view.paired, positions)
+        self._draw_pairs(dots.drawn, view.paired, dots.positions)
         self._draw_limits(view)
         self._update_ticks()
         sampled = any(len(values) > DOT_LIMIT for values in view.values)
         self._label_axes(bottom=f"Group (dots: an even sample of {DOT_LIMIT:,} readings per large group)"
                          if sampled else "Group", left=view.axis_label())
         self._set_legend([(self._medians, "median")])
-        self._fit_range(view)
+        self._fit_range(view, dots)
 
     def dot_tip(self, x: float, y: float) -> str:
         """The words shown when the pointer rests on a dot: its group and its reading."""
@@ -196,9 +245,9 @@ class ReadingsDotPlot(ChartFrame):
                 line.setValue(value)
                 line.label.setFormat(f"{title} {view.format(value)}")
 
-    def _fit_range(self, view: ReadingsView) -> None:
+    def _fit_range(self, view: ReadingsView, dots: _Dots) -> None:
         """Show every reading and every limit that is set, with a margin."""
-        ends = [float(f(np.asarray(group, dtype=float))) for group in view.values if len(group) for f in (np.min, np.max)]
+        ends = [end for end in (dots.low, dots.high) if end is not None]
         numbers = ends + [v for v in (view.lsl, view.usl, view.nominal) if v is not None]
         low, high = min(numbers), max(numbers)
         pad = (high - low) * 0.08 or max(abs(high) * 0.05, 1e-6)
