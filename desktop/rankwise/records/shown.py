@@ -13,6 +13,7 @@ from __future__ import annotations
 import re
 from datetime import datetime, timedelta
 from decimal import ROUND_HALF_UP, Decimal
+from functools import lru_cache
 
 SIGNIFICANT_DIGITS = 15
 """Significant digits of a number that survive a re-save by a spreadsheet program."""
@@ -48,8 +49,11 @@ def date_key(text: str) -> str:
     return rounded.isoformat()
 
 
+@lru_cache(maxsize=4096)
 def format_key(number_format: str | None) -> str | None:
-    """A number format by meaning: literal text written the same way whether quoted, escaped or bare."""
+    """A number format by meaning: literal text written the same way whether quoted, escaped or bare.
+
+    Kept for each format once worked out: a record holds tens of thousands of cells but few formats."""
     if number_format is None:
         return None
     parts: list[str] = []
