@@ -11,6 +11,7 @@ from rankwise.readings import CellKind, ReadingsError
 from rankwise.readings.column_arrays import ColumnArrays
 from rankwise.readings.entry_counts import count_entries
 from rankwise.readings.plan_start import plan_start
+from rankwise.readings.suspicious import flag_readings
 
 from test_sheet import _apply, _edit_strategy, make_sheet
 
@@ -40,6 +41,25 @@ def _spread_by_cells(columns, paired):
     return spread, decimals, tuple(column.name for column, group in zip(columns, measured) if group)
 
 
+def _flags_row_by_row(column):
+    """The reference: the remarks worked out row by row, as ``flag_readings`` did before it compared
+    whole arrays (the slipped-decimal check itself is shared)."""
+    from rankwise.readings.suspicious import _slipped_decimals
+
+    rows = [row for row, cell in enumerate(column.cells) if cell.kind is CellKind.NUMBER]
+    values = np.array([column.cells[row].value for row in rows], dtype=float)
+    flags, suffix = {}, f" {column.unit}" if column.unit else ""
+    for position, row in enumerate(rows):
+        text = column.cells[row].text.strip()
+        if column.lsl is not None and values[position] < column.lsl:
+            flags.setdefault(row, []).append(f"{text} is below the lower limit (LSL {column.lsl:g}{suffix}).")
+        if column.usl is not None and values[position] > column.usl:
+            flags.setdefault(row, []).append(f"{text} is above the upper limit (USL {column.usl:g}{suffix}).")
+    for position, remark in _slipped_decimals(values).items():
+        flags.setdefault(rows[position], []).append(remark.format(text=column.cells[rows[position]].text.strip()))
+    return {row: tuple(remarks) for row, remarks in sorted(flags.items())}
+
+
 def _check(sheet):
     for index, column in enumerate(sheet.groups):
         counts = sheet.counts(index)
@@ -48,6 +68,8 @@ def _check(sheet):
         assert np.array_equal(kept.kinds, fresh.kinds)
         assert np.array_equal(kept.values, fresh.values, equal_nan=True)
         assert np.array_equal(kept.decimals, fresh.decimals)
+        assert sheet.flags(index) == _flags_row_by_row(column)
+        assert flag_readings(column.cells, lsl=column.lsl, usl=column.usl, unit=column.unit) == _flags_row_by_row(column)
     for paired in (False, True):
         start = plan_start(sheet.groups, paired=paired)
         assert (start.spread, start.decimals, start.spread_groups) == _spread_by_cells(sheet.groups, paired)

@@ -88,6 +88,10 @@ class ColumnArrays:
         return GroupCounts(used=int(tally[NUMBER]), skipped=int(tally[NOTE] + tally[INVALID]),
                            censored=int(tally[CENSORED]), blanks=blanks)
 
+    def reading_rows(self) -> np.ndarray:
+        """The rows of the measured readings."""
+        return np.flatnonzero(self.kinds == NUMBER)
+
     def measured(self) -> np.ndarray:
         """The measured readings in row order (readings below a detection limit, notes and blanks left out)."""
         return self.values[self.kinds == NUMBER]

@@ -7,7 +7,7 @@ decimal point typed one place off produces (common practice, no source).
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 import numpy as np
 
@@ -24,19 +24,30 @@ def flag_readings(
     cells: Sequence[Cell], *, lsl: float | None = None, usl: float | None = None, unit: str = ""
 ) -> dict[int, tuple[str, ...]]:
     """Plain-words remarks on suspicious readings, by row; rows without remarks are left out."""
-    rows = [row for row, cell in enumerate(cells) if cell.kind is CellKind.NUMBER]
+    rows = np.array([row for row, cell in enumerate(cells) if cell.kind is CellKind.NUMBER], dtype=np.intp)
     values = np.array([cells[row].value for row in rows], dtype=float)
+    return flag_rows(rows, values, lambda row: cells[row].text, lsl=lsl, usl=usl, unit=unit)
+
+
+def flag_rows(
+    rows: np.ndarray, values: np.ndarray, text_of: Callable[[int], str], *, lsl: float | None = None,
+    usl: float | None = None, unit: str = "",
+) -> dict[int, tuple[str, ...]]:
+    """``flag_readings`` of a group's readings given as arrays: their ``rows`` and ``values`` in row order,
+    and ``text_of(row)``, the text of a row (looked up for the flagged rows only)."""
     flags: dict[int, list[str]] = {}
     suffix = f" {unit}" if unit else ""
-    for position, row in enumerate(rows):
-        value = values[position]
-        text = cells[row].text.strip()
-        if lsl is not None and value < lsl:
-            flags.setdefault(row, []).append(f"{text} is below the lower limit (LSL {lsl:g}{suffix}).")
-        if usl is not None and value > usl:
-            flags.setdefault(row, []).append(f"{text} is above the upper limit (USL {usl:g}{suffix}).")
+    if lsl is not None:
+        for position in np.flatnonzero(values < lsl):
+            row = int(rows[position])
+            flags.setdefault(row, []).append(f"{text_of(row).strip()} is below the lower limit (LSL {lsl:g}{suffix}).")
+    if usl is not None:
+        for position in np.flatnonzero(values > usl):
+            row = int(rows[position])
+            flags.setdefault(row, []).append(f"{text_of(row).strip()} is above the upper limit (USL {usl:g}{suffix}).")
     for position, remark in _slipped_decimals(values).items():
-        flags.setdefault(rows[position], []).append(remark.format(text=cells[rows[position]].text.strip()))
+        row = int(rows[position])
+        flags.setdefault(row, []).append(remark.format(text=text_of(row).strip()))
     return {row: tuple(remarks) for row, remarks in sorted(flags.items())}
 
 

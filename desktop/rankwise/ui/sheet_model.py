@@ -9,14 +9,11 @@ by a symbol, a strike-through or italics and explains itself in a tooltip, never
 
 from __future__ import annotations
 
-import threading
-
-from PySide6.QtCore import QAbstractTableModel, QModelIndex, QObject, Qt, Signal
+from PySide6.QtCore import QAbstractTableModel, QModelIndex, QObject, Qt
 from PySide6.QtGui import QBrush, QColor, QFont
 
 from rankwise.readings import CellKind, ReadingSheet
 from rankwise.wording.entries import count_phrase
-from rankwise.readings.suspicious import flag_readings
 
 SPARE_ROWS = 12
 """Empty rows kept below the longest column."""
@@ -35,43 +32,22 @@ INVALID_MARK = "⚠ "
 FLAG_MARK = " ◆"
 """Shown after a reading worth a second look (slipped decimal point, beyond LSL/USL)."""
 
-LARGE_GROUP_CELLS = 20_000
-"""The readings worth a second look in a larger group are found on a thread of their own; the cells
-show their marks as soon as they are known."""
-
 _INVALID_TINT = QColor("#fbe3cf")
 _NOTE_TEXT = QColor("#4f4f49")
 _FLAG_TINT = QColor("#fff3c4")
 
 
-class _FlagStore(dict):
-    """The flagged readings per group; each time some are forgotten, ``generation`` counts up, so that
-    flags found meanwhile on another thread for the readings as they were are not kept."""
-
-    generation = 0
-
-    def clear(self) -> None:
-        self.generation += 1
-        super().clear()
-
-    def pop(self, group, default=None):
-        self.generation += 1
-        return super().pop(group, default)
-
-
 class SheetModel(QAbstractTableModel):
     """Adapts a ``ReadingSheet`` to Qt's table views; edits go through the sheet (so undo works)."""
-
-    _flags_found = Signal(int, int, object)
 
     def __init__(self, sheet: ReadingSheet, parent: QObject | None = None) -> None:
         super().__init__(parent)
         self._sheet = sheet
         self._rows = self._wanted_rows()
         self._columns = len(sheet.groups) + 1
-        self._flags: _FlagStore = _FlagStore()
-        self._finding: set[int] = set()
-        self._flags_found.connect(self._keep_found_flags)
+        self._flags: dict[int, dict[int, tuple[str, ...]]] = {}
+        """The readings worth a second look, per group painted since its last change (found from the
+        sheet's arrays: milliseconds even for a large group)."""
         self.read_only = False
         self._appending = False
         sheet.subscribe(self._on_sheet_change, before=True)
@@ -164,29 +140,9 @@ class SheetModel(QAbstractTableModel):
             self.endRemoveRows()
 
     def _group_flags(self, group: int) -> dict[int, tuple[str, ...]]:
-        if group in self._flags:
-            return self._flags[group]
-        column = self._sheet.groups[group]
-        if len(column.cells) <= LARGE_GROUP_CELLS:
+        if group not in self._flags:
             self._flags[group] = self._sheet.flags(group)
-            return self._flags[group]
-        if group not in self._finding:  # a large group: found on a thread of its own, from a copy
-            self._finding.add(group)
-            cells, generation = tuple(column.cells), self._flags.generation
-
-            def find() -> None:
-                self._flags_found.emit(group, generation,
-                                       flag_readings(cells, lsl=column.lsl, usl=column.usl, unit=column.unit))
-
-            threading.Thread(target=find, name="rankwise-flags", daemon=True).start()
-        return {}
-
-    def _keep_found_flags(self, group: int, generation: int, flags: dict) -> None:
-        self._finding.discard(group)
-        if generation == self._flags.generation and group < len(self._sheet.groups):
-            self._flags[group] = flags
-        if group < self._columns and self._rows:  # repaint: the marks show, or a newer search starts
-            self.dataChanged.emit(self.index(0, group), self.index(self._rows - 1, group))
+        return self._flags[group]
 
     # -- Qt model API ----------------------------------------------------------------------------
     def rowCount(self, parent: QModelIndex = QModelIndex()) -> int:  # noqa: B008, N802 - Qt API
