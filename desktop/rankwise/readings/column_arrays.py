@@ -40,7 +40,7 @@ class ColumnArrays:
     """One group's cells as arrays: ``kinds`` (codes of ``KIND_CODES``), ``values`` (the readings,
     NaN elsewhere) and ``decimals`` (of the readings, ``NO_DECIMALS`` elsewhere)."""
 
-    __slots__ = ("_cells", "kinds", "values", "decimals")
+    __slots__ = ("_cells", "kinds", "values", "decimals", "_answers")
 
     def __init__(self, cells: list[Cell]) -> None:
         self._cells = cells
@@ -48,6 +48,8 @@ class ColumnArrays:
         self.kinds = np.fromiter(map(_code, cells), dtype=np.int8, count=count)
         self.values = np.fromiter(map(_value, cells), dtype=np.float64, count=count)
         self.decimals = np.fromiter(map(_decimals, cells), dtype=np.int32, count=count)
+        self._answers: dict[str, object] = {}
+        """What the window asked since the last change (it asks the same several times per edit)."""
 
     def mirrors(self, cells: list[Cell]) -> bool:
         """True when these arrays are those of ``cells`` (the same list, as long)."""
@@ -57,10 +59,12 @@ class ColumnArrays:
 
     def set(self, row: int, cell: Cell) -> None:
         """``cells[row] = cell`` (``row`` inside the column)."""
+        self._answers.clear()
         self.kinds[row], self.values[row], self.decimals[row] = _code(cell), _value(cell), _decimals(cell)
 
     def insert(self, row: int, cells: Sequence[Cell]) -> None:
         """``cells[row:row] = cells``."""
+        self._answers.clear()
         self.kinds = np.insert(self.kinds, row, np.fromiter(map(_code, cells), dtype=np.int8, count=len(cells)))
         self.values = np.insert(self.values, row, np.fromiter(map(_value, cells), dtype=np.float64, count=len(cells)))
         self.decimals = np.insert(self.decimals, row, np.fromiter(map(_decimals, cells), dtype=np.int32,
@@ -68,6 +72,7 @@ class ColumnArrays:
 
     def delete(self, start: int, stop: int) -> None:
         """``del cells[start:stop]``."""
+        self._answers.clear()
         self.kinds = np.delete(self.kinds, np.s_[start:stop])
         self.values = np.delete(self.values, np.s_[start:stop])
         self.decimals = np.delete(self.decimals, np.s_[start:stop])
@@ -77,6 +82,11 @@ class ColumnArrays:
     def counts(self) -> GroupCounts:
         """The count of ``rankwise.readings.entry_counts.count_entries`` without its flags: readings used,
         entries not used, readings below a detection limit, empty cells between the first and last entry."""
+        if "counts" not in self._answers:
+            self._answers["counts"] = self._count()
+        return self._answers["counts"]
+
+    def _count(self) -> GroupCounts:
         tally = np.bincount(self.kinds, minlength=len(KIND_CODES))
         filled = self.kinds.size - int(tally[EMPTY])
         if filled:
@@ -89,9 +99,19 @@ class ColumnArrays:
                            censored=int(tally[CENSORED]), blanks=blanks)
 
     def reading_rows(self) -> np.ndarray:
-        """The rows of the measured readings."""
-        return np.flatnonzero(self.kinds == NUMBER)
+        """The rows of the measured readings (read-only)."""
+        if "rows" not in self._answers:
+            self._answers["rows"] = _read_only(np.flatnonzero(self.kinds == NUMBER))
+        return self._answers["rows"]
 
     def measured(self) -> np.ndarray:
-        """The measured readings in row order (readings below a detection limit, notes and blanks left out)."""
-        return self.values[self.kinds == NUMBER]
+        """The measured readings in row order (readings below a detection limit, notes and blanks left
+        out; read-only)."""
+        if "measured" not in self._answers:
+            self._answers["measured"] = _read_only(self.values[self.reading_rows()])
+        return self._answers["measured"]
+
+
+def _read_only(array: np.ndarray) -> np.ndarray:
+    array.setflags(write=False)
+    return array

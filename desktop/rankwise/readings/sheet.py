@@ -225,8 +225,8 @@ class ReadingSheet:
     def flags(self, group: int) -> dict[int, tuple[str, ...]]:
         """Suspicious readings of a group by row (slipped decimal point, beyond LSL/USL); never changed."""
         column = self.groups[self._group_index(group)]
-        rows = column.arrays().reading_rows()
-        return flag_rows(rows, column.arrays().values[rows], lambda row: column.cells[row].text,
+        arrays = column.arrays()
+        return flag_rows(arrays.reading_rows(), arrays.measured(), lambda row: column.cells[row].text,
                          lsl=column.lsl, usl=column.usl, unit=column.unit)
 
     def counts(self, group: int) -> GroupCounts:
