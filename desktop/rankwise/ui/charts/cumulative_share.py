@@ -49,7 +49,7 @@ class CumulativeSharePlot(ChartFrame):
             idle_note="The share of readings at or below each value appears here, one curve per group.",
             bottom="Reading",
             left="Share at or below (%)",
-            legend_corner="top-left",
+            legend_corner="bottom-right",
         )
         self._curves: list[pg.PlotDataItem] = []
         self._tops: list[pg.ScatterPlotItem] = []

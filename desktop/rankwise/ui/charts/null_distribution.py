@@ -183,13 +183,9 @@ class NullDistributionPlot(ChartFrame):
 
     def _mark_observed(self, value: float, label: str, low: float, high: float) -> None:
         """The vertical line at the observed statistic, labelled on the side with more room."""
-        on_right = value > (low + high) / 2
-        side = (1, 0.5) if on_right else (0, 0.5)
-        self._observed.label.anchors = [side, side]
-        corner = (0, 0) if on_right else (1, 0)
-        self.legend.anchor(itemPos=corner, parentPos=corner, offset=(8, 8) if on_right else (-8, 8))
         self._observed.setVisible(True)
         self._observed.setValue(value)
+        self._label_toward_middle(self._observed, low, high)
         shown = with_mark(f"observed: {label}", self._mark)
         self._observed.label.setFormat(shown.replace("{", "{{").replace("}", "}}"))
 

@@ -81,6 +81,7 @@ class PowerCurvePlot(ChartFrame):
                      f"{result.n_a} per group" if result.n_a == result.n_b else
                      f"{result.n_a} in A, {result.n_b} in B")
         self._planned.label.setFormat(f"planned: {per_group}")
+        self._label_toward_middle(self._planned, max(0.0, sizes.min() - 1), max(sizes.max(), result.n_a) + 1)
         entries = [(self._curve, "predicted (Kruskal-Wallis approximation)" if result.groups >= 3 else "predicted (Noether)")]
         if result.simulated_power is not None:
             self._simulated.setData([result.n_a], [100.0 * result.simulated_power])
