@@ -9,14 +9,11 @@ from __future__ import annotations
 
 import argparse
 from collections.abc import Callable
-from datetime import datetime
 from pathlib import Path
 
 from rankwise.readings import ReadingsError, open_characteristics
-from rankwise.records.errors import RecordError
 from rankwise.records.record import ResultRecord, fingerprint
-from rankwise.records.signoff import SignOff, Signature
-from rankwise.records.workbook import write_record
+from rankwise.records.report_outputs import signed_by_the_caller, write_outputs
 from rankwise.stats.analysis import Settings
 from rankwise.stats.characteristics import ADJUSTMENTS
 from rankwise.stats.service import run
@@ -66,19 +63,10 @@ def run_characteristics_report(args: argparse.Namespace, render_pdf: Callable[[P
     except (ReadingsError, ValueError) as error:
         return problem(str(error))
     names = [item.name for item in analysis.characteristics]
-    signature = Signature(name=args.signed_by.strip(), role=args.role.strip(), decision=args.decision.strip(),
-                          comment=args.comment.strip(), signed_at=datetime.now().astimezone())
-    record = ResultRecord.now(analysis, table.snapshot(group_a, group_b, names=names), result,
-                              SignOff(prepared=signature))
-    try:
-        write_record(args.out, record, overwrite_signed=True)  # replacing was allowed before
-    except RecordError as error:
-        return problem(str(error))
-    if args.pdf is not None:
-        try:
-            render_pdf(args.pdf, record)
-        except (OSError, ValueError) as error:
-            return problem(f"the signed record was written to '{args.out}', but the PDF was not: {error}")
+    record = signed_by_the_caller(args, analysis, table.snapshot(group_a, group_b, names=names), result)
+    not_written = write_outputs(args, record, render_pdf)
+    if not_written is not None:
+        return problem(not_written)
     _print_summary(record, args)
     return 0
 

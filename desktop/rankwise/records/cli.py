@@ -9,17 +9,15 @@ from __future__ import annotations
 import argparse
 import sys
 from collections.abc import Callable
-from datetime import datetime
 from pathlib import Path
 
 from rankwise.readings import CellKind, ReadingSheet, ReadingsError, open_readings, parse_reading
 from rankwise.records.characteristics_cli import add_characteristics_options, run_characteristics_report
-from rankwise.records.errors import RecordError
 from rankwise.records.record import ResultRecord, fingerprint
-from rankwise.records.signoff import SignOff, Signature
+from rankwise.records.report_outputs import signed_by_the_caller, write_outputs
 from rankwise.records.targets import Target, refusal
 from rankwise.records.verify import verify_record
-from rankwise.records.workbook import is_record_file, write_record
+from rankwise.records.workbook import is_record_file
 from rankwise.stats.analysis import ALTERNATIVES, Question, Settings
 from rankwise.stats.service import run
 from rankwise.wording import CAUTION_SHORT, QUESTION_TITLES, describe
@@ -173,18 +171,10 @@ def run_report(args: argparse.Namespace, render_pdf: RenderPdf | None = None) ->
         result = run(analysis)
     except (ReadingsError, ValueError) as error:
         return _problem(str(error))
-    signature = Signature(name=args.signed_by.strip(), role=args.role.strip(), decision=args.decision.strip(),
-                          comment=args.comment.strip(), signed_at=datetime.now().astimezone())
-    record = ResultRecord.now(analysis, sheet.snapshot(), result, SignOff(prepared=signature))
-    try:
-        write_record(args.out, record, overwrite_signed=True)  # replacing was allowed above
-    except RecordError as error:
-        return _problem(str(error))
-    if args.pdf is not None:
-        try:
-            render_pdf(args.pdf, record)
-        except (OSError, ValueError) as error:
-            return _problem(f"the signed record was written to '{args.out}', but the PDF was not: {error}")
+    record = signed_by_the_caller(args, analysis, sheet.snapshot(), result)
+    not_written = write_outputs(args, record, render_pdf)
+    if not_written is not None:
+        return _problem(not_written)
     verdict = describe(result, analysis)
     print(f"Question: {QUESTION_TITLES[question]}" + ("" if args.question else " (the question the file suggests)"))
     print(verdict.headline)
