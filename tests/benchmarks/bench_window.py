@@ -179,20 +179,29 @@ def bench_big_export() -> tuple[dict, dict]:
     write_big_export(path)
     environment = dict(os.environ, QT_QPA_PLATFORM="offscreen")
     child = os.path.join(os.path.dirname(os.path.abspath(__file__)), "big_window_child.py")
+    load_before = os.getloadavg()[0]
     window = subprocess.run([sys.executable, child, path], env=environment, capture_output=True, text=True,
                             timeout=3600, check=True)
     reference = subprocess.run([sys.executable, "-c", _PANDAS, path], capture_output=True, text=True,
                                timeout=3600, check=True)
-    return json.loads(window.stdout.strip().splitlines()[-1]), json.loads(reference.stdout.strip().splitlines()[-1])
+    figures = json.loads(window.stdout.strip().splitlines()[-1])
+    figures["load"] = (load_before, os.getloadavg()[0])
+    return figures, json.loads(reference.stdout.strip().splitlines()[-1])
 
 
 def print_big_table(window: dict, reference: dict) -> None:
     """The 10^6-row rows: each step's longest stall, times to verdict and peak memory, against pandas."""
     print(f"\n10^6-row stacked export ({BIG_ROWS:,} readings, two groups); reference: pandas.read_csv, same file, same run")
+    print(f"load average of the machine (1 min) before / after: {window['load'][0]:.1f} / {window['load'][1]:.1f} "
+          f"on {os.cpu_count()} cores (stalls grow when the cores are shared)")
     print(f"{'measure':44} {'window':>10} {'pandas':>10} {'ratio':>7}")
     for name, key in (("longest stall while opening (ms)", "stall_open_ms"),
                       ("longest stall showing ranks and dots (ms)", "stall_show_ms"),
                       ("longest stall after one edit (ms)", "stall_edit_ms")):
+        print(f"{name:44} {window[key]:10.0f} {'':>10} {'':>7}")
+    for name, key in (("window thread's own work, one turn: opening", "busy_open_ms"),
+                      ("  the same, showing ranks and dots (ms)", "busy_show_ms"),
+                      ("  the same, after one edit (ms)", "busy_edit_ms")):
         print(f"{name:44} {window[key]:10.0f} {'':>10} {'':>7}")
     for name, key, ref in (("open -> verdict (s)", "open_to_verdict_s", reference["seconds"]),
                            ("edit -> verdict (s)", "edit_to_verdict_s", reference["seconds"]),

@@ -5,9 +5,12 @@
 A QTimer heartbeat every 5 ms records how long the window's event loop went without turning; the
 run opens FILE in the window, waits for the verdict, shows the rank table and the dot plot, types
 one reading, and waits for the updated verdict. It prints one line of JSON: the longest stall of
-each step, the time to each verdict, and the peak memory of the process (ru_maxrss). With
-``--stalls`` a watching thread looks at the window's thread every 10 ms while its event loop stands
-still for more than 50 ms and prints to stderr the lines of the package it found there most often.
+each step, the most processor time the window's thread itself spent between two turns of its loop
+in that step (on a shared machine a stall is also time spent waiting for a core or for the other
+threads to let go of Python's interpreter lock), the time to each verdict, and the peak memory
+of the process (ru_maxrss). With ``--stalls`` a watching thread looks at the window's thread every
+10 ms while its event loop stands still for more than 50 ms and prints to stderr, for the longest
+stalls, the stacks it found there most often.
 """
 
 from __future__ import annotations
@@ -38,19 +41,23 @@ class Heartbeat:
         self.timer = QTimer(interval=HEARTBEAT_MS)
         self.timer.timeout.connect(self._beat)
         self.last = time.perf_counter()
+        self.last_cpu = time.thread_time()
         self.longest = 0.0
+        self.busiest = 0.0
         self.timer.start()
 
     def _beat(self) -> None:
-        now = time.perf_counter()
+        now, cpu = time.perf_counter(), time.thread_time()
         self.longest = max(self.longest, now - self.last)
-        self.last = now
+        self.busiest = max(self.busiest, cpu - self.last_cpu)
+        self.last, self.last_cpu = now, cpu
 
-    def step(self) -> float:
-        """The longest gap since the last call, in ms (the gap running into this call counts too)."""
+    def step(self) -> tuple[float, float]:
+        """The longest gap since the last call and the most processor time the window's thread spent
+        within one gap, in ms (the gap running into this call counts too)."""
         self._beat()
-        longest, self.longest = self.longest, 0.0
-        return longest * 1000.0
+        longest, busiest, self.longest, self.busiest = self.longest, self.busiest, 0.0, 0.0
+        return longest * 1000.0, busiest * 1000.0
 
 
 class StallWatch:
@@ -123,13 +130,13 @@ def measure(path: Path) -> dict:
     window.open_path(path)
     wait(lambda: bool(shown) and not window.runner.busy and getattr(window, "opening", None) is None)
     figures["open_to_verdict_s"] = time.perf_counter() - start
-    figures["stall_open_ms"] = heartbeat.step()
+    figures["stall_open_ms"], figures["busy_open_ms"] = heartbeat.step()
 
     window.tabs.setCurrentWidget(window.rank_table)
     wait(lambda: window.rank_table.model.rowCount() > 0)
     window.tabs.setCurrentWidget(window.dot_plot)
     wait(lambda: window.dot_plot.chart is not None and window.dot_plot.chart.view is not None)
-    figures["stall_show_ms"] = heartbeat.step()
+    figures["stall_show_ms"], figures["busy_show_ms"] = heartbeat.step()
 
     shown.clear()
     start = time.perf_counter()
@@ -139,7 +146,7 @@ def measure(path: Path) -> dict:
     wait(lambda: bool(shown) and not window.runner.busy)
     figures["edit_to_verdict_s"] = time.perf_counter() - start
     wait(lambda: window.keeper.wait_until_written(0))  # the recovery copy written, the window turning meanwhile
-    figures["stall_edit_ms"] = heartbeat.step()
+    figures["stall_edit_ms"], figures["busy_edit_ms"] = heartbeat.step()
     figures["peak_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
     if watch is not None:
         watch.report()

@@ -349,7 +349,11 @@ class RankTable(QWidget):
         shown = self._shown
 
         def sort() -> None:
-            self._contents_ready.emit(shown, _contents(result, analysis))
+            contents = _contents(result, analysis)
+            try:
+                self._contents_ready.emit(shown, contents)
+            except RuntimeError:  # the window closed meanwhile
+                pass
 
         threading.Thread(target=sort, name="rankwise-rank-table", daemon=True).start()
 

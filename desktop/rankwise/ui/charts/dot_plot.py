@@ -168,7 +168,11 @@ class ReadingsDotPlot(ChartFrame):
         asked = self._asked
 
         def place() -> None:
-            self._dots_placed.emit(asked, view, _place_dots(view))
+            dots = _place_dots(view)
+            try:
+                self._dots_placed.emit(asked, view, dots)
+            except RuntimeError:  # the window closed meanwhile
+                pass
 
         threading.Thread(target=place, name="rankwise-dot-plot", daemon=True).start()
 
