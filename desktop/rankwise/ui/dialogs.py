@@ -10,6 +10,7 @@ from __future__ import annotations
 from collections.abc import Callable
 from pathlib import Path
 
+from PySide6.QtGui import QAction
 from PySide6.QtWidgets import QFileDialog, QMessageBox, QWidget
 
 from rankwise.ui.recent_files import remember_written_folder
@@ -105,17 +106,32 @@ def ask_printer(parent: QWidget | None, printer) -> bool:
     return chooser.exec() == QPrintDialog.DialogCode.Accepted
 
 
-def show_print_preview(parent: QWidget | None, printer, paint: Callable[[object], None]) -> None:
-    """Show a print preview; ``paint(printer)`` draws the pages whenever the preview needs them."""
-    from PySide6.QtPrintSupport import QPrintPreviewDialog
+PREVIEW_SIZE = (900, 1000)
+"""The print preview's size where the screen has room for it: wide enough for its toolbar, tall for a page."""
 
-    from PySide6.QtPrintSupport import QPrintPreviewWidget
+
+def print_preview_dialog(parent: QWidget | None, printer, paint: Callable[[object], None]):
+    """The print preview, not yet shown: the whole page in view (the "fit page" zoom, as its toolbar
+    shows), as large as the screen allows yet never wider than it, and at least as wide as its toolbar
+    wants when the screen has room, so that no tool hides behind the toolbar's overflow arrow."""
+    from PySide6.QtPrintSupport import QPrintPreviewDialog, QPrintPreviewWidget
+    from PySide6.QtWidgets import QToolBar
 
     preview = QPrintPreviewDialog(printer, parent)
     preview.setWindowTitle("The one-page verdict")
     preview.paintRequested.connect(paint)
-    fit_to_screen(preview, 900, 1000)
+    toolbar = preview.findChild(QToolBar)
+    wanted = toolbar.sizeHint().width() + 2 * preview.layout().contentsMargins().left() if toolbar else 0
+    fit_to_screen(preview, max(PREVIEW_SIZE[0], wanted), PREVIEW_SIZE[1])
+    fit_page = next((action for action in preview.findChildren(QAction) if action.objectName() == "fitPageAction"), None)
+    if fit_page is not None:
+        fit_page.trigger()  # the dialog's own "fit page" button: the zoom and the toolbar agree
     page = preview.findChild(QPrintPreviewWidget)
-    if page is not None:  # the whole page in view, whatever the screen
+    if page is not None:
         page.setZoomMode(QPrintPreviewWidget.ZoomMode.FitInView)
-    preview.exec()
+    return preview
+
+
+def show_print_preview(parent: QWidget | None, printer, paint: Callable[[object], None]) -> None:
+    """Show a print preview; ``paint(printer)`` draws the pages whenever the preview needs them."""
+    print_preview_dialog(parent, printer, paint).exec()
