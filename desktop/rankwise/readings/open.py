@@ -336,7 +336,7 @@ def _wide_group(raw: RawColumn, decimal: str, first_row_number: int, ids: np.nda
         make_rows=lambda: tuple(range(first_row_number, first_row_number + length)),
         skipped=_skipped(parsed, raw.header, first_row_number),
         make_decimals=lambda: parsed.decimals,
-        make_cells=lambda: tuple(parsed.cell(row) for row in range(length)),
+        make_cells=lambda: parsed.cells(np.arange(length)),
     )
 
 
@@ -382,7 +382,7 @@ def _stacked_groups(
                 make_rows=lambda rows=rows: tuple(int(r) + first_row_number for r in rows),
                 skipped=tuple(skipped.get(k, ())),
                 make_decimals=lambda: parsed.decimals,
-                make_cells=lambda rows=rows: tuple(parsed.cell(int(r)) for r in rows),
+                make_cells=lambda rows=rows: parsed.cells(rows),
             )
         )
     return groups, unlabelled
