@@ -1,7 +1,7 @@
 """Each chart's legend covers none of what the chart draws (curves, markers, bars, reference lines and
 their labels), on the window's own charts at 1024 x 700 and on charts from the smallest size up; the
 axis titles show whole; the room made for a legend has no tick labels above the chart's own top; the
-numbers keep the sheet's decimal mark.
+numbers keep the sheet's decimal mark; the note of an empty chart shows whole.
 
 What is drawn is read back from the plot items and placed in the scene with pyqtgraph's own mapping,
 independently of the way the chart chooses the legend's place.
@@ -212,3 +212,19 @@ def test_the_windows_charts_at_1024_x_700_keep_their_legends_off_the_data(qtbot,
     assert titles_cut_off(chart) == []
     assert chart.plot_item.getAxis("left").decimal_mark == window.last_analysis.decimal_mark == ","
     screenshot(window, f"window-1024x700-{tab.replace('_', '-')}")
+
+
+@pytest.mark.parametrize("chart_class", list(CHARTS), ids=lambda cls: cls.__name__)
+def test_the_note_of_an_empty_chart_shows_whole_on_a_narrow_chart(qtbot, chart_class):
+    """The plain-words note of a chart with nothing to show breaks into lines inside the plot."""
+    chart = chart_class()
+    qtbot.addWidget(chart)
+    chart.resize(330, 240)
+    chart.show()
+    qtbot.waitExposed(chart)
+    chart.clear()
+    QApplication.processEvents()
+    view = chart.plot_item.getViewBox()
+    note = chart._note
+    assert note.isVisible() and note.toPlainText()
+    assert view.sceneBoundingRect().contains(note.sceneBoundingRect()), (note.sceneBoundingRect(), view.sceneBoundingRect())

@@ -83,6 +83,7 @@ class ChartFrame(pg.PlotWidget):
         self._note = pg.TextItem(color=style.INK, anchor=(0.5, 0.5))
         self._note.setFont(style.chart_font(11.0))
         self._note.setZValue(50)
+        self._note.textItem.document().setDefaultTextOption(QTextOption(Qt.AlignmentFlag.AlignHCenter))
         self.plot_item.addItem(self._note, ignoreBounds=True)
         self._preferred_corner = legend_corner
         self.legend_corner = legend_corner
@@ -99,14 +100,22 @@ class ChartFrame(pg.PlotWidget):
         view = self.plot_item.getViewBox()
         view.sigRangeChanged.connect(self._range_asked)
         view.sigResized.connect(self.place_legend)
+        view.sigResized.connect(self._wrap_note)
 
     def note(self) -> str:
         """The note now shown over the plot ("" when the chart shows a result)."""
         return self._note.toPlainText() if self._note.isVisible() else ""
 
+    def _wrap_note(self, *_) -> None:
+        """Break the note into lines no wider than the plot (a narrow chart shows all of it)."""
+        width = self.plot_item.getViewBox().width() - 2 * EDGE_GAP
+        if width > 0:
+            self._note.setTextWidth(width)
+
     def _show_note(self, text: str) -> None:
-        """Hide the data and show ``text`` in the middle of the plot."""
+        """Hide the data and show ``text`` in the middle of the plot, on as many lines as it needs."""
         self._note.setText(text)
+        self._wrap_note()
         self._note.setPos(0.5, 0.5)
         self._note.setVisible(True)
         self.legend.setVisible(False)
