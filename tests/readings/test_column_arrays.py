@@ -9,9 +9,11 @@ import pytest
 
 from rankwise.readings import CellKind, ReadingsError
 from rankwise.readings.column_arrays import ColumnArrays
-from rankwise.readings.entry_counts import count_entries
+from rankwise.readings.entry_counts import count_column, count_entries
+from rankwise.readings.for_analysis import _readings_from_arrays
 from rankwise.readings.plan_start import plan_start
 from rankwise.readings.suspicious import flag_readings
+from rankwise.stats.analysis import GroupReadings
 
 from test_sheet import _apply, _edit_strategy, make_sheet
 
@@ -60,8 +62,25 @@ def _flags_row_by_row(column):
     return {row: tuple(remarks) for row, remarks in sorted(flags.items())}
 
 
+def _readings_cell_by_cell(column, length):
+    """The reference: a group's readings for the analysis read cell by cell (nothing censored)."""
+    values, decimals = [], None
+    for cell in column.cells:
+        if cell.kind is CellKind.NUMBER:
+            values.append(cell.value)
+            decimals = max(decimals or 0, cell.decimals or 0)
+        else:
+            values.append(math.nan)
+    values.extend([math.nan] * (length - len(values)))
+    return GroupReadings(column.name, tuple(values), column.unit, column.lsl, column.usl, column.nominal, decimals)
+
+
 def _check(sheet):
     for index, column in enumerate(sheet.groups):
+        assert count_column(column) == count_entries(column.name, column.cells, lsl=column.lsl, usl=column.usl,
+                                                     unit=column.unit)
+        if not any(cell.kind is CellKind.CENSORED for cell in column.cells):
+            assert _readings_from_arrays(column, 9) == _readings_cell_by_cell(column, 9)
         counts = sheet.counts(index)
         assert (counts.used, counts.skipped, counts.censored, counts.blanks) == _full_count(column)
         kept, fresh = column.arrays(), ColumnArrays(column.cells)

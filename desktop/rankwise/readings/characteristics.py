@@ -29,6 +29,7 @@ from rankwise.readings.errors import ReadingsError
 from rankwise.readings.layout import guess_decimal, is_number_text, name_without_unit, unit_in_header
 from rankwise.readings.for_analysis import build_analysis
 from rankwise.readings.parse import check_decimal, parse_reading
+from rankwise.readings.sheet import GroupColumn
 from rankwise.readings.snapshot import GroupSnapshot, SheetSnapshot
 from rankwise.stats.analysis import Analysis, Characteristic, GroupReadings, Question, Settings
 
@@ -218,7 +219,7 @@ def analysis_from_snapshot(
         pair = snapshot.groups[2 * index: 2 * index + 2]
         if [g.name for g in pair] != [snapshot_title(name, group_a), snapshot_title(name, group_b)]:
             raise ReadingsError(f"The readings as entered do not hold {name} for {group_a} and {group_b}.")
-        columns = [_Column(g.name, g.unit, g.lsl, g.usl, g.nominal, list(g.cells)) for g in pair]
+        columns = [GroupColumn(g.name, g.unit, g.lsl, g.usl, g.nominal, list(g.cells)) for g in pair]
         built = build_analysis(columns, Question.TWO_GROUPS, settings, decimal=snapshot.decimal,
                                mixed_limits=snapshot.mixed_limits)
         a, b = (dataclasses.replace(g, name=p) for g, p in zip(built.groups, (group_a, group_b)))
@@ -242,18 +243,6 @@ def _not_used_note(name: str, process: str, cells: Sequence[Cell]) -> str:
     listed = ", ".join(f"entry {row} '{text[:30]}'" for row, text in skipped[:10])
     more = f" and {len(skipped) - 10} more" if len(skipped) > 10 else ""
     return f"{name}, {process}: {len(skipped)} entr{'ies' if len(skipped) != 1 else 'y'} not used as readings: {listed}{more}."
-
-
-@dataclass
-class _Column:
-    """What ``build_analysis`` reads of a sheet's column."""
-
-    name: str
-    unit: str
-    lsl: float | None
-    usl: float | None
-    nominal: float | None
-    cells: list[Cell]
 
 
 def open_characteristics(

@@ -8,10 +8,17 @@ first entry or below its last are not counted: they are simply where the column 
 from __future__ import annotations
 
 from collections.abc import Callable, Sequence
+from typing import TYPE_CHECKING
+
+import numpy as np
 
 from rankwise.readings.cells import Cell, CellKind
-from rankwise.readings.suspicious import flag_readings
+from rankwise.readings.column_arrays import INVALID, NOTE
+from rankwise.readings.suspicious import flag_readings, flag_rows
 from rankwise.stats.analysis import Entry, GroupEntries
+
+if TYPE_CHECKING:
+    from rankwise.readings.sheet import GroupColumn
 
 
 def count_entries(name: str, cells: Sequence[Cell], *, lsl: float | None = None, usl: float | None = None,
@@ -33,6 +40,26 @@ def count_entries(name: str, cells: Sequence[Cell], *, lsl: float | None = None,
         not_used=tuple(Entry(row + 1, cell.text.strip(), reason_not_used(cell))
                        for row, cell in enumerate(cells) if cell.is_skipped),
         empty_between=sum(1 for cell in cells[first:last + 1] if cell.kind is CellKind.EMPTY),
+        flagged=tuple(Entry(row + 1, cells[row].text.strip(), remark)
+                      for row, remarks in flags.items() for remark in remarks),
+    )
+
+
+def count_column(column: GroupColumn) -> GroupEntries:
+    """``count_entries`` of a sheet's group with the cells written "<limit" as the censored ones, taken
+    from the group's arrays (``GroupColumn.arrays``): only the entries listed are looked at one by one."""
+    arrays = column.arrays()
+    counts = arrays.counts()
+    cells = column.cells
+    flags = flag_rows(arrays.reading_rows(), arrays.measured(), lambda row: cells[row].text,
+                      lsl=column.lsl, usl=column.usl, unit=column.unit)
+    return GroupEntries(
+        name=column.name,
+        readings=counts.used + counts.censored,
+        censored=counts.censored,
+        not_used=tuple(Entry(row + 1, cells[row].text.strip(), reason_not_used(cells[row]))
+                       for row in np.flatnonzero((arrays.kinds == NOTE) | (arrays.kinds == INVALID)).tolist()),
+        empty_between=counts.blanks,
         flagged=tuple(Entry(row + 1, cells[row].text.strip(), remark)
                       for row, remarks in flags.items() for remark in remarks),
     )

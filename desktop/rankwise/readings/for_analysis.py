@@ -6,9 +6,10 @@ import math
 from collections.abc import Sequence
 from typing import TYPE_CHECKING
 
-from rankwise.readings.censored import censoring_for
+from rankwise.readings.censored import censoring_for, check_mixed_limits
 from rankwise.readings.cells import Cell, CellKind
-from rankwise.readings.entry_counts import count_entries
+from rankwise.readings.column_arrays import CENSORED, NUMBER
+from rankwise.readings.entry_counts import count_column, count_entries
 from rankwise.readings.parse import machine_decimal
 from rankwise.readings.snapshot import RowParts
 from rankwise.wording import pairing as words
@@ -38,12 +39,18 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     ``question_notes``).
     """
     question = Question(question)
-    censoring = censoring_for([(column.name, column.cells) for column in columns], mixed_limits)
+    check_mixed_limits(mixed_limits)
+    censored = any(bool((column.arrays().kinds == CENSORED).any()) for column in columns)
+    censoring = censoring_for([(column.name, column.cells) for column in columns], mixed_limits) if censored else None
     length = max((len(column.cells) for column in columns), default=0) if question is Question.PAIRED else 0
     notes: list[str] = []
     groups = []
     entries = []
     for column in columns:
+        if censoring is None:  # nothing below a detection limit: the sheet's arrays hold all it takes
+            groups.append(_readings_from_arrays(column, length))
+            entries.append(count_column(column))
+            continue
         values = []
         decimals = None
         for cell in column.cells:
@@ -74,6 +81,19 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
     mark = decimal if decimal in (".", ",") else typed_decimal_mark(columns)
     return Analysis(question=question, groups=tuple(groups), settings=settings or Settings(), notes=tuple(notes),
                     decimal_mark=mark, entries=tuple(entries))
+
+
+def _readings_from_arrays(column: GroupColumn, length: int) -> GroupReadings:
+    """A group's readings when none is censored: each row's reading, NaN elsewhere, padded to ``length``."""
+    arrays = column.arrays()
+    # math.nan itself where no reading (as the cell-by-cell reading gives), so that equal analyses compare equal
+    values = [value if value == value else math.nan for value in arrays.values.tolist()]
+    values.extend([math.nan] * (length - len(values)))
+    measured = arrays.decimals[arrays.kinds == NUMBER]
+    return GroupReadings(
+        name=column.name, values=tuple(values), unit=column.unit, lsl=column.lsl, usl=column.usl,
+        nominal=column.nominal, decimals=max(0, int(measured.max())) if measured.size else None,
+    )
 
 
 def typed_decimal_mark(columns: Sequence[GroupColumn]) -> str:
