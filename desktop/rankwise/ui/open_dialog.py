@@ -32,6 +32,8 @@ from PySide6.QtWidgets import (
 )
 
 from rankwise.readings import ReadingSet, ReadingsError
+from rankwise.ui import window_files
+from rankwise.ui.worker import run_aside
 from rankwise.ui.screen_fit import fit_to_screen
 from rankwise.stats.analysis import Question
 
@@ -287,14 +289,12 @@ class OpenReadingsDialog(QDialog):
     def _on_choice_changed(self) -> None:
         if self._filling:
             return
-        from rankwise.readings import open_readings
-
         options = self.choices()
         if options["layout"] == "stacked" and options.get("value_column") == options.get("group_column"):
             options.pop("value_column")
             options.pop("group_column")
         try:
-            reading_set = open_readings(self.path, **options)
+            reading_set = read_readings(self, self.path, options)
         except ReadingsError as error:
             self.reading_set = None
             self.load_button.setEnabled(False)
@@ -309,10 +309,22 @@ class OpenReadingsDialog(QDialog):
 
         Raises ``ReadingsError`` when the file cannot be read at all.
         """
-        from rankwise.readings import open_readings
-
-        dialog = cls(parent, path, open_readings(path))
+        dialog = cls(parent, path, read_readings(parent, path))
         return dialog.reading_set if dialog.exec() == QDialog.DialogCode.Accepted else None
+
+
+def read_readings(parent: QWidget | None, path: Path, options: dict | None = None) -> ReadingSet:
+    """``open_readings(path, **options)``; a file larger than ``LARGE_FILE_BYTES`` is read (and the file
+    readers loaded) on a thread of its own while the window keeps answering (``run_aside``)."""
+
+    def read() -> ReadingSet:
+        from rankwise.readings.open import open_readings
+
+        return open_readings(path, **(options or {}))
+
+    if path.stat().st_size > window_files.LARGE_FILE_BYTES:
+        return run_aside(parent, f"Reading {path.name}…", read)
+    return read()
 
 
 def _escape(text: str) -> str:

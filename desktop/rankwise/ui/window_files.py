@@ -12,6 +12,7 @@ from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError
 from rankwise.ui import dialogs
 from rankwise.ui.question_panel import OPTION_OF_QUESTION
 from rankwise.ui.recent_files import remember_file
+from rankwise.ui.worker import run_aside
 from rankwise.wording.pairing import CHOSEN_WHEN_OPENING, question_suggested, suggestion_reason
 
 DEMO_FILE_NAME = "two_wheels_roughness.csv"
@@ -177,7 +178,9 @@ class WindowFiles:
     def load_reading_set(self, reading_set, path: Path, sheet: ReadingSheet | None = None) -> None:
         """Put opened readings into the sheet (``sheet``: already built from them) and analyse them."""
         if sheet is None:
-            sheet = _sheet_of(reading_set)
+            large = path.is_file() and path.stat().st_size > LARGE_FILE_BYTES
+            sheet = (run_aside(self, f"Opening {path.name}…", lambda: _sheet_of(reading_set)) if large
+                     else _sheet_of(reading_set))
         from rankwise.readings.same_parts import suggest
 
         natural = suggest(reading_set.groups, reading_set.pairing).question

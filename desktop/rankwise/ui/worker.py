@@ -11,7 +11,10 @@ from __future__ import annotations
 import threading
 import time
 
-from PySide6.QtCore import QObject, QRunnable, QThreadPool, QTimer, Signal
+from collections.abc import Callable
+from typing import TypeVar
+
+from PySide6.QtCore import QEventLoop, QObject, QRunnable, QThreadPool, Qt, QTimer, Signal
 
 DEBOUNCE_MS = 150
 """Quiet time after the last edit before the statistics run."""
@@ -179,3 +182,45 @@ class AnalysisRunner(QObject):
         if self._is_current(generation):
             self._running = None
             self.stopped.emit()
+
+
+_T = TypeVar("_T")
+
+BUSY_NOTE_DELAY_MS = 300
+"""``run_aside`` shows its note only for work that takes longer than this."""
+
+
+def run_aside(parent, words: str, work: Callable[[], _T]) -> _T:
+    """``work()`` on a thread of its own while the window keeps answering; its result, or the error it raised.
+
+    The caller waits here, as for a dialog: a modal note with ``words`` (after ``BUSY_NOTE_DELAY_MS``)
+    keeps the window's controls from being used meanwhile, while its event loop keeps turning.
+    """
+    from PySide6.QtWidgets import QProgressDialog
+
+    outcome: list = []
+
+    def run() -> None:
+        try:
+            outcome.append((True, work()))
+        except BaseException as error:  # noqa: BLE001 - handed to the caller, on its thread
+            outcome.append((False, error))
+
+    loop = QEventLoop()
+    note = QProgressDialog(words, "", 0, 0, parent)
+    note.setCancelButton(None)
+    note.setWindowModality(Qt.WindowModality.ApplicationModal)
+    note.setMinimumDuration(BUSY_NOTE_DELAY_MS)
+    poll = QTimer(interval=20)
+    poll.timeout.connect(lambda: loop.quit() if outcome else None)
+    threading.Thread(target=run, name="rankwise-aside", daemon=True).start()
+    poll.start()
+    while not outcome:
+        loop.exec()
+    poll.stop()
+    note.reset()
+    note.deleteLater()
+    succeeded, value = outcome[0]
+    if not succeeded:
+        raise value
+    return value
