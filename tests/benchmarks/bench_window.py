@@ -199,12 +199,13 @@ def print_big_table(window: dict, reference: dict) -> None:
                       ("longest stall showing ranks and dots (ms)", "stall_show_ms"),
                       ("longest stall after one edit (ms)", "stall_edit_ms")):
         print(f"{name:44} {window[key]:10.0f} {'':>10} {'':>7}")
-    for name, key in (("window thread's own work, one turn: opening", "busy_open_ms"),
+    for name, key in (("window thread's own work in one turn (ms)", "busy_open_ms"),
                       ("  the same, showing ranks and dots (ms)", "busy_show_ms"),
                       ("  the same, after one edit (ms)", "busy_edit_ms")):
         print(f"{name:44} {window[key]:10.0f} {'':>10} {'':>7}")
     for name, key, ref in (("open -> verdict (s)", "open_to_verdict_s", reference["seconds"]),
                            ("edit -> verdict (s)", "edit_to_verdict_s", reference["seconds"]),
+                           ("peak memory once opened (MiB)", "peak_open_mib", reference["peak_mib"]),
                            ("peak memory (MiB)", "peak_mib", reference["peak_mib"])):
         print(f"{name:44} {window[key]:10.1f} {ref:10.1f} {window[key] / ref:7.1f}")
 

@@ -8,7 +8,7 @@ one reading, and waits for the updated verdict. It prints one line of JSON: the 
 each step, the most processor time the window's thread itself spent between two turns of its loop
 in that step (on a shared machine a stall is also time spent waiting for a core or for the other
 threads to let go of Python's interpreter lock), the time to each verdict, and the peak memory
-of the process (ru_maxrss). With ``--stalls`` a watching thread looks at the window's thread every
+of the process (ru_maxrss) once the file is open and at the end. With ``--stalls`` a watching thread looks at the window's thread every
 10 ms while its event loop stands still for more than 50 ms and prints to stderr, for the longest
 stalls, the stacks it found there most often.
 """
@@ -131,6 +131,7 @@ def measure(path: Path) -> dict:
     wait(lambda: bool(shown) and not window.runner.busy and getattr(window, "opening", None) is None)
     figures["open_to_verdict_s"] = time.perf_counter() - start
     figures["stall_open_ms"], figures["busy_open_ms"] = heartbeat.step()
+    figures["peak_open_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
 
     window.tabs.setCurrentWidget(window.rank_table)
     wait(lambda: window.rank_table.model.rowCount() > 0)
