@@ -8,9 +8,9 @@ one reading, and waits for the updated verdict. It prints one line of JSON: the 
 each step, the most processor time the window's thread itself spent between two turns of its loop
 in that step (on a shared machine a stall is also time spent waiting for a core or for the other
 threads to let go of Python's interpreter lock), the time to each verdict, and the peak memory
-of the process (ru_maxrss) once the file is open and at the end. With ``--stalls`` a watching thread looks at the window's thread every
-10 ms while its event loop stands still for more than 50 ms and prints to stderr, for the longest
-stalls, the stacks it found there most often.
+of the process (ru_maxrss) once the file is open and at the end. With ``--stalls`` a watching
+thread looks at the window's thread every 10 ms while its event loop stands still for more than
+50 ms and prints to stderr, for the longest stalls, the stacks it found there most often.
 """
 
 from __future__ import annotations
