@@ -104,6 +104,19 @@ class ColumnArrays:
             self._answers["rows"] = _read_only(np.flatnonzero(self.kinds == NUMBER))
         return self._answers["rows"]
 
+    def squares_about_mean(self) -> float:
+        """The sum of the squared deviations of the measured readings from their mean (for the pooled spread)."""
+        if "squares" not in self._answers:
+            measured = self.measured()
+            self._answers["squares"] = float(np.sum((measured - measured.mean()) ** 2)) if measured.size else 0.0
+        return self._answers["squares"]
+
+    def finest_decimals(self) -> int:
+        """The most decimals of the measured readings, ``NO_DECIMALS`` when none is known."""
+        if "decimals" not in self._answers:
+            self._answers["decimals"] = int(self.decimals.max()) if self.decimals.size else NO_DECIMALS
+        return self._answers["decimals"]
+
     def measured(self) -> np.ndarray:
         """The measured readings in row order (readings below a detection limit, notes and blanks left
         out; read-only)."""

@@ -59,7 +59,7 @@ def plan_start(columns: Sequence[GroupColumn], *, paired: bool = False, share: f
         raise ValueError(f"share must lie above 0 and at most 1; got {share!r}.")
     arrays = [column.arrays() for column in columns]
     measured = [column.measured() for column in arrays]
-    decimals = max((int(column.decimals.max()) for column in arrays if column.decimals.size), default=NO_DECIMALS)
+    decimals = max((column.finest_decimals() for column in arrays), default=NO_DECIMALS)
     decimals = None if decimals == NO_DECIMALS else decimals
     if paired and len(columns) >= 2:
         a, b = arrays[0], arrays[1]
@@ -69,10 +69,10 @@ def plan_start(columns: Sequence[GroupColumn], *, paired: bool = False, share: f
         spread = float(np.std(differences, ddof=1)) if differences.size >= 2 else None
         count = int(differences.size)
     else:
-        values = [group for group in measured if group.size >= 2]
-        degrees = sum(v.size - 1 for v in values)
-        spread = math.sqrt(sum(float(np.sum((v - v.mean()) ** 2)) for v in values) / degrees) if degrees else None
-        count = sum(v.size for v in values)
+        pooled = [column for column in arrays if column.measured().size >= 2]
+        degrees = sum(column.measured().size - 1 for column in pooled)
+        spread = math.sqrt(sum(column.squares_about_mean() for column in pooled) / degrees) if degrees else None
+        count = sum(column.measured().size for column in pooled)
     if spread is not None and not spread > 0.0:
         spread = None
     tolerance = next(((column.name, column.lsl, column.usl) for column in columns
