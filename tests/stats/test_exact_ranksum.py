@@ -106,3 +106,57 @@ def test_an_exact_count_too_big_for_memory_is_refused_in_the_window_s_words(monk
     with pytest.raises(ValueError, match="by the normal approximation") as refusal:
         compare_two([1.0, 2.0, 3.0, 4.0, 5.0, 6.0], [1.5, 2.5, 3.5, 4.5, 5.5, 6.5], method="exact")
     assert not re.search(r"method|=|'normal'", str(refusal.value))
+
+
+def _random_tied_readings(rng, size):
+    """Readings on a coarse grid, so that tie blocks of many sizes occur (test data, not readings of a part)."""
+    return rng.integers(0, max(2, size // 2), size).astype(float)
+
+
+@pytest.mark.parametrize("seed", range(6))
+def test_reading_by_reading_and_block_counts_equal_brute_force_enumeration(seed):
+    """Brute-force enumeration over all C(N, n) splits, N up to 14, for the count reading by
+    reading and the count by tie blocks alike (each way, not only the one chosen as cheapest)."""
+    from rankwise.stats.exact_ranksum import _block_sum_distribution, _tracked_sum_distribution
+    from rankwise.stats.progress import SILENT
+
+    rng = np.random.default_rng(seed)
+    for size in range(2, 15):
+        doubled = np.sort((2 * scipy.stats.rankdata(_random_tied_readings(rng, size))).astype(np.int64))
+        for n_tracked in range(1, size // 2 + 1):
+            support, probabilities = _enumerated(doubled, n_tracked)
+            for count in (_tracked_sum_distribution, _block_sum_distribution):
+                sums = count(doubled, n_tracked, SILENT)
+                np.testing.assert_array_equal(sums.doubled_sums - n_tracked * (n_tracked + 1), support)
+                np.testing.assert_allclose(sums.probabilities, probabilities, rtol=1e-12, atol=0)
+
+
+def _samples_with_u(size_x, size_y, u):
+    """Readings x and y without ties in which u of the pairs have x above y: y = 0, 2, 4, ... and
+    each x just above as many y as still wanted (at most all of them)."""
+    above, wanted = [], u
+    for _ in range(size_x):
+        above.append(min(size_y, wanted))
+        wanted -= above[-1]
+    x = 2.0 * np.array(above) - 1.0 + 1e-3 * np.arange(size_x)
+    return x, 2.0 * np.arange(size_y)
+
+
+@pytest.mark.parametrize("n_a, n_b", [(17, 23), (40, 40), (9, 70)])
+def test_reading_by_reading_count_without_ties_matches_scipy_exact(n_a, n_b):
+    """scipy.stats.mannwhitneyu(x, y, method="exact", alternative="less") gives P(U <= u) without
+    ties; the count reading by reading (which widens its table as it goes) agrees at every u tried."""
+    from rankwise.stats.exact_ranksum import _tracked_sum_distribution
+    from rankwise.stats.progress import SILENT
+
+    doubled = 2 * np.arange(1, n_a + n_b + 1, dtype=np.int64)
+    n_tracked = min(n_a, n_b)
+    sums = _tracked_sum_distribution(doubled, n_tracked, SILENT)
+    u = (sums.doubled_sums - n_tracked * (n_tracked + 1)) // 2
+    np.testing.assert_array_equal(u, np.arange(n_a * n_b + 1))
+    cumulative = np.cumsum(sums.probabilities)
+    for value in range(0, n_a * n_b + 1, max(1, n_a * n_b // 40)):
+        x, y = _samples_with_u(n_tracked, n_a + n_b - n_tracked, value)
+        assert scipy.stats.mannwhitneyu(x, y).statistic == value
+        expected = scipy.stats.mannwhitneyu(x, y, method="exact", alternative="less").pvalue
+        assert cumulative[value] == pytest.approx(expected, rel=1e-11)

@@ -10,6 +10,7 @@ The printed tables stop at 20 or 40 readings per group; this works at any size.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from functools import lru_cache
 from math import comb, lgamma, log
 
 import numpy as np
@@ -100,9 +101,18 @@ def critical_value(n_a: int, n_b: int, alpha: float = 0.05, alternative: str = "
     """The largest u with P(U <= u) <= alpha (alpha/2 per tail when two-sided), no ties, any sizes.
 
     Counted exactly while (smaller size) x (truncation point) stays within ``EXACT_WORK_LIMIT``;
-    beyond, from the Edgeworth expansion (see ``edgeworth_critical_u``).
+    beyond, from the Edgeworth expansion (see ``edgeworth_critical_u``). The value depends on the
+    sizes, level and sidedness only, so it is worked out once per such question and remembered
+    (many characteristics of one part share their sizes).
     """
     n_a, n_b = _check_sizes(n_a, n_b)
+    _tail_level(alpha, alternative)
+    return _critical_value(n_a, n_b, float(alpha), alternative, EXACT_WORK_LIMIT)
+
+
+@lru_cache(maxsize=256)
+def _critical_value(n_a: int, n_b: int, alpha: float, alternative: str, work_limit: int) -> CriticalValue:
+    """``critical_value`` for checked arguments (a frozen result, safe to share)."""
     tail = _tail_level(alpha, alternative)
     tails = 2 if alternative == "two-sided" else 1
     if not _extreme_split_rare_enough(n_a, n_b, tail):
@@ -112,7 +122,7 @@ def critical_value(n_a: int, n_b: int, alpha: float = 0.05, alternative: str = "
     guess = normal_critical_u(n_a, n_b, tail)
     sd = np.sqrt(n_a * n_b * (n_a + n_b + 1) / 12.0)
     u_max = min(half, max(guess, 0) + int(0.25 * sd) + 16)
-    if m * u_max > EXACT_WORK_LIMIT:
+    if m * u_max > work_limit:
         return CriticalValue(u=edgeworth_critical_u(n_a, n_b, tail), attained_alpha=None, exact=False)
     while True:
         cumulative = np.cumsum(lower_tail_probabilities(n_a, n_b, u_max))

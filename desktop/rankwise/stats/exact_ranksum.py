@@ -6,10 +6,10 @@ distribution of A's rank sum over these splits is counted with a dynamic program
 readings in rank order (the idea of the shift algorithm of Streitberg & Roehmel 1986, Statistical
 Software Newsletter 12, 10-17), on doubled mid-ranks so that every rank is a whole number.
 
-Probabilities, not counts, are carried: after i readings, a cell holds the chance that the first
-i readings contain k of the tracked group with a given partial sum. Every entry stays in [0, 1], so
-nothing overflows at large N (counts such as C(1200, 600) would). Each reading costs a few
-vectorised updates: the rows k are taken in about a dozen bands, each over its own columns.
+Counts are carried, each at most C(N, n_small) (about 1e29 at 50 + 50; the table-size limit keeps
+every count that can be asked for far below the float64 limit), and divided by their total at the
+end. The rows of the table (how many of the tracked group so far) lie one after the other in one
+flat array, spaced so that taking a reading is one array update for all rows at once.
 
 Two shapes of data have much cheaper exact counts, and the cheapest of the three is used
 (``exact_count_seconds`` estimates each from measured costs on the development machine):
@@ -26,15 +26,13 @@ Two shapes of data have much cheaper exact counts, and the cheapest of the three
 from __future__ import annotations
 
 from dataclasses import dataclass
+from math import lgamma
 
 import numpy as np
 from scipy.special import gammaln
 
 from rankwise.stats.critical import lower_tail_probabilities
 from rankwise.stats.progress import SILENT, Monitor
-
-_BANDS = 12
-"""Rows of the table are updated in about this many bands, each over its own columns."""
 
 MAX_TABLE_CELLS = 60_000_000
 """Largest working table (about 480 MB of float64) the exact count may use; beyond, it refuses."""
@@ -107,13 +105,14 @@ def no_ties_distribution(n_a: int, n_b: int, monitor: Monitor = SILENT) -> RankS
 _SECONDS_PER_SERIES_CELL = 4e-9
 _SECONDS_PER_BLOCK_STATE = 2.5e-7
 _SECONDS_PER_BLOCK = 4e-5
-_SECONDS_PER_TABLE_CELL = 5e-10
-_SECONDS_PER_READING = 2.5e-5
-_SECONDS_PER_COUNT = 1.5e-4
+_SECONDS_PER_TABLE_CELL = 8e-10
+_SECONDS_PER_READING = 1e-5
+_SECONDS_PER_COUNT = 6e-4
 """Measured costs on the development machine (tests/benchmarks/bench_two_groups.py): a cell of the
 no-ties series per step, a (readings, sum) pair made in the count by tie blocks, one tie block, a
-unit of the reading-by-reading table work (n_small^2 n_large N of them), one reading's updates,
-and what every count costs whatever its way (ranking, sorting, looking up)."""
+unit of the reading-by-reading table work (n_small^2 n_large N of them; measured 6e-10 to 1.2e-9 s
+a unit from 50 + 50 to 120 + 120 and 40 + 400, more when other work shares the 2 cores), one
+reading's update, and what every count costs whatever its way (ranking, sorting, looking up)."""
 
 
 def exact_count_seconds(block_sizes: np.ndarray | None, n_tracked: int, n_total: int) -> float:
@@ -235,64 +234,93 @@ class _SumDistribution:
 def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Monitor) -> _SumDistribution:
     """Distribution of the sum of ``n_tracked`` of the ascending ``doubled`` ranks, drawn at random.
 
-    The ranks are divided by their common divisor and centred on a whole number near their mean;
-    a cell (k, c) holds the chance that the readings seen so far include k tracked ones whose
-    centred values add up to c. Taking reading i moves mass from (k, c) to (k + 1, c + delta_i):
-    the same shift for every k, so a band of rows moves in one array update.
+    The ranks are divided by their common divisor. Row k counts the ways the readings seen so far
+    hold k tracked ones, by their sum s; taking reading i adds row k - 1, moved by its rank r_i, to
+    row k. The rows lie one after the other in one flat array, row k's sum s at k R + s, so that
+    this move is the same flat offset R + r_i for every row: one array update per reading over the
+    rows still able to reach n_tracked. R is kept just wide enough that neighbouring rows' ranges
+    (from the sum of the k smallest ranks to the sum of the k largest seen) never meet, and is
+    widened (the rows copied) as the ranges grow. Counts are carried: each is at most C(N, n_tracked).
     """
     n_total = doubled.size
     divisor = int(np.gcd.reduce(doubled))
-    values = doubled // divisor
-    centre = int(round(values.sum() / n_total))
-    deltas = values - centre
-    ascending = np.sort(deltas)
-    room_below = int(-np.minimum(ascending[:n_tracked], 0).sum())
-    room_above = int(np.maximum(ascending[::-1][:n_tracked], 0).sum())
-    pad = int(np.abs(deltas).max())
-    width = room_below + room_above + 1 + 2 * pad
-    origin = room_below + pad
-    if (n_tracked + 1) * width > MAX_TABLE_CELLS:
+    ranks = (doubled // divisor).tolist()
+    prefix = [0]
+    for rank in ranks:
+        prefix.append(prefix[-1] + rank)
+    widths = _row_strides(np.asarray(prefix, dtype=np.int64), n_tracked)
+    top_sum = prefix[n_total] - prefix[n_total - n_tracked]
+    cells = n_tracked * int(widths.max(initial=1)) + top_sum + 1
+    if cells > MAX_TABLE_CELLS or _log_choose_exact(n_total, n_tracked) > _LOG_LARGEST_COUNT:
         raise ValueError(_too_big(n_total))
-    table = np.zeros((n_tracked + 1, width))
-    table[0, origin] = 1.0
-    # Columns that may hold mass, per row (inclusive); rows are updated in bands of a few rows,
-    # each over its own columns, because row k lives near k times the mean shift seen so far.
-    low = np.full(n_tracked + 1, 2 * width)  # rows not reached yet hold an empty range
-    high = np.full(n_tracked + 1, -1)
-    low[0] = high[0] = origin
-    band = max(4, (n_tracked + 1) // _BANDS + 1)
-    rows = np.arange(n_tracked + 1, dtype=float)
-    for i, delta in enumerate(deltas.tolist()):
-        remaining = n_total - i
-        # P(next reading is tracked | k tracked so far) = (n_tracked - k) / remaining.
-        take = (n_tracked - rows) / remaining
-        first_row = max(1, n_tracked - remaining)
-        last_row = min(i + 1, n_tracked)
-        for top in range(last_row + 1, first_row, -band):
-            bottom = max(first_row, top - band)
-            _take_reading(table, bottom, top, delta, take, low, high)
-        table[0, origin] *= 1.0 - take[0]
-        reached = slice(1, last_row + 1)
-        low[reached] = np.minimum(low[reached], low[: last_row] + delta)
-        high[reached] = np.maximum(high[reached], high[: last_row] + delta)
+    stride = 1
+    table = np.zeros(n_tracked * stride + top_sum + 1)
+    table[0] = 1.0
+    spare = table.copy()  # the next table is written here: no overlapping update, no temporary copy
+    for i, rank in enumerate(ranks):
+        # Rows k - 1 = first - 1 .. last - 1 move into rows first .. last (those that can still reach n_tracked).
+        first, last = max(1, n_tracked - (n_total - i - 1)), min(i + 1, n_tracked)
+        if widths[i] > stride:
+            wider = int(widths[i:i + max(8, i // 2)].max())
+            table = _restride(table, stride, wider, prefix, i, first - 1, min(last, i), n_tracked * wider + top_sum + 1)
+            spare = np.zeros(table.size)
+            spare[0] = table[0]  # row 0 (no tracked reading yet) is never written again
+            stride = wider
+        begin = (first - 1) * stride + prefix[first - 1]
+        end = (last - 1) * stride + prefix[i] - prefix[i - last + 1] + 1
+        move = stride + rank
+        np.add(table[begin + move:end + move], table[begin:end], out=spare[begin + move:end + move])
+        # Row `first` below the moved range keeps its counts (every other cell of the rows is written above).
+        kept = first * stride + prefix[first]
+        spare[kept:begin + move] = table[kept:begin + move]
+        table, spare = spare, table
         if i % _PROGRESS_EVERY == 0:
             monitor.step(i / n_total)
     monitor.step(1.0)
-    final = table[n_tracked]
+    low = n_tracked * stride + prefix[n_tracked]
+    final = table[low:n_tracked * stride + top_sum + 1]
     reachable = np.flatnonzero(final > 0.0)
-    probabilities = final[reachable]
-    probabilities = probabilities / probabilities.sum()
-    doubled_sums = ((reachable - origin) + n_tracked * centre) * divisor
+    probabilities = final[reachable] / final[reachable].sum()
+    doubled_sums = (reachable + prefix[n_tracked]) * divisor
     return _SumDistribution(doubled_sums=doubled_sums.astype(np.int64), probabilities=probabilities)
 
 
-def _take_reading(table: np.ndarray, bottom: int, top: int, delta: int, take: np.ndarray,
-                  low: np.ndarray, high: np.ndarray) -> None:
-    """Update rows bottom..top-1 for one more reading: stay with 1 - take, or come from row k - 1."""
-    source_low = int(low[bottom - 1:top - 1].min())
-    source_high = int(high[bottom - 1:top - 1].max())
-    moved = table[bottom - 1:top - 1, source_low:source_high + 1] * take[bottom - 1:top - 1, None]
-    rows_here = table[bottom:top]
-    kept_low, kept_high = int(low[bottom:top].min()), int(high[bottom:top].max())
-    rows_here[:, kept_low:kept_high + 1] *= (1.0 - take[bottom:top])[:, None]
-    rows_here[:, source_low + delta:source_high + 1 + delta] += moved
+_LOG_LARGEST_COUNT = 700.0
+"""Counts up to e^700 (about 1e304) fit a float64; the table-size limit keeps C(N, n_tracked) far below."""
+
+
+def _log_choose_exact(n: int, k: int) -> float:
+    """log C(n, k) for any whole n >= k >= 0."""
+    return lgamma(n + 1) - lgamma(k + 1) - lgamma(n - k + 1)
+
+
+def _row_strides(prefix: np.ndarray, n_tracked: int) -> np.ndarray:
+    """For each reading i (0-based), the least row stride R that keeps the rows it fills apart.
+
+    After reading i (s = i + 1 readings seen), row k spans sums from prefix[k] (the k smallest
+    ranks) to prefix[s] - prefix[s - k] (the k largest seen); rows k and k + 1 stay apart when
+    R > top(k) - prefix[k + 1]. That gap grows with k by r[s - k - 1] - r[k + 1] >= 0 while
+    s - k - 1 >= k + 1 and shrinks after (the ranks ascend), so its largest value over the rows
+    filled lies at the row nearest (s - 2) / 2.
+    """
+    n_total = prefix.size - 1
+    seen = np.arange(1, n_total + 1)
+    first = np.maximum(1, n_tracked - (n_total - seen))
+    last = np.minimum(seen, n_tracked) - 1  # pairs (k, k + 1) with both rows filled: k in first..last
+    strides = np.ones(n_total, dtype=np.int64)
+    for middle in ((seen - 2) // 2, (seen - 1) // 2):
+        k = np.clip(middle, first, np.maximum(last, first))
+        gap = prefix[seen] - prefix[seen - k] - prefix[k + 1] + 1
+        np.maximum(strides, np.where(first <= last, gap, 1), out=strides)
+    return strides
+
+
+def _restride(table: np.ndarray, stride: int, wider: int, prefix: list[int], seen: int,
+              first_row: int, last_row: int, size: int) -> np.ndarray:
+    """The rows first_row..last_row (those that hold mass after ``seen`` readings and can still reach
+    the end) copied to a table of row stride ``wider``."""
+    widened = np.zeros(size)
+    for k in range(first_row, last_row + 1):
+        low, high = prefix[k], prefix[seen] - prefix[seen - k] + 1
+        widened[k * wider + low:k * wider + high] = table[k * stride + low:k * stride + high]
+    return widened

@@ -13,11 +13,13 @@ grid (``rankwise.stats.grid``) so that floating-point noise never splits a tie.
 from __future__ import annotations
 
 from collections.abc import Sequence
+from functools import lru_cache
 
 import numpy as np
+from scipy import special as _special
 from scipy import stats as _dist
 
-from rankwise.stats.grid import find_grid
+from rankwise.stats.grid import Grid, find_grid
 from rankwise.stats.ranks import midranks
 from rankwise.stats.results import BrunnerMunzelResult, MoodMedianResult, ShapeCheck
 
@@ -32,7 +34,7 @@ _KS_EXACT_LIMIT = 10_000
 """Largest n_a * n_b for which the lattice-path count of the shape check is exact."""
 
 
-def check_shape(a: np.ndarray, b: np.ndarray) -> ShapeCheck | None:
+def check_shape(a: np.ndarray, b: np.ndarray, grid: Grid | None = None) -> ShapeCheck | None:
     """Do A and B have the same spread and shape? None with fewer than 5 readings in a group.
 
     Two checks after aligning the medians (Conover, Johnson & Johnson 1981, Technometrics 23,
@@ -46,13 +48,14 @@ def check_shape(a: np.ndarray, b: np.ndarray) -> ShapeCheck | None:
       n_a * n_b = 10 000; beyond, Kolmogorov's one-sample distribution at the effective size
       n_a n_b / (n_a + n_b), as Smirnov suggested), so it is a screen, not an exact test.
 
-    ``differ`` is True when either p-value is below 0.05.
+    ``differ`` is True when either p-value is below 0.05. ``grid``: the readings' common grid when
+    the caller has found it already (``find_grid(a, b)``).
     """
     a = np.asarray(a, dtype=float)
     b = np.asarray(b, dtype=float)
     if a.size < SHAPE_MIN_READINGS or b.size < SHAPE_MIN_READINGS:
         return None
-    grid = find_grid(a, b)
+    grid = find_grid(a, b) if grid is None else grid
     # Doubled counts minus doubled medians: whole numbers on a grid, so deviations tie exactly.
     aligned_a = 2.0 * grid.to_counts(a) - 2.0 * np.median(grid.to_counts(a))
     aligned_b = 2.0 * grid.to_counts(b) - 2.0 * np.median(grid.to_counts(b))
@@ -81,14 +84,14 @@ def _fligner_killeen_p(deviations: Sequence[np.ndarray]) -> float:
     sizes = [d.size for d in deviations]
     combined = np.concatenate(deviations)
     total = combined.size
-    scores = _dist.norm.ppf(midranks(combined) / (2.0 * (total + 1.0)) + 0.5)
+    scores = _special.ndtri(midranks(combined) / (2.0 * (total + 1.0)) + 0.5)  # the normal quantile
     variance = float(np.var(scores, ddof=1))
     if not variance > 0.0:
         return 1.0
     mean_score = scores.mean()
     split = np.split(scores, np.cumsum(sizes)[:-1])
     statistic = sum(s.size * (s.mean() - mean_score) ** 2 for s in split) / variance
-    return float(_dist.chi2.sf(statistic, len(sizes) - 1))
+    return float(_special.chdtrc(len(sizes) - 1, statistic))  # chi-square upper tail
 
 
 def _kolmogorov_smirnov_p(x: np.ndarray, y: np.ndarray) -> float:
@@ -107,11 +110,13 @@ def _kolmogorov_smirnov_p(x: np.ndarray, y: np.ndarray) -> float:
     return float(min(1.0, _dist.kstwo.sf(gap / (m * n), effective_size)))
 
 
+@lru_cache(maxsize=1024)
 def _lattice_exceedance(m: int, n: int, gap: int) -> float:
     """P(max |n i - m j| >= gap) over a random path from (0, 0) to (m, n) (Hodges 1957).
 
     Every interleaving of m x-steps and n y-steps is equally likely; the probability of staying
     strictly inside the band is carried along the path in floating point, so nothing overflows.
+    It depends on the sizes and the gap only, so it is remembered (characteristics share sizes).
     """
     inside = np.zeros((m + 1, n + 1))
     inside[0, 0] = 1.0
@@ -156,16 +161,17 @@ def brunner_munzel(a: np.ndarray, b: np.ndarray, alternative: str) -> BrunnerMun
         return None
     statistic = n_a * n_b * (overall_b.mean() - overall_a.mean()) / ((n_a + n_b) * np.sqrt(pooled))
     df = pooled**2 / ((n_a * var_a) ** 2 / (n_a - 1) + (n_b * var_b) ** 2 / (n_b - 1))
+    # Student t tails: P(T <= x) = stdtr(df, x), P(T >= x) = stdtr(df, -x).
     if alternative == "b-greater":
-        p = _dist.t.sf(statistic, df)
+        p = _special.stdtr(df, -statistic)
     elif alternative == "b-less":
-        p = _dist.t.cdf(statistic, df)
+        p = _special.stdtr(df, statistic)
     else:
-        p = min(1.0, 2.0 * _dist.t.sf(abs(statistic), df))
+        p = min(1.0, 2.0 * _special.stdtr(df, -abs(statistic)))
     return BrunnerMunzelResult(statistic=float(statistic), df=float(df), p_value=float(p))
 
 
-def mood_median(groups: Sequence[np.ndarray]) -> MoodMedianResult | None:
+def mood_median(groups: Sequence[np.ndarray], grid: Grid | None = None) -> MoodMedianResult | None:
     """Mood's MEDIAN test: do the groups share one median? (not Mood's test of scale)
 
     Mood (1950), Introduction to the Theory of Statistics, ch. 16: count, per group, the readings
@@ -174,11 +180,12 @@ def mood_median(groups: Sequence[np.ndarray]) -> MoodMedianResult | None:
     when k = 2. This is the test ``scipy.stats.median_test`` computes; ``scipy.stats.mood`` is a
     different test, of spread. None with fewer than two groups or when no reading lies above the
     grand median (all readings equal, or too few distinct values), where the table has an empty row.
+    ``grid``: the groups' common grid when the caller has found it already.
     """
     arrays = [np.asarray(g, dtype=float) for g in groups]
     if len(arrays) < 2 or any(g.size == 0 for g in arrays):
         return None
-    grid = find_grid(*arrays)
+    grid = find_grid(*arrays) if grid is None else grid
     counts = [grid.to_counts(g) for g in arrays]
     grand_count = float(np.median(np.concatenate(counts)))
     above = np.array([int(np.sum(c > grand_count)) for c in counts])
@@ -195,5 +202,5 @@ def mood_median(groups: Sequence[np.ndarray]) -> MoodMedianResult | None:
         grand_median=float(grid.to_readings(grand_count)),
         table=(tuple(int(v) for v in above), tuple(int(v) for v in not_above)),
         statistic=statistic,
-        p_value=float(_dist.chi2.sf(statistic, len(arrays) - 1)),
+        p_value=float(_special.chdtrc(len(arrays) - 1, statistic)),
     )

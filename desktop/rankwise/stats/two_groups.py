@@ -130,7 +130,7 @@ def compare_two(
         equivalence_ci = _shift_interval(sorted_a, sorted_b, grid, 1.0 - 2.0 * alpha, bool(tie_blocks))
         equivalent = equivalence_ci.lies_strictly_inside(-margin, margin)
 
-    companions = _companions(values_a, values_b, alternative)
+    companions = _companions(values_a, values_b, alternative, grid)
     prob_b_greater = u_b / (n_a * n_b)
     min_parts = smallest_equal_size(alpha, alternative) if critical.u is None else None
     warnings = _warnings(
@@ -359,14 +359,15 @@ def _extreme_split_probability(n_a: int, n_b: int) -> float:
     return 1.0 / comb(n_a + n_b, n_a)
 
 
-def _companions(values_a: np.ndarray, values_b: np.ndarray, alternative: str):
-    """Same-shape check, Brunner-Munzel and Mood's median test (skipped for huge data)."""
+def _companions(values_a: np.ndarray, values_b: np.ndarray, alternative: str, grid: Grid):
+    """Same-shape check, Brunner-Munzel and Mood's median test (skipped for huge data); ``grid`` is
+    the readings' common grid."""
     if values_a.size + values_b.size > COMPANION_LIMIT:
         return None, None, None
     return (
-        shape.check_shape(values_a, values_b),
+        shape.check_shape(values_a, values_b, grid),
         shape.brunner_munzel(values_a, values_b, alternative),
-        shape.mood_median([values_a, values_b]),
+        shape.mood_median([values_a, values_b], grid),
     )
 
 
