@@ -166,6 +166,15 @@ def test_refusals_say_why(columns, message):
         compare_characteristics(columns)
 
 
+def test_of_several_refusals_the_first_in_the_given_order_is_named():
+    """Characteristics are compared two at a time; the refusal reported is still the first in order."""
+    columns = gauge_columns(count=5)
+    columns[2] = ("depth", [np.nan], [3.0, 4.0])
+    columns[4] = ("flatness", [1.0, 2.0], [])
+    with pytest.raises(ValueError, match="^depth: "):
+        compare_characteristics(columns)
+
+
 def test_unknown_adjustment_is_refused():
     with pytest.raises(ValueError, match="adjust"):
         compare_characteristics(gauge_columns(), adjust="bonferroni")

@@ -107,7 +107,7 @@ _SECONDS_PER_BLOCK_STATE = 2.5e-7
 _SECONDS_PER_BLOCK = 4e-5
 _SECONDS_PER_TABLE_CELL = 8e-10
 _SECONDS_PER_READING = 1e-5
-_SECONDS_PER_COUNT = 6e-4
+SECONDS_PER_COUNT = 6e-4
 """Measured costs on the development machine (tests/benchmarks/bench_two_groups.py): a cell of the
 no-ties series per step, a (readings, sum) pair made in the count by tie blocks, one tie block, a
 unit of the reading-by-reading table work (n_small^2 n_large N of them; measured 6e-10 to 1.2e-9 s
@@ -121,7 +121,7 @@ def exact_count_seconds(block_sizes: np.ndarray | None, n_tracked: int, n_total:
     ``block_sizes``: how many readings share each distinct value, in ascending order of value
     (None when no two readings tie); ``n_tracked``: the smaller group's size; ``n_total``: N.
     """
-    return min(_costs(block_sizes, n_tracked, n_total).values()) + _SECONDS_PER_COUNT
+    return min(_costs(block_sizes, n_tracked, n_total).values()) + SECONDS_PER_COUNT
 
 
 def block_sizes_of(doubled_ranks: np.ndarray) -> np.ndarray | None:

@@ -20,7 +20,7 @@ from scipy import special as _special
 from scipy import stats as _dist
 
 from rankwise.stats.grid import Grid, find_grid
-from rankwise.stats.ranks import midranks
+from rankwise.stats.ranks import midranks, midranks_on_grid
 from rankwise.stats.results import BrunnerMunzelResult, MoodMedianResult, ShapeCheck
 
 SHAPE_MIN_READINGS = 5
@@ -133,7 +133,7 @@ def _lattice_exceedance(m: int, n: int, gap: int) -> float:
     return float(min(1.0, max(0.0, 1.0 - inside[m, n])))
 
 
-def brunner_munzel(a: np.ndarray, b: np.ndarray, alternative: str) -> BrunnerMunzelResult | None:
+def brunner_munzel(a: np.ndarray, b: np.ndarray, alternative: str, grid: Grid | None = None) -> BrunnerMunzelResult | None:
     """Brunner-Munzel test of P(B > A) + 1/2 P(B = A) = 1/2, tolerating unequal spreads.
 
     Brunner & Munzel (2000), Biometrical Journal 42, 17-25, in the form of Neubert & Brunner
@@ -141,7 +141,8 @@ def brunner_munzel(a: np.ndarray, b: np.ndarray, alternative: str) -> BrunnerMun
     within-group mid-ranks, Student t with Satterthwaite degrees of freedom. The statistic is
     positive when B tends to read higher; ``alternative`` is "two-sided", "b-greater" (B tends to
     read higher) or "b-less". None when a group has fewer than 2 readings or when the rank
-    variance is zero (for example, all readings equal), where the test is not defined.
+    variance is zero (for example, all readings equal), where the test is not defined. ``grid``:
+    the readings' common grid when the caller has found it already.
     """
     if alternative not in ("two-sided", "b-greater", "b-less"):
         raise ValueError(f"alternative must be 'two-sided', 'b-greater' or 'b-less'; got {alternative!r}.")
@@ -150,10 +151,12 @@ def brunner_munzel(a: np.ndarray, b: np.ndarray, alternative: str) -> BrunnerMun
     n_a, n_b = a.size, b.size
     if n_a < 2 or n_b < 2:
         return None
-    overall = midranks(np.concatenate([a, b]))
+    grid = find_grid(a, b) if grid is None else grid
+    counts_a, counts_b = grid.to_counts(a), grid.to_counts(b)
+    overall = midranks_on_grid(np.concatenate([counts_a, counts_b]))
     overall_a, overall_b = overall[:n_a], overall[n_a:]
-    placement_a = overall_a - midranks(a)
-    placement_b = overall_b - midranks(b)
+    placement_a = overall_a - midranks_on_grid(counts_a)
+    placement_b = overall_b - midranks_on_grid(counts_b)
     var_a = float(np.sum((placement_a - placement_a.mean()) ** 2) / (n_a - 1))
     var_b = float(np.sum((placement_b - placement_b.mean()) ** 2) / (n_b - 1))
     pooled = n_a * var_a + n_b * var_b

@@ -20,7 +20,7 @@ from dataclasses import dataclass
 
 import numpy as np
 
-from rankwise.stats.exact_ranksum import block_sizes_of, exact_count_seconds, rank_sum_distribution
+from rankwise.stats.exact_ranksum import SECONDS_PER_COUNT, block_sizes_of, exact_count_seconds, rank_sum_distribution
 from rankwise.stats.ranks import rank_groups
 
 INVERSION_SECONDS = 0.3
@@ -74,6 +74,8 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     tried[1::2] = 2 * differences
     tried[2:-1:2] = differences[:-1] + differences[1:]
     tried[0], tried[-1] = 2 * differences[0] - 1, 2 * differences[-1] + 1
+    if tried.size * SECONDS_PER_COUNT > INVERSION_SECONDS:  # too many tries whatever each costs
+        return None
     one_count = exact_count_seconds(block_sizes_of(_doubled_ranks(a, b, 0)[0]), min(a.size, b.size), a.size + b.size)
     if tried.size * one_count > INVERSION_SECONDS:
         return None

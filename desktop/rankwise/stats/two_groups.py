@@ -366,7 +366,7 @@ def _companions(values_a: np.ndarray, values_b: np.ndarray, alternative: str, gr
         return None, None, None
     return (
         shape.check_shape(values_a, values_b, grid),
-        shape.brunner_munzel(values_a, values_b, alternative),
+        shape.brunner_munzel(values_a, values_b, alternative, grid),
         shape.mood_median([values_a, values_b], grid),
     )
 
