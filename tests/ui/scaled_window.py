@@ -1,6 +1,6 @@
 """Run in a child process with QT_SCALE_FACTOR=2 on a 2048 x 1400 offscreen screen: open the demo,
-check the window (``layout_checks``), the open dialog and the print preview fit the screen, save
-screenshots, and print what was found as JSON."""
+check the window (``layout_checks``) and the open dialog fit the screen, save screenshots, and print
+what was found as JSON. The print preview at this scale is checked by ``test_print_preview_fit.py``."""
 
 from __future__ import annotations
 
