@@ -250,7 +250,7 @@ def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Moni
         prefix.append(prefix[-1] + rank)
     widths = _row_strides(np.asarray(prefix, dtype=np.int64), n_tracked)
     top_sum = prefix[n_total] - prefix[n_total - n_tracked]
-    cells = n_tracked * int(widths.max(initial=1)) + top_sum + 1
+    cells = 2 * (n_tracked * int(widths.max(initial=1)) + top_sum + 1)  # the table and the next one
     if cells > MAX_TABLE_CELLS or _log_choose_exact(n_total, n_tracked) > _LOG_LARGEST_COUNT:
         raise ValueError(_too_big(n_total))
     stride = 1
@@ -262,6 +262,7 @@ def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Moni
         first, last = max(1, n_tracked - (n_total - i - 1)), min(i + 1, n_tracked)
         if widths[i] > stride:
             wider = int(widths[i:i + max(8, i // 2)].max())
+            spare = None  # freed before the wider table is made
             table = _restride(table, stride, wider, prefix, i, first - 1, min(last, i), n_tracked * wider + top_sum + 1)
             spare = np.zeros(table.size)
             spare[0] = table[0]  # row 0 (no tracked reading yet) is never written again
