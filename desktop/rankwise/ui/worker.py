@@ -4,6 +4,8 @@ Only signals cross threads. The window hands an ``Analysis`` to ``AnalysisRunner
 edit; ~150 ms after the last edit the runner starts ``rankwise.stats.service.run`` on a thread pool
 with a ``Monitor`` whose ``cancelled`` reads a flag. A newer request cancels the running job; a
 result that arrives for an older request is discarded, so the screen always shows the latest entry.
+``run_aside`` runs other long work (reading a large file) on a thread of its own while the caller
+waits with the window still answering.
 """
 
 from __future__ import annotations
