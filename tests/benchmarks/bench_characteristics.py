@@ -5,8 +5,7 @@ Run:  .venv/bin/python tests/benchmarks/bench_characteristics.py [--count 200]
 200 characteristics x (50 + 50) gauge readings (invented: normal draws rounded to the gauge's
 resolution, every fifth characteristic moved, existing only for timing). Prints one table: our
 comparison (exact p given the ties, as "auto" chooses at 50 + 50, and with the normal
-approximation; it compares two characteristics at a time), 200 separate ``compare_two`` calls one
-after the other, and scipy.stats.mannwhitneyu on each column
+approximation), 200 separate ``compare_two`` calls, and scipy.stats.mannwhitneyu on each column
 (p only, no shift, no interval, no shape check), with the ratio to the separate calls and the
 target of 2 s.
 """

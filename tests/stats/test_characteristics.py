@@ -167,7 +167,7 @@ def test_refusals_say_why(columns, message):
 
 
 def test_of_several_refusals_the_first_in_the_given_order_is_named():
-    """Characteristics are compared two at a time; the refusal reported is still the first in order."""
+    """The refusal reported is the first in the order given, naming its characteristic."""
     columns = gauge_columns(count=5)
     columns[2] = ("depth", [np.nan], [3.0, 4.0])
     columns[4] = ("flatness", [1.0, 2.0], [])

@@ -12,14 +12,13 @@ or none when asked. The adjustment used is always stated in the result.
 from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
-from concurrent.futures import ThreadPoolExecutor
 
 import numpy as np
 
 from rankwise.stats.analysis import ALTERNATIVES, METHODS
 from rankwise.stats.inputs import check_choice, check_level
 from rankwise.stats.progress import SILENT, Monitor
-from rankwise.stats.results import CharacteristicRow, CharacteristicsResult, TwoGroupResult
+from rankwise.stats.results import CharacteristicRow, CharacteristicsResult
 from rankwise.stats.several import checked_p_values, holm_adjust
 from rankwise.stats.two_groups import compare_two
 
@@ -35,10 +34,6 @@ ADJUSTMENT_METHODS = {
 
 _P_TOLERANCE = 1e-12
 """Adjusted p within this of alpha counts as equal (as for a single comparison)."""
-
-WORKERS = 2
-"""Characteristics compared at the same time: the development machine has 2 cores, and the exact
-counts' array updates run outside Python's interpreter lock."""
 
 
 def compare_characteristics(
@@ -81,23 +76,18 @@ def compare_characteristics(
     if twice:
         raise ValueError(f"Each characteristic needs its own name; {', '.join(twice)} appears more than once.")
     margin_of = _margins_by_name(names, margins)
-
-    def compare(name: str, a_values, b_values, each: Monitor) -> TwoGroupResult:
-        each.step(0.0)  # nothing starts after a stop request
+    results = []
+    for index, (name, a_values, b_values) in enumerate(characteristics):
+        monitor.step(index / len(names))
         try:
-            return compare_two(
+            result = compare_two(
                 a_values, b_values, alternative=alternative, alpha=alpha, confidence=confidence,
-                method=method, margin=margin_of[str(name)], name_a=name_a, name_b=name_b, monitor=each,
+                method=method, margin=margin_of[str(name)], name_a=name_a, name_b=name_b,
+                monitor=_share_of(monitor, index, len(names)),
             )
         except ValueError as error:
             raise ValueError(f"{name}: {error}") from error
-
-    monitor.step(0.0)
-    if len(names) == 1:
-        (name, a_values, b_values), = characteristics
-        results = [compare(name, a_values, b_values, monitor)]
-    else:
-        results = _side_by_side(compare, characteristics, monitor)
+        results.append(result)
     monitor.step(1.0)
     adjusted = adjust_p_values([result.p_value for result in results], adjust)
     rows = tuple(
@@ -153,27 +143,12 @@ def _margins_by_name(names: list[str], margins) -> dict[str, float | None]:
     return dict(zip(names, margins))
 
 
-def _side_by_side(compare, characteristics, monitor: Monitor) -> list[TwoGroupResult]:
-    """``compare`` on every characteristic, ``WORKERS`` at a time, results in the order given.
-
-    Progress is reported as characteristics finish, in order; a stop request reaches the running
-    comparisons through their own monitors (which only listen for it) and drops those not started.
-    The first refusal in the given order is the one raised.
-    """
-    listen = Monitor(cancelled=monitor.cancelled)
-    count = len(characteristics)
-    with ThreadPoolExecutor(max_workers=WORKERS) as pool:
-        futures = [pool.submit(compare, name, a_values, b_values, listen) for name, a_values, b_values in characteristics]
-        try:
-            results = []
-            for index, future in enumerate(futures):
-                results.append(future.result())
-                monitor.step((index + 1) / count)
-        except BaseException:
-            for future in futures:
-                future.cancel()
-            raise
-    return results
+def _share_of(monitor: Monitor, index: int, count: int) -> Monitor:
+    """A monitor for characteristic ``index`` of ``count``: its progress as a share of the whole."""
+    if monitor.progress is None:
+        return monitor
+    report = monitor.progress
+    return Monitor(progress=lambda fraction: report((index + fraction) / count), cancelled=monitor.cancelled)
 
 
 def _warnings(count: int, adjust: str, alpha: float) -> tuple[str, ...]:
