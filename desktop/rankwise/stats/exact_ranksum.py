@@ -105,7 +105,7 @@ def no_ties_distribution(n_a: int, n_b: int, monitor: Monitor = SILENT) -> RankS
 _SECONDS_PER_SERIES_CELL = 4e-9
 _SECONDS_PER_BLOCK_STATE = 2.5e-7
 _SECONDS_PER_BLOCK = 4e-5
-_SECONDS_PER_TABLE_CELL = 8e-10
+_SECONDS_PER_TABLE_CELL = 7e-10
 _SECONDS_PER_READING = 1e-5
 SECONDS_PER_COUNT = 6e-4
 """Measured costs on the development machine (tests/benchmarks/bench_two_groups.py): a cell of the
