@@ -97,3 +97,18 @@ def test_screen_workbook_and_page_show_the_same_counts(qtbot, window, answers, m
     for note in NOTES:
         assert page.count(note) == 1, note
     assert not WORDS_FOR_TEXT_AS_BLANK.search(page)
+
+
+def test_the_first_edit_after_opening_shows_the_counts_as_they_are_now(qtbot, window):
+    """The status line's note about the opened file ("34 readings in 2 groups") hides the counts
+    beneath it; typing a reading clears it, so the line never shows counts the sheet no longer has."""
+    from window_support import PATIENCE_MS, type_column
+
+    window.open_demo()
+    wait_for_verdict(qtbot, window)
+    status = window.statusBar()
+    assert status.currentMessage().startswith("Opened two_wheels_roughness.csv: 34 readings in 2 groups")
+    assert not window.status_counts.isVisible()
+    type_column(qtbot, window.grid, 2, ["3,1"])
+    qtbot.waitUntil(lambda: "3: 1 reading" in window.status_counts.text(), timeout=PATIENCE_MS)
+    assert status.currentMessage() == "" and window.status_counts.isVisible()

@@ -85,6 +85,10 @@ class FileOpening(QObject):
 class WindowFiles:
     """Mixin of ``MainWindow``: files in and out, asking before unsaved readings are replaced."""
 
+    opening_message = ""
+    """What the status line said about the file just opened; the first edit clears it, so the
+    counts beneath it show the readings as they are now."""
+
     def _may_replace_sheet(self) -> bool:
         """True when the current entry may be replaced (saved, empty, or the user agreed)."""
         if not self.has_unsaved_readings():
@@ -199,6 +203,7 @@ class WindowFiles:
             reason = (suggestion_reason(question.value, len(reading_set.groups), reading_set.found)
                       if question is natural else CHOSEN_WHEN_OPENING)
             message += " " + question_suggested(self.question_panel.option.text, reason)
+        self.opening_message = message
         self.statusBar().showMessage(message, 30000)
 
     def open_demo(self) -> bool:

@@ -32,6 +32,8 @@ class WindowSheet:
         # The sheet sends its notices while an edit is under way (its undo history and saved state
         # are updated after them), so the window refreshes once the edit has finished. The recovery
         # keeper follows the sheet's notices itself: each edit reaches the recovery file at once.
+        if self.opening_message and self.statusBar().currentMessage() == self.opening_message:
+            self.statusBar().clearMessage()  # its counts describe the file as opened, not as edited
         self._edit_timer.start()
 
     def _refresh_after_edit(self, immediately: bool) -> None:
