@@ -86,8 +86,9 @@ def drawn_in_scene(chart) -> tuple[np.ndarray, list[QRectF]]:
                 value = part.value()
                 ends = ([value, value], [bottom, top]) if round(part.angle) % 180 == 90 else ([left, right], [value, value])
                 points.append(_along(_scene_points(view, *ends)))
-                if part.label.isVisible() and part.label.toPlainText():
-                    boxes.append(part.label.sceneBoundingRect())
+                label = getattr(part, "label", None)  # a line written about beside the plot has none
+                if label is not None and label.isVisible() and label.toPlainText():
+                    boxes.append(label.sceneBoundingRect())
     return np.vstack(points), boxes
 
 

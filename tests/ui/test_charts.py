@@ -171,8 +171,12 @@ def test_dot_plot_shows_every_reading_the_medians_the_pairs_and_the_limits(chart
     _, median_y = chart._medians.getData()
     assert list(median_y) == [result.summary_a.median] * 2 + [result.summary_b.median] * 2
     assert len(chart._pair_lines.getData()[0]) == 2 * len(BEFORE)
-    labels = {key: line.label.toPlainText() for key, line in chart._lines.items() if line.isVisible()}
-    assert labels == {"lsl": "LSL 11.5", "usl": "USL 14.5", "nominal": "nominal 13.0"}
+    assert chart.limit_labels() == {"lsl": "LSL 11.5", "usl": "USL 14.5", "nominal": "nominal 13.0"}
+    assert {key for key, line in chart._lines.items() if line.isVisible()} == {"lsl", "usl", "nominal"}
+    right = chart.plot_item.getAxis("right")
+    assert right.isVisible() and sorted(text for _, text in right._tickLevels[0]) == sorted(chart.limit_labels().values())
+    # written beside the plot, not over it, so no dot can cover a limit's value
+    assert right.sceneBoundingRect().left() >= chart.plot_item.getViewBox().sceneBoundingRect().right() - 1
     chart.clear()
     assert chart.note() and all(len(dots.getData()[0]) == 0 for dots in chart._dots)
 
@@ -253,7 +257,7 @@ def test_dot_plot_of_two_groups_shows_both_groups_at_the_gauge_resolution(chart)
     chart.show_result(compare_two(a, b, name_a="Wheel A", name_b="Wheel B"), analysis)
     save(chart, "dots-two-groups")
     assert [len(chart._dots[i].getData()[0]) for i in range(2)] == [8, 7]
-    assert chart._lines["lsl"].label.toPlainText() == "LSL 0.60"
+    assert chart.limit_labels()["lsl"] == "LSL 0.60"
     assert chart.tick_labels() == ["1 Wheel A", "2 Wheel B"]
 
 

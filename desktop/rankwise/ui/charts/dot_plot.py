@@ -33,7 +33,7 @@ shows them when that is done."""
 TOOLTIP = (
     "Each dot is one reading; equal readings sit side by side so that every reading shows. "
     "The heavy bar across a group is its median. Dashed lines are the specification limits "
-    "(LSL, USL), the dotted line the nominal value."
+    "(LSL, USL), the dotted line the nominal value; their values stand on the right-hand edge."
 )
 
 
@@ -111,6 +111,11 @@ class ReadingsDotPlot(ChartFrame):
             "usl": self._reference_line(style.limit_pen()),
             "nominal": self._reference_line(style.nominal_pen()),
         }
+        self._limit_labels: dict[str, str] = {}
+        limits_axis = self.plot_item.getAxis("right")
+        limits_axis.setPen(pg.mkPen(style.INK))
+        limits_axis.setTextPen(pg.mkPen(style.INK))
+        limits_axis.setTickFont(style.chart_font(10.0))
         self.view: ReadingsView | None = None
         self._asked = 0
         """Counts the results asked for, so that dots placed meanwhile on a thread are drawn only if still wanted."""
@@ -118,14 +123,16 @@ class ReadingsDotPlot(ChartFrame):
         self.clear()
 
     def _reference_line(self, pen) -> pg.InfiniteLine:
-        """A horizontal labelled line, created once and moved as limits change."""
-        line = pg.InfiniteLine(angle=0, movable=False, pen=pen,
-                               label="", labelOpts={"position": 0.02, "color": style.INK,
-                                                    "anchors": [(0, 1), (0, 1)],
-                                                    "fill": pg.mkBrush(255, 255, 255, 200)})
+        """A horizontal line, created once and moved as limits change; its name and value are
+        written beside the plot, on the right-hand axis, where no dot can cover them."""
+        line = pg.InfiniteLine(angle=0, movable=False, pen=pen)
         line.setZValue(5)
         self.plot_item.addItem(line, ignoreBounds=True)
         return line
+
+    def limit_labels(self) -> dict[str, str]:
+        """The labels of the limit lines shown ("LSL 11,5"), by "lsl", "usl" and "nominal"."""
+        return dict(self._limit_labels)
 
     def _dots_for(self, index: int) -> pg.ScatterPlotItem:
         """The scatter item of group ``index`` (made the first time a group needs it)."""
@@ -152,6 +159,8 @@ class ReadingsDotPlot(ChartFrame):
         self._pair_lines.setData([], [])
         for line in self._lines.values():
             line.setVisible(False)
+        self._limit_labels = {}
+        self.plot_item.hideAxis("right")
         self.plot_item.getAxis("bottom").setTicks(None)
         self._label_axes(bottom="Group", left="Reading")
         self.idle()
@@ -242,12 +251,20 @@ class ReadingsDotPlot(ChartFrame):
 
     def _draw_limits(self, view: ReadingsView) -> None:
         """Place and label the LSL, USL and nominal lines that are set; hide the others."""
+        ticks = []
+        self._limit_labels = {}
         for key, title in (("lsl", "LSL"), ("usl", "USL"), ("nominal", "nominal")):
             line, value = self._lines[key], getattr(view, key)
             line.setVisible(value is not None)
             if value is not None:
                 line.setValue(value)
-                line.label.setFormat(f"{title} {view.format(value)}")
+                self._limit_labels[key] = f"{title} {view.format(value)}"
+                ticks.append((value, self._limit_labels[key]))
+        if ticks:
+            self.plot_item.showAxis("right")
+            self.plot_item.getAxis("right").setTicks([ticks, []])
+        else:
+            self.plot_item.hideAxis("right")
 
     def _fit_range(self, view: ReadingsView, dots: _Dots) -> None:
         """Show every reading and every limit that is set, with a margin."""
