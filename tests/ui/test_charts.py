@@ -176,7 +176,7 @@ def test_dot_plot_shows_every_reading_the_medians_the_pairs_and_the_limits(chart
     right = chart.plot_item.getAxis("right")
     assert right.isVisible() and sorted(text for _, text in right._tickLevels[0]) == sorted(chart.limit_labels().values())
     # written beside the plot, not over it, so no dot can cover a limit's value
-    assert right.sceneBoundingRect().left() >= chart.plot_item.getViewBox().sceneBoundingRect().right() - 1
+    assert right.geometry().left() >= chart.plot_item.getViewBox().geometry().right() - 1
     chart.clear()
     assert chart.note() and all(len(dots.getData()[0]) == 0 for dots in chart._dots)
 
