@@ -7,16 +7,18 @@ from openpyxl import load_workbook
 
 from rankwise.readings import open_characteristics
 from rankwise.records import read_record, verify_record, write_record
-from rankwise.records.canonical import encode
+import rankwise.records.record as record_module
+from rankwise.records.canonical import canonical_bytes, encode, sha256_hex
 from rankwise.records.characteristics_sheets import DETAILS_TITLE, SUMMARY_TITLE
 from rankwise.records.readings_sheet import FIRST_ENTRY_ROW
 from rankwise.records.readings_sheet import SHEET_TITLE as READINGS_TITLE
 from rankwise.records.record import ResultRecord
+from rankwise.records.workbook import CHUNK, PROGRAM_SHEET, load_workbook_safely, read_program_data
 from rankwise.stats import CharacteristicsResult, Question, Settings, compare_two, run
 from rankwise.stats.results import Result
 from rankwise.wording import CAUTION_SHORT
 
-from record_builders import signoff
+from record_builders import paired_record, signoff
 from test_record_verify import edited_copy
 
 DEMO = Path(__file__).resolve().parents[2] / "demo_files" / "housing_two_dies.csv"
@@ -98,3 +100,55 @@ def test_the_adjustment_is_stored_and_stated(tmp_path):
     assert back.analysis.settings.adjust == "fdr" and back.result.adjust == "fdr"
     summary = [str(c.value) for row in load_workbook(path)[SUMMARY_TITLE].iter_rows() for c in row if c.value]
     assert any("Benjamini-Hochberg (1995)" in text for text in summary)
+
+
+def stored_rows(path):
+    data, _ = read_program_data(load_workbook_safely(path))
+    return data, data["result"]["fields"]["rows"]
+
+
+def test_the_stored_data_hold_no_null_distributions_yet_read_back_as_the_live_result(written):
+    path, record = written
+    data, rows = stored_rows(path)
+    assert data["record_format"] == 2 and len(rows) == len(CHOSEN)
+    assert all("null_distribution" not in row["result"] for row in rows)
+    back = read_record(path)
+    assert back.result == record.result
+    assert all(row.result.null_distribution is not None for row in back.result.rows)
+
+
+def test_a_single_question_record_still_stores_its_null_distribution_in_form_1(tmp_path):
+    path = tmp_path / "paired.xlsx"
+    write_record(path, paired_record())
+    data, _ = read_program_data(load_workbook_safely(path))
+    assert data["record_format"] == 1 and data["result"]["fields"]["null_distribution"] is not None
+
+
+def test_a_record_written_with_its_null_distributions_stored_still_reads_and_verifies(tmp_path, monkeypatch):
+    record = housing_record()
+    path = tmp_path / "form1.xlsx"
+    with monkeypatch.context() as patch:
+        patch.setattr(record_module, "stored_format", lambda record: 1)
+        write_record(path, record)
+    data, rows = stored_rows(path)
+    assert data["record_format"] == 1 and all(row["result"]["null_distribution"] for row in rows)
+    assert read_record(path).result == record.result
+    verification = verify_record(path)
+    assert verification.status == "intact", verification.differences
+
+
+def test_a_stored_rank_edited_with_the_fingerprint_made_to_match_is_found(written, tmp_path):
+    def edit(book):
+        sheet = book[PROGRAM_SHEET]
+        data, _ = read_program_data(book)
+        ranks = data["result"]["fields"]["rows"][0]["result"]["ranks_a"]
+        ranks[0], ranks[1] = ranks[1] + 1.0, ranks[0]
+        text = canonical_bytes(data).decode("utf-8")
+        parts = [text[start:start + CHUNK] for start in range(0, len(text), CHUNK)]
+        sheet["A2"].value, sheet["A3"].value = sha256_hex(data), len(parts)
+        for row, part in enumerate(parts, start=4):
+            sheet.cell(row=row, column=1).value = part
+
+    verification = verify_record(edited_copy(written[0], tmp_path, edit))
+    assert verification.status == "changed"
+    assert any("no longer follows from the readings" in difference for difference in verification.differences)

@@ -14,13 +14,28 @@ import scipy
 import rankwise
 from rankwise.readings import ReadingsError, SheetSnapshot
 from rankwise.records.canonical import decode, encode
+from rankwise.records.characteristics_nulls import (
+    with_null_distributions,
+    with_null_placeholders,
+    without_null_distributions,
+)
 from rankwise.records.errors import RecordError
 from rankwise.records.signoff import SignOff
 from rankwise.stats.analysis import Analysis
-from rankwise.stats.results import Result
+from rankwise.stats.results import CharacteristicsResult, Result
 
-RECORD_FORMAT = 1
-"""Version of the stored form; raised when the meaning of the stored data changes."""
+RECORD_FORMAT = 2
+"""Newest version of the stored form; raised when the meaning of the stored data changes.
+2: a many-characteristics record leaves out each characteristic's null distribution, rebuilt from
+the stored ranks when read (``characteristics_nulls``). Records of a single question are the same
+in forms 1 and 2, so they are still written as form 1; both forms are read."""
+
+KNOWN_FORMATS = (1, 2)
+
+
+def stored_format(record: ResultRecord) -> int:
+    """The form ``record`` is written in: 2 for a many-characteristics record, 1 for any other."""
+    return 2 if isinstance(record.result, CharacteristicsResult) else 1
 
 
 def current_library_versions() -> tuple[tuple[str, str], ...]:
@@ -74,13 +89,16 @@ class ResultRecord:
         return self.signoff is not None
 
 
-def record_to_data(record: ResultRecord) -> dict[str, Any]:
-    """The record as plain JSON data: the stored form that the fingerprint covers."""
+def record_to_data(record: ResultRecord, record_format: int | None = None) -> dict[str, Any]:
+    """The record as plain JSON data: the stored form that the fingerprint covers, in the form it is
+    written in (or in ``record_format``, to compare with a record read back from an older form)."""
+    record_format = stored_format(record) if record_format is None else record_format
+    result = encode(record.result, Result)
     return {
-        "record_format": RECORD_FORMAT,
+        "record_format": record_format,
         "analysis": encode(record.analysis, Analysis),
         "snapshot": record.snapshot.to_dict(),
-        "result": encode(record.result, Result),
+        "result": without_null_distributions(result) if record_format >= 2 else result,
         "signoff": encode(record.signoff, SignOff | None),
         "program_version": record.program_version,
         "library_versions": [list(pair) for pair in record.library_versions],
@@ -90,7 +108,7 @@ def record_to_data(record: ResultRecord) -> dict[str, Any]:
 
 def record_from_data(data: Any) -> ResultRecord:
     """The record from its stored form; ``RecordError`` when it is damaged or from a later format."""
-    if not isinstance(data, dict) or data.get("record_format") != RECORD_FORMAT:
+    if not isinstance(data, dict) or data.get("record_format") not in KNOWN_FORMATS:
         raise RecordError(
             "The record's program data are in a form this version of Rankwise does not know; "
             "open it with the version that wrote it."
@@ -104,12 +122,25 @@ def record_from_data(data: Any) -> ResultRecord:
     return ResultRecord(
         analysis=decode(with_later_fields(data.get("analysis")), Analysis),
         snapshot=snapshot,
-        result=decode(data.get("result"), Result),
+        result=_stored_result(data),
         signoff=decode(data.get("signoff"), SignOff | None),
         program_version=decode(program_version, str),
         library_versions=versions,
         created_at=decode(data.get("created_at"), datetime),
     )
+
+
+def _stored_result(data: dict[str, Any]) -> Result:
+    """The stored result; in form 2 with the characteristics' null distributions rebuilt."""
+    if data["record_format"] < 2:
+        return decode(data.get("result"), Result)
+    result = decode(with_null_placeholders(data.get("result")), Result)
+    if not isinstance(result, CharacteristicsResult):
+        return result
+    try:
+        return with_null_distributions(result)
+    except (ValueError, TypeError, IndexError) as error:
+        raise RecordError("The ranks stored in the record are damaged: the results cannot be read back.") from error
 
 
 _LATER_ANALYSIS_FIELDS = {"decimal_mark": ".", "characteristics": [], "entries": []}

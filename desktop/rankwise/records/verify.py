@@ -102,7 +102,7 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
     as_read = {key: value for key, value in data.items() if key != VISIBLE_SHEETS_KEY}
     as_read["analysis"] = with_later_fields(data.get("analysis"))
     as_read["result"] = with_defaults(data.get("result"), Result)
-    if canonical_bytes(record_to_data(record)) != canonical_bytes(as_read):
+    if canonical_bytes(record_to_data(record, data["record_format"])) != canonical_bytes(as_read):
         differences.append("The program data hold entries that do not belong to a record.")
 
     notes: list[str] = []
