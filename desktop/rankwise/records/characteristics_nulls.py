@@ -14,10 +14,21 @@ from typing import Any
 
 import numpy as np
 
+from rankwise.records.canonical import encode
 from rankwise.stats.exact_ranksum import rank_sum_distribution
-from rankwise.stats.results import CharacteristicsResult, NullDistribution, TwoGroupResult
+from rankwise.stats.results import CharacteristicsResult, NullDistribution, Result, TwoGroupResult
 
 _FIELD = "null_distribution"
+
+
+def encoded_without_null_distributions(result: Result) -> Any:
+    """``encode(result, Result)`` with each characteristic's null distribution left out, never
+    encoded in the first place (encoding thousands of numbers per characteristic took seconds)."""
+    if not isinstance(result, CharacteristicsResult):
+        return encode(result, Result)
+    rows = tuple(dataclasses.replace(row, result=dataclasses.replace(row.result, null_distribution=None))
+                 for row in result.rows)
+    return without_null_distributions(encode(dataclasses.replace(result, rows=rows), Result))
 
 
 def without_null_distributions(result_data: Any) -> Any:

@@ -15,9 +15,9 @@ import rankwise
 from rankwise.readings import ReadingsError, SheetSnapshot
 from rankwise.records.canonical import decode, encode
 from rankwise.records.characteristics_nulls import (
+    encoded_without_null_distributions,
     with_null_distributions,
     with_null_placeholders,
-    without_null_distributions,
 )
 from rankwise.records.errors import RecordError
 from rankwise.records.signoff import SignOff
@@ -93,12 +93,12 @@ def record_to_data(record: ResultRecord, record_format: int | None = None) -> di
     """The record as plain JSON data: the stored form that the fingerprint covers, in the form it is
     written in (or in ``record_format``, to compare with a record read back from an older form)."""
     record_format = stored_format(record) if record_format is None else record_format
-    result = encode(record.result, Result)
     return {
         "record_format": record_format,
         "analysis": encode(record.analysis, Analysis),
         "snapshot": record.snapshot.to_dict(),
-        "result": without_null_distributions(result) if record_format >= 2 else result,
+        "result": (encoded_without_null_distributions(record.result) if record_format >= 2
+                   else encode(record.result, Result)),
         "signoff": encode(record.signoff, SignOff | None),
         "program_version": record.program_version,
         "library_versions": [list(pair) for pair in record.library_versions],

@@ -13,6 +13,7 @@ import rankwise
 from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.records.canonical import canonical_bytes, encode, sha256_hex, with_defaults
 from rankwise.records.characteristics_check import characteristics_readings_differences
+from rankwise.records.characteristics_nulls import encoded_without_null_distributions
 from rankwise.records.compare import data_differences
 from rankwise.records.errors import RecordError
 from rankwise.records.record import (
@@ -107,7 +108,7 @@ def verify_record(path: str | os.PathLike[str]) -> Verification:
 
     notes: list[str] = []
     differences.extend(_readings_differences(record))
-    recomputed = _recomputation_differences(record)
+    recomputed = _recomputation_differences(record, data["record_format"])
     if recomputed and _same_software(record):
         differences.extend(recomputed)
     elif recomputed:
@@ -194,14 +195,20 @@ def _readings_differences(record: ResultRecord) -> list[str]:
             for difference in data_differences(encode(analysis.groups, hint), encode(rebuilt.groups, hint))]
 
 
-def _recomputation_differences(record: ResultRecord) -> list[str]:
-    """Figures of the stored result that a fresh computation from the stored analysis does not give."""
+def _recomputation_differences(record: ResultRecord, record_format: int) -> list[str]:
+    """Figures of the stored result that a fresh computation from the stored analysis does not give.
+    A record that stores no null distributions (form 2) is compared without them on both sides: its
+    own were rebuilt from its stored ranks, which are compared."""
     try:
         fresh = run(record.analysis)
     except (ValueError, ReadingsError) as error:
         return [f"The stored analysis can no longer be computed: {error}"]
+    if record_format >= 2:
+        stored, recomputed = encoded_without_null_distributions(record.result), encoded_without_null_distributions(fresh)
+    else:
+        stored, recomputed = encode(record.result, Result), encode(fresh, Result)
     return [f"The result no longer follows from the readings: {difference}."
-            for difference in data_differences(encode(record.result, Result), encode(fresh, Result))]
+            for difference in data_differences(stored, recomputed)]
 
 
 def _same_software(record: ResultRecord) -> bool:
