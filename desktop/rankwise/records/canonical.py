@@ -19,6 +19,7 @@ import types
 import typing
 from collections.abc import Callable
 from datetime import datetime
+from functools import lru_cache
 from typing import Any
 
 from rankwise.records.errors import RecordError
@@ -43,23 +44,17 @@ def encode(value: Any, hint: Any) -> Any:
     if arms is not None:
         return _through_union(value, arms, encode, _tagged)
     if typing.get_origin(hint) is tuple:
+        scalar = _ENCODE_SCALAR.get(_repeated_item(hint))
+        if scalar is not None:  # a long run of numbers: one conversion each, no dispatch
+            return [scalar(item) for item in value]
         return [encode(item, item_hint) for item, item_hint in zip(value, _item_hints(hint, len(value)))]
     if dataclasses.is_dataclass(hint):
-        hints = typing.get_type_hints(hint)
+        hints = _field_hints(hint)
         return {f.name: encode(getattr(value, f.name), hints[f.name]) for f in dataclasses.fields(hint)}
     if isinstance(hint, type) and issubclass(hint, enum.Enum):
         return hint(value).value
-    if hint is bool:
-        return bool(value)
-    if hint is int:
-        return int(value)
-    if hint is float:
-        number = float(value)
-        if math.isfinite(number):
-            return number
-        return "NaN" if math.isnan(number) else ("Infinity" if number > 0 else "-Infinity")
-    if hint is str:
-        return str(value)
+    if hint in _ENCODE_SCALAR:
+        return _ENCODE_SCALAR[hint](value)
     if hint is datetime:
         return value.isoformat()
     raise ValueError(f"no canonical form for {hint!r}")
@@ -82,29 +77,20 @@ def _decode(data: Any, hint: Any) -> Any:
         return _through_union(data, arms, _decode, _untagged)
     if typing.get_origin(hint) is tuple:
         _require(data, list)
+        scalar = _DECODE_SCALAR.get(_repeated_item(hint))
+        if scalar is not None:
+            return tuple(scalar(item) for item in data)
         return tuple(_decode(item, item_hint) for item, item_hint in zip(data, _item_hints(hint, len(data))))
     if dataclasses.is_dataclass(hint):
         _require(data, dict)
-        hints = typing.get_type_hints(hint)
+        hints = _field_hints(hint)
         if not _required_fields(hint) <= set(data) <= {f.name for f in dataclasses.fields(hint)}:
             raise ValueError(f"fields of {hint.__name__} do not match")
         return hint(**{name: _decode(data[name], hints[name]) for name in data})
     if isinstance(hint, type) and issubclass(hint, enum.Enum):
         return hint(data)
-    if hint is bool:
-        return _require(data, bool)
-    if hint is int:
-        if isinstance(data, bool):
-            raise TypeError("a whole number was expected")
-        return _require(data, int)
-    if hint is float:
-        if isinstance(data, str):
-            return _NON_FINITE[data]
-        if isinstance(data, bool) or not isinstance(data, (int, float)):
-            raise TypeError("a number was expected")
-        return float(data)
-    if hint is str:
-        return _require(data, str)
+    if hint in _DECODE_SCALAR:
+        return _DECODE_SCALAR[hint](data)
     if hint is datetime:
         return datetime.fromisoformat(_require(data, str))
     raise ValueError(f"no canonical form for {hint!r}")
@@ -132,7 +118,7 @@ def with_defaults(data: Any, hint: Any) -> Any:
             return data
         return [with_defaults(item, item_hint) for item, item_hint in zip(data, item_hints)]
     if dataclasses.is_dataclass(hint) and isinstance(data, dict):
-        hints = typing.get_type_hints(hint)
+        hints = _field_hints(hint)
         completed = {}
         for field in dataclasses.fields(hint):
             if field.name in data:
@@ -141,6 +127,13 @@ def with_defaults(data: Any, hint: Any) -> Any:
                 completed[field.name] = encode(field.default, hints[field.name])
         return {**data, **completed}
     return data
+
+
+@lru_cache(maxsize=None)
+def _field_hints(cls: type) -> dict[str, Any]:
+    """The annotation of each field of the dataclass ``cls``, worked out once per class (a record
+    of many characteristics asks for the same few classes hundreds of thousands of times)."""
+    return typing.get_type_hints(cls)
 
 
 def _required_fields(hint: Any) -> set[str]:
@@ -191,6 +184,42 @@ def _item_hints(hint: Any, length: int) -> list[Any]:
     if len(args) != length:
         raise ValueError(f"expected {len(args)} items, found {length}")
     return list(args)
+
+
+def _repeated_item(hint: Any) -> Any:
+    """The item annotation of ``tuple[X, ...]``, else None."""
+    args = typing.get_args(hint)
+    return args[0] if len(args) == 2 and args[1] is Ellipsis else None
+
+
+def _encode_float(value: Any) -> float | str:
+    number = float(value)
+    if math.isfinite(number):
+        return number
+    return "NaN" if math.isnan(number) else ("Infinity" if number > 0 else "-Infinity")
+
+
+def _decode_int(data: Any) -> int:
+    if isinstance(data, bool):
+        raise TypeError("a whole number was expected")
+    return _require(data, int)
+
+
+def _decode_float(data: Any) -> float:
+    if isinstance(data, str):
+        return _NON_FINITE[data]
+    if isinstance(data, bool) or not isinstance(data, (int, float)):
+        raise TypeError("a number was expected")
+    return float(data)
+
+
+_ENCODE_SCALAR: dict[Any, Callable[[Any], Any]] = {bool: bool, int: int, float: _encode_float, str: str}
+"""How a value of each plain type is written."""
+_DECODE_SCALAR: dict[Any, Callable[[Any], Any]] = {
+    bool: lambda data: _require(data, bool), int: _decode_int, float: _decode_float,
+    str: lambda data: _require(data, str),
+}
+"""How a value of each plain type is read back, refusing data of another type."""
 
 
 def _require(data: Any, kind: type) -> Any:
