@@ -9,7 +9,7 @@ import pytest
 from openpyxl import load_workbook
 from openpyxl.utils import get_column_letter
 
-from rankwise.readings import ReadingSheet, open_readings
+from rankwise.readings import ReadingSheet, open_characteristics, open_readings
 from rankwise.records import ResultRecord, write_record
 from rankwise.records.readings_sheet import FIRST_ENTRY_ROW
 from rankwise.records.sheet_cells import LINE_HEIGHT, key_number_cell
@@ -93,22 +93,27 @@ def test_long_tables_repeat_their_headings_on_every_printed_page(written):
     assert all(table.cell(row=heading_row, column=c).font.bold for c in (1, 2, 3))
 
 
+def assert_no_text_cut_off(sheet):
+    """Every text fits its cell, runs on over empty printed cells, or wraps in a row tall enough."""
+    for row in sheet.iter_rows():
+        for cell in row:
+            if not isinstance(cell.value, str):
+                continue
+            room = width_of(sheet, cell)
+            if len(cell.value) < room:
+                continue
+            where = f"{sheet.title}!{cell.coordinate} ({cell.value[:40]}...)"
+            if not cell.alignment.wrap_text:
+                assert spills_into_empty_printed_cells(sheet, cell, room), where
+                continue
+            lines = math.ceil(len(cell.value) / (room - 1))
+            assert (sheet.row_dimensions[cell.row].height or LINE_HEIGHT) >= LINE_HEIGHT * lines, where
+
+
 def test_no_text_is_cut_off_a_long_text_wraps_in_a_row_tall_enough(written):
     _, book = written
     for sheet in visible(book):
-        for row in sheet.iter_rows():
-            for cell in row:
-                if not isinstance(cell.value, str):
-                    continue
-                room = width_of(sheet, cell)
-                if len(cell.value) < room:
-                    continue
-                where = f"{sheet.title}!{cell.coordinate} ({cell.value[:40]}...)"
-                if not cell.alignment.wrap_text:
-                    assert spills_into_empty_printed_cells(sheet, cell, room), where
-                    continue
-                lines = math.ceil(len(cell.value) / (room - 1))
-                assert (sheet.row_dimensions[cell.row].height or LINE_HEIGHT) >= LINE_HEIGHT * lines, where
+        assert_no_text_cut_off(sheet)
 
 
 def test_dates_and_key_numbers_fit_their_column_instead_of_showing_hashes(written):
@@ -145,3 +150,24 @@ def test_a_key_number_written_with_either_decimal_mark_keeps_its_resolution_and_
 
 def test_a_key_number_without_a_value_is_written_as_its_text():
     assert key_number_cell(key("—", None)) == ("—", None)
+
+
+def test_a_many_characteristics_record_shows_its_dates_and_cuts_off_no_text(tmp_path):
+    """The housing demo (invented readings) compared on every characteristic: the summary's sign-off
+    dates have room in their column (they showed ### when printed), and no text is cut off."""
+    table = open_characteristics(DEMO / "housing_two_dies.csv")
+    analysis = table.to_analysis("old die", "new die", settings=Settings())
+    record = ResultRecord.now(analysis, table.snapshot("old die", "new die"), run(analysis), signoff())
+    path = tmp_path / "characteristics.xlsx"
+    write_record(path, record)
+    book = load_workbook(path)
+    dates = 0
+    for sheet in visible(book):
+        for row in sheet.iter_rows():
+            for cell in row:
+                if isinstance(cell.value, datetime):
+                    dates += 1
+                    assert width_of(sheet, cell) > DATE_TIME_CHARACTERS, f"{sheet.title}!{cell.coordinate}"
+    assert dates >= 2  # signed at, record written at
+    for sheet in visible(book):
+        assert_no_text_cut_off(sheet)
