@@ -93,7 +93,7 @@ def test_nothing_is_cut_off_at_shop_floor_and_desktop_sizes(qtbot, window, width
 
 def test_nothing_is_cut_off_at_200_percent_scaling(tmp_path):
     """At QT_SCALE_FACTOR=2 on a 2048 x 1400 screen the window fits the screen with nothing cut off, and
-    the open dialog's buttons are on screen (child process: the scale is fixed when Qt starts)."""
+    the open dialog's buttons and the many-characteristics window are on screen (child process: the scale is fixed when Qt starts)."""
     config = tmp_path / "screen.json"
     config.write_text(json.dumps(SCALED_SCREEN), encoding="utf-8")
     SCREENSHOTS.mkdir(parents=True, exist_ok=True)
@@ -105,6 +105,8 @@ def test_nothing_is_cut_off_at_200_percent_scaling(tmp_path):
     report = json.loads(finished.stdout.strip().splitlines()[-1])
     assert report["scale"] == 2.0
     assert report["window_inside_screen"] and report["dialog_inside_screen"]
+    assert report["characteristics_compared"] and report["characteristics_inside_screen"]
+    assert report["characteristics_texts_cut"] == []
     assert report["window_problems"] == []
 
 

@@ -29,6 +29,7 @@ from rankwise.records.errors import RecordError
 from rankwise.stats.analysis import Settings
 from rankwise.ui import dialogs
 from rankwise.ui.characteristics_dialog import CharacteristicsChoice, CharacteristicsDialog
+from rankwise.ui.screen_fit import fit_to_screen
 from rankwise.ui.signoff_dialog import SignOffDialog
 from rankwise.ui.worker import AnalysisRunner
 from rankwise.wording import CAUTION_SHORT, describe
@@ -71,7 +72,6 @@ class CharacteristicsWindow(QDialog):
         self.lines = ()
         self.last_record: ResultRecord | None = None
         self.setWindowTitle(f"Characteristics: {choice.group_b} against {choice.group_a} — {Path(table.path).name}")
-        self.resize(1400, 680)
         layout = QVBoxLayout(self)
         self.headline = QLabel("Comparing…")
         self.headline.setWordWrap(True)
@@ -127,13 +127,27 @@ class CharacteristicsWindow(QDialog):
         self.runner.result_ready.connect(self._show_result)
         self.runner.problem.connect(self._show_problem)
         self.runner.stopped.connect(self._stopped)
+        fit_to_screen(self, 1400, 680)  # a 1024 x 700 shop-floor screen, or 200 % scaling, shows all of it
         self.compare()
+
+    def resizeEvent(self, event) -> None:  # noqa: N802 - Qt's name
+        super().resizeEvent(event)
+        self._keep_texts_whole()
+
+    def _keep_texts_whole(self) -> None:
+        """The verdict's wrapped lines keep the height they need at the window's width; the table
+        gives up rows instead (a layout gives a wrapped label too little height on a small screen)."""
+        if not self.isVisible():  # laid out at its real width once shown (its resize comes here then)
+            return
+        for label in (self.headline, self.sentences, self.caution):
+            label.setMinimumHeight(label.heightForWidth(max(label.width(), 1)))
 
     # ----- computing --------------------------------------------------------------------------
     def compare(self) -> None:
         """Start (again) on the worker; the window stays responsive and can be stopped."""
         self.progress.setValue(0)
         self.headline.setText(f"Comparing {len(self.analysis.characteristics)} characteristics…")
+        self._keep_texts_whole()
         self._busy(True)
         self.runner.request_now(self.analysis)
 
@@ -148,10 +162,12 @@ class CharacteristicsWindow(QDialog):
 
     def _stopped(self) -> None:
         self.headline.setText("Stopped on request: nothing was compared. Compare again when ready.")
+        self._keep_texts_whole()
         self._busy(False)
 
     def _show_problem(self, message: str) -> None:
         self.headline.setText(f"The characteristics could not be compared: {message}")
+        self._keep_texts_whole()
         self._busy(False)
 
     def _show_result(self, result, analysis) -> None:
@@ -159,6 +175,7 @@ class CharacteristicsWindow(QDialog):
         verdict = describe(result, analysis)
         self.headline.setText(verdict.headline)
         self.sentences.setText("\n".join([*verdict.sentences, *verdict.assumption_notes]))
+        self._keep_texts_whole()
         self.lines = summary_lines(result, analysis)
         self.progress.setValue(1000)
         self._fill()
