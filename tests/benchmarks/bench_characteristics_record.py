@@ -15,11 +15,10 @@ import argparse
 import csv
 import os
 import tempfile
-import time
 import zipfile
 from pathlib import Path
 
-from bench_characteristics import invented_columns
+from bench_characteristics import invented_columns, timed
 
 from rankwise.readings import open_characteristics
 from rankwise.records import ResultRecord, read_record, verify_record, write_record
@@ -39,12 +38,6 @@ def invented_file(count: int, folder: Path) -> Path:
             for part in range(PER_GROUP):
                 writer.writerow([f"{process}-{part + 1}", process] + [f"{column[index][part]:.3f}" for column in columns])
     return path
-
-
-def timed(function) -> tuple[float, object]:
-    start = time.perf_counter()
-    value = function()
-    return time.perf_counter() - start, value
 
 
 def main() -> None:
