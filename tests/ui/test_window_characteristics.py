@@ -16,6 +16,7 @@ from rankwise.stats import CharacteristicsResult, Question
 from rankwise.ui.characteristics_dialog import CharacteristicsDialog
 from rankwise.ui.characteristics_window import CharacteristicsWindow
 from rankwise.ui.signoff_dialog import SignOffDialog, local_now
+from rankwise.wording.characteristics import COLUMNS
 
 HOUSING = DEMO_FILES / "housing_two_dies.csv"
 
@@ -61,6 +62,11 @@ def test_the_demo_housing_opens_as_many_characteristics(qtbot, window, answers, 
     assert outcomes["Hardness"] == "moved down" and outcomes["Bore depth"] == "moved up"
     assert outcomes["Mass"] == "no change shown"
     screenshot(summary, "characteristics-summary-as-in-file")
+    summary.resize(1000, 650)  # a 1024 x 700 screen: the outcome and the limit mark show without scrolling
+    header, width = summary.view.horizontalHeader(), summary.view.viewport().width()
+    for column in (0, COLUMNS.index("Outcome"), COLUMNS.index("Limit"), COLUMNS.index("Adjusted p")):
+        assert 0 <= header.sectionViewportPosition(column) and \
+            header.sectionViewportPosition(column) + header.sectionSize(column) <= width, COLUMNS[column]
 
     summary.sort.setCurrentIndex(1)  # by shift relative to the tolerance: bore depth moved 30 % of its width
     assert [summary.model.item(r, 0).text() for r in range(3)] == ["Bore depth", "Hardness", "Face flatness"]

@@ -58,6 +58,11 @@ def offer_characteristics(window, path: Path) -> bool | None:
     return True
 
 
+FIRST_SEEN = ("Outcome", "Limit", "Adjusted p")
+"""Columns shown right after the characteristic's name (the printed summary keeps ``COLUMNS`` order):
+on a 1024 x 700 screen the answer is seen without scrolling sideways."""
+
+
 class CharacteristicsWindow(QDialog):
     """One line per characteristic, the verdict on all of them, and the way into each one."""
 
@@ -115,6 +120,9 @@ class CharacteristicsWindow(QDialog):
         self.view.setSelectionBehavior(QTableView.SelectionBehavior.SelectRows)
         self.view.setSelectionMode(QTableView.SelectionMode.SingleSelection)
         self.view.setEditTriggers(QTableView.EditTrigger.NoEditTriggers)
+        header = self.view.horizontalHeader()
+        for place, title in enumerate(FIRST_SEEN, start=1):  # the outcome beside the name, on any screen
+            header.moveSection(header.visualIndex(COLUMNS.index(title)), place)
         self.view.activated.connect(self._open_row)
         self.view.doubleClicked.connect(self._open_row)
         layout.addWidget(self.view, 1)
