@@ -114,3 +114,29 @@ def test_a_thousand_characteristics_show_progress_and_stop(qtbot, window, answer
     qtbot.waitUntil(lambda: summary.headline.text().startswith("Stopped on request"), timeout=PATIENCE_MS)
     assert summary.result is None and summary.again_button.isEnabled() and summary.model.rowCount() == 0
     summary.close()
+
+
+def test_a_record_of_many_characteristics_is_not_shown_as_one_characteristics_verdict(qtbot, window, answers, tmp_path):
+    """Reopened in the window, a signed many-characteristics record is not turned into a two-group
+    verdict on its first characteristic beside the signature: the window says where to read it and
+    leaves the sheet as it was."""
+    from rankwise.records import write_record
+    from rankwise.records.record import ResultRecord
+    from rankwise.records.signoff import SignOff
+    from rankwise.readings import open_characteristics
+    from rankwise.stats import Settings, run
+
+    table = open_characteristics(HOUSING)
+    analysis = table.to_analysis("old die", "new die", settings=Settings())
+    signature = Signature("Ann Lee", "quality engineer", "accept the change", "", local_now())
+    record = ResultRecord.now(analysis, table.snapshot("old die", "new die"), run(analysis), SignOff(prepared=signature))
+    path = tmp_path / "housing-record.xlsx"
+    write_record(path, record)
+    before = window.sheet.group_names
+    assert window.open_path(path)
+    title, text = answers.messages[-1]
+    assert title == "A record of many characteristics"
+    assert "12 characteristics compared at once (new die against old die), revision 1, prepared by Ann Lee" in text
+    assert "open it in a spreadsheet program" in text and "Check a signed record" in text
+    assert window.sheet.group_names == before
+    assert window.last_result is None and window.source_path != path

@@ -13,6 +13,7 @@ from typing import TYPE_CHECKING
 from PySide6.QtCore import QObject
 from PySide6.QtGui import QAction, QKeySequence
 
+from rankwise.stats.analysis import Question
 from rankwise.ui import dialogs
 
 if TYPE_CHECKING:
@@ -217,6 +218,9 @@ class RecordActions(QObject):
             record = read_record(path)
         except RecordError:
             return False
+        if record.analysis.question is Question.CHARACTERISTICS:
+            self._point_to_the_workbook(Path(path), record)
+            return True
         self.window.set_sheet(ReadingSheet.from_snapshot(record.snapshot), Path(path))
         self.window.question_panel.set_from_analysis(record.analysis)
         if record.signoff is not None:
@@ -225,6 +229,22 @@ class RecordActions(QObject):
             self.window.statusBar().showMessage(
                 f"Signed record, revision {record.signoff.revision}, prepared by {who.name} ({who.role}). Read-only.", 15000)
         return True
+
+    def _point_to_the_workbook(self, path: Path, record: ResultRecord) -> None:
+        """A record of many characteristics is read in its own workbook: the sheet holds one question's
+        groups, and showing it there would put one characteristic's verdict beside the signature."""
+        result = record.result
+        signed = ""
+        if record.signoff is not None:
+            who = record.signoff.prepared
+            signed = f", revision {record.signoff.revision}, prepared by {who.name} ({who.role})"
+        dialogs.show_message(
+            self.window, "A record of many characteristics",
+            f"{path.name} is a record of {len(result.rows)} characteristics compared at once ({result.name_b} "
+            f"against {result.name_a}){signed}. Its summary, each characteristic's figures and the readings as "
+            "entered are on its own sheets: open it in a spreadsheet program to read or print it, and use "
+            "Record > Check a signed record to confirm that it is unchanged. To compare again, open the "
+            "original readings file. The sheet here is left as it was.")
 
     def check_record(self) -> None:
         """Ask for a signed result workbook and say, in plain words, whether it is unchanged."""
