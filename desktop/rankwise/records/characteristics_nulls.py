@@ -17,6 +17,7 @@ import numpy as np
 from rankwise.records.canonical import encode
 from rankwise.stats.exact_ranksum import rank_sum_distribution
 from rankwise.stats.results import CharacteristicsResult, NullDistribution, Result, TwoGroupResult
+from rankwise.stats.two_groups import null_distribution_of
 
 _FIELD = "null_distribution"
 
@@ -67,14 +68,7 @@ def rebuilt_null_distribution(result: TwoGroupResult) -> NullDistribution | None
     if result.p_exact is None:
         return None
     doubled = np.rint(2.0 * np.concatenate([np.asarray(result.ranks_a, float), np.asarray(result.ranks_b, float)]))
-    distribution = rank_sum_distribution(doubled, result.n_a)
-    return NullDistribution(
-        statistic="U of A",
-        support=tuple((distribution.twice_u / 2.0).tolist()),
-        probabilities=tuple(distribution.probabilities.tolist()),
-        observed=float(result.u_a),
-        exact=True,
-    )
+    return null_distribution_of(rank_sum_distribution(doubled, result.n_a), result.u_a)
 
 
 def _is_characteristics(result_data: Any) -> bool:

@@ -172,7 +172,7 @@ def compare_two(
         rank_biserial=float(2.0 * prob_b_greater - 1.0),
         summary_a=summarize(name_a, values_a, dropped_a),
         summary_b=summarize(name_b, values_b, dropped_b),
-        null_distribution=_null_distribution(distribution, u_a),
+        null_distribution=null_distribution_of(distribution, u_a),
         shape=companions[0],
         brunner_munzel=companions[1],
         mood_median=companions[2],
@@ -288,7 +288,9 @@ def _p_values(at_most, at_least, probabilities, alternative):
     return np.minimum(1.0, 2.0 * np.minimum(at_most, at_least)), np.minimum(1.0, 2.0 * np.minimum(mid_low, mid_high))
 
 
-def _null_distribution(distribution: RankSumDistribution | None, u_a: float) -> NullDistribution | None:
+def null_distribution_of(distribution: RankSumDistribution | None, u_a: float) -> NullDistribution | None:
+    """The result's form of the exact distribution of U of A if the change did nothing (None for none),
+    with the observed U of A; a record rebuilds a characteristic's distribution through it too."""
     if distribution is None:
         return None
     return NullDistribution(
