@@ -8,7 +8,7 @@ import threading
 import pytest
 from PySide6.QtCore import QTimer
 
-from window_support import DEMO_FILES, answers, wait_for_verdict, window  # noqa: F401 - pytest fixtures
+from window_support import DEMO_FILES, answers, reading_threads, wait_for_verdict, window  # noqa: F401 - pytest fixtures
 
 import rankwise.readings.open as opening
 import rankwise.ui.window_files as window_files
@@ -37,19 +37,10 @@ def test_work_run_aside_gives_its_result_while_the_event_loop_turns(qtbot):
         run_aside(None, "Working…", lambda: (_ for _ in ()).throw(ReadingsError("plain words")))
 
 
-def test_a_large_file_from_the_open_dialog_is_read_aside(monkeypatch):
-    threads = []
-    real_open = opening.open_readings
-
-    def watched(path, *args, **kwargs):
-        threads.append(threading.current_thread())
-        return real_open(path, *args, **kwargs)
-
-    monkeypatch.setattr(opening, "open_readings", watched)
-    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+def test_a_large_file_from_the_open_dialog_is_read_aside(reading_threads):
     aside = read_readings(None, PATH, {"decimal": "."})
-    assert threads[-1] is not threading.main_thread()
-    at_once = real_open(PATH, decimal=".")
+    assert reading_threads.seen[-1] is not threading.main_thread()
+    at_once = reading_threads.real_open(PATH, decimal=".")
     assert [(g.name, g.cells) for g in aside.groups] == [(g.name, g.cells) for g in at_once.groups]
 
 

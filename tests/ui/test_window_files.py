@@ -6,7 +6,9 @@ import hashlib
 
 import pytest
 
-from window_support import DEMO_FILES, PATIENCE_MS, answers, screenshot, wait_for_verdict, window  # noqa: F401 - pytest fixtures
+from window_support import (  # noqa: F401 - pytest fixtures
+    DEMO_FILES, PATIENCE_MS, answers, reading_threads, screenshot, wait_for_verdict, window,
+)
 
 from rankwise.readings import open_readings
 from rankwise.ui.open_dialog import OpenReadingsDialog
@@ -127,27 +129,15 @@ def test_missing_demo_files_give_a_plain_message(qtbot, window, answers, monkeyp
     assert title == "Demo readings not found" and "no-demo-here" in text and "open any CSV or XLSX" in text
 
 
-def test_a_large_file_opens_on_a_thread_of_its_own(qtbot, window, tmp_path, monkeypatch):
+def test_a_large_file_opens_on_a_thread_of_its_own(qtbot, window, reading_threads):
     """Past LARGE_FILE_BYTES the file is read off the window's thread; the sheet is the same."""
     import threading
 
-    import rankwise.readings.open as opening
-    import rankwise.ui.window_files as window_files
-
-    threads = []
-    real_open = opening.open_readings
-
-    def watched(path, *args, **kwargs):
-        threads.append(threading.current_thread())
-        return real_open(path, *args, **kwargs)
-
-    monkeypatch.setattr(opening, "open_readings", watched)
-    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
     path = DEMO_FILES / "two_wheels_roughness.csv"
     assert window.open_path(path)
     qtbot.waitUntil(lambda: window.opening is None and window.source_path == path, timeout=PATIENCE_MS)
-    assert threads and threads[0] is not threading.main_thread()
-    expected = real_open(path)
+    assert reading_threads.seen and reading_threads.seen[0] is not threading.main_thread()
+    expected = reading_threads.real_open(path)
     assert [group.name for group in window.sheet.groups] == [group.name for group in expected.groups]
     assert [c.text for c in window.sheet.groups[0].cells] == [c.text for c in expected.groups[0].cells]
     wait_for_verdict(qtbot, window)

@@ -122,3 +122,30 @@ def press(qtbot, *keys) -> None:
         assert focused is not None, f"no widget has the keyboard before {code!r}"
         qtbot.keyClick(focused, code, modifiers)
         QApplication.processEvents()
+
+
+@dataclass
+class ReadingThreads:
+    """The threads ``open_readings`` ran on, and the real ``open_readings`` (a reference that records nothing)."""
+
+    seen: list
+    real_open: object
+
+
+@pytest.fixture
+def reading_threads(monkeypatch) -> ReadingThreads:
+    """Every file counts as large (read aside), and each reading of a file notes the thread it ran on."""
+    import threading
+
+    import rankwise.readings.open as opening
+    import rankwise.ui.window_files as window_files
+
+    watched = ReadingThreads(seen=[], real_open=opening.open_readings)
+
+    def open_and_note(path, *args, **kwargs):
+        watched.seen.append(threading.current_thread())
+        return watched.real_open(path, *args, **kwargs)
+
+    monkeypatch.setattr(opening, "open_readings", open_and_note)
+    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+    return watched
