@@ -160,3 +160,23 @@ def test_reading_by_reading_count_without_ties_matches_scipy_exact(n_a, n_b):
         assert scipy.stats.mannwhitneyu(x, y).statistic == value
         expected = scipy.stats.mannwhitneyu(x, y, method="exact", alternative="less").pvalue
         assert cumulative[value] == pytest.approx(expected, rel=1e-11)
+
+
+def test_kept_working_tables_never_carry_an_earlier_count_into_the_next():
+    """The thread keeps its working tables between counts; filled with garbage (as a stopped or
+    larger earlier count may leave them), the next count still equals brute-force enumeration."""
+    from rankwise.stats import exact_ranksum
+    from rankwise.stats.progress import SILENT
+
+    doubled = np.sort((2 * scipy.stats.rankdata(TIE_HEAVY)).astype(np.int64))
+    exact_ranksum._tracked_sum_distribution(2 * np.arange(1, 41, dtype=np.int64), 20, SILENT)
+    kept = exact_ranksum._WORKSPACE.tables
+    assert kept is not None and kept[0].size > 5 * doubled.size
+    for table in kept:
+        table.fill(np.nan)
+    for n_tracked in (3, 6):
+        support, probabilities = _enumerated(doubled, n_tracked)
+        sums = exact_ranksum._tracked_sum_distribution(doubled, n_tracked, SILENT)
+        np.testing.assert_array_equal(sums.doubled_sums - n_tracked * (n_tracked + 1), support)
+        np.testing.assert_allclose(sums.probabilities, probabilities, rtol=1e-12, atol=0)
+    assert exact_ranksum._WORKSPACE.tables is kept

@@ -25,6 +25,7 @@ Two shapes of data have much cheaper exact counts, and the cheapest of the three
 
 from __future__ import annotations
 
+import threading
 from dataclasses import dataclass
 from math import lgamma
 
@@ -39,6 +40,9 @@ MAX_TABLE_CELLS = 60_000_000
 
 _PROGRESS_EVERY = 16
 """Report progress (and look for a stop request) after this many readings."""
+
+KEPT_TABLE_CELLS = 1_000_000
+"""Working tables up to this many cells (8 MB each) are kept for the thread's next count."""
 
 
 @dataclass(frozen=True)
@@ -250,21 +254,24 @@ def _tracked_sum_distribution(doubled: np.ndarray, n_tracked: int, monitor: Moni
         prefix.append(prefix[-1] + rank)
     widths = _row_strides(np.asarray(prefix, dtype=np.int64), n_tracked)
     top_sum = prefix[n_total] - prefix[n_total - n_tracked]
-    cells = 2 * (n_tracked * int(widths.max(initial=1)) + top_sum + 1)  # the table and the next one
-    if cells > MAX_TABLE_CELLS or _log_choose_exact(n_total, n_tracked) > _LOG_LARGEST_COUNT:
+    largest = n_tracked * int(widths.max(initial=1)) + top_sum + 1
+    if 2 * largest > MAX_TABLE_CELLS or _log_choose_exact(n_total, n_tracked) > _LOG_LARGEST_COUNT:
         raise ValueError(_too_big(n_total))
+    # The next table is written into `spare`: no overlapping update, no temporary copy.
+    table, spare = _working_tables(largest)
     stride = 1
-    table = np.zeros(n_tracked * stride + top_sum + 1)
+    table[:n_tracked + top_sum + 1] = 0.0
     table[0] = 1.0
-    spare = table.copy()  # the next table is written here: no overlapping update, no temporary copy
+    spare[:n_tracked + top_sum + 1] = table[:n_tracked + top_sum + 1]
     for i, rank in enumerate(ranks):
         # Rows k - 1 = first - 1 .. last - 1 move into rows first .. last (those that can still reach n_tracked).
         first, last = max(1, n_tracked - (n_total - i - 1)), min(i + 1, n_tracked)
         if widths[i] > stride:
             wider = int(widths[i:i + max(8, i // 2)].max())
-            spare = None  # freed before the wider table is made
-            table = _restride(table, stride, wider, prefix, i, first - 1, min(last, i), n_tracked * wider + top_sum + 1)
-            spare = np.zeros(table.size)
+            used = n_tracked * wider + top_sum + 1
+            _restride(table, spare, stride, wider, prefix, i, first - 1, min(last, i), used)
+            table, spare = spare, table
+            spare[:used] = 0.0
             spare[0] = table[0]  # row 0 (no tracked reading yet) is never written again
             stride = wider
         begin = (first - 1) * stride + prefix[first - 1]
@@ -316,12 +323,33 @@ def _row_strides(prefix: np.ndarray, n_tracked: int) -> np.ndarray:
     return strides
 
 
-def _restride(table: np.ndarray, stride: int, wider: int, prefix: list[int], seen: int,
-              first_row: int, last_row: int, size: int) -> np.ndarray:
-    """The rows first_row..last_row (those that hold mass after ``seen`` readings and can still reach
-    the end) copied to a table of row stride ``wider``."""
-    widened = np.zeros(size)
+def _restride(table: np.ndarray, widened: np.ndarray, stride: int, wider: int, prefix: list[int], seen: int,
+              first_row: int, last_row: int, size: int) -> None:
+    """Write into ``widened`` (zero elsewhere) the rows first_row..last_row of ``table`` (those that hold
+    mass after ``seen`` readings and can still reach the end) at row stride ``wider``."""
+    widened[:size] = 0.0
     for k in range(first_row, last_row + 1):
         low, high = prefix[k], prefix[seen] - prefix[seen - k] + 1
         widened[k * wider + low:k * wider + high] = table[k * stride + low:k * stride + high]
-    return widened
+
+
+class _Workspace(threading.local):
+    """Each thread's two working tables, kept between counts: a fresh table of a few megabytes costs
+    a page fault per 4 kB when the operating system hands its memory back and forth, which took as
+    long as the count itself when many results were held in memory."""
+
+    tables: tuple[np.ndarray, np.ndarray] | None = None
+
+
+_WORKSPACE = _Workspace()
+
+
+def _working_tables(cells: int) -> tuple[np.ndarray, np.ndarray]:
+    """Two tables of ``cells`` cells each, contents undefined; small ones reuse the thread's kept pair."""
+    kept = _WORKSPACE.tables
+    if kept is not None and kept[0].size >= cells:
+        return kept[0][:cells], kept[1][:cells]
+    tables = np.empty(cells), np.empty(cells)
+    if cells <= KEPT_TABLE_CELLS:
+        _WORKSPACE.tables = tables
+    return tables
