@@ -17,7 +17,7 @@ from dataclasses import dataclass
 from math import comb
 
 import numpy as np
-from scipy.stats import norm
+from scipy.special import ndtr
 
 from rankwise.stats import shape
 from rankwise.stats.analysis import ALTERNATIVES, METHODS
@@ -238,12 +238,13 @@ def _normal_approximation(u_a: float, n_a: int, n_b: int, tie_sum: float, altern
     if not variance > 0.0:
         return _NormalFigures(p_value=1.0, z=0.0)
     sd = np.sqrt(variance)
+    # The standard normal upper tail at z is ndtr(-z), as scipy.stats.norm.sf computes it.
     if alternative == "b-greater":
-        p = norm.sf((u_b - mean - 0.5) / sd)
+        p = ndtr(-(u_b - mean - 0.5) / sd)
     elif alternative == "b-less":
-        p = norm.sf((u_a - mean - 0.5) / sd)
+        p = ndtr(-(u_a - mean - 0.5) / sd)
     else:
-        p = min(1.0, 2.0 * norm.sf((max(u_a, u_b) - mean - 0.5) / sd))
+        p = min(1.0, 2.0 * ndtr(-(max(u_a, u_b) - mean - 0.5) / sd))
     z = np.sign(u_b - mean) * max(abs(u_b - mean) - 0.5, 0.0) / sd
     return _NormalFigures(p_value=float(p), z=float(z))
 
