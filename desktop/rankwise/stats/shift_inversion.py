@@ -21,7 +21,7 @@ from dataclasses import dataclass
 import numpy as np
 
 from rankwise.stats.exact_ranksum import SECONDS_PER_COUNT, block_sizes_of, exact_count_seconds, rank_sum_distribution
-from rankwise.stats.ranks import rank_groups
+from rankwise.stats.ranks import midranks_on_grid
 
 INVERSION_SECONDS = 0.3
 """Largest estimated time for trying every candidate shift (each one exact count)."""
@@ -76,7 +76,8 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     tried[0], tried[-1] = 2 * differences[0] - 1, 2 * differences[-1] + 1
     if tried.size * SECONDS_PER_COUNT > INVERSION_SECONDS:  # too many tries whatever each costs
         return None
-    one_count = exact_count_seconds(block_sizes_of(_doubled_ranks(a, b, 0)[0]), min(a.size, b.size), a.size + b.size)
+    # Mid-ranks tie exactly where the readings do, so the readings' own tie blocks are the ranks' blocks.
+    one_count = exact_count_seconds(block_sizes_of(np.concatenate([a, b])), min(a.size, b.size), a.size + b.size)
     if tried.size * one_count > INVERSION_SECONDS:
         return None
     accepted = np.array([_p_value(a, b, int(t), alternative) > 1.0 - level + _P_TOLERANCE for t in tried])
@@ -113,9 +114,8 @@ def accepted_set(tried: np.ndarray, accepted: np.ndarray, alternative: str,
 
 def _doubled_ranks(a: np.ndarray, b: np.ndarray, twice_shift: int) -> tuple[np.ndarray, float]:
     """Twice the mid-ranks of A and B - shift together, and twice A's rank sum."""
-    doubled_a, doubled_b = 2.0 * a, 2.0 * b - twice_shift
-    (ranks_a, ranks_b), _ = rank_groups([doubled_a, doubled_b], [doubled_a, doubled_b])
-    return np.rint(2.0 * np.concatenate([ranks_a, ranks_b])), float(2.0 * ranks_a.sum())
+    ranks = midranks_on_grid(np.concatenate([2.0 * a, 2.0 * b - twice_shift]))
+    return np.rint(2.0 * ranks), float(2.0 * ranks[:a.size].sum())
 
 
 def _p_value(a: np.ndarray, b: np.ndarray, twice_shift: int, alternative: str) -> float:
