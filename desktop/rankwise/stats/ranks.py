@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from itertools import accumulate
 
 import numpy as np
 
@@ -35,27 +36,46 @@ def _rank_exact_values(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.nda
     Whole numbers in a narrow range (readings on a gauge's grid) are ranked by counting, in time
     proportional to the number of readings; other values by sorting.
     """
-    if values.size and _whole_in_narrow_range(values):
-        return _rank_by_counting(values, sizes)
+    span = _counting_span(values)
+    if span is not None:
+        return _rank_by_counting(values, sizes, span)
     return _rank_by_sorting(values, sizes)
 
 
-def _whole_in_narrow_range(values: np.ndarray) -> bool:
-    """True when every value is a whole number and max - min <= COUNTING_RANGE_FACTOR * count."""
+def _exact_midranks(values: np.ndarray) -> np.ndarray:
+    """The mid-ranks of ``_rank_exact_values`` alone, without looking for tie blocks."""
+    span = _counting_span(values)
+    if span is None:
+        return _rank_by_sorting(values, [values.size])[0]
+    offsets = _offsets(values)
+    tally = np.bincount(offsets, minlength=span)
+    return (np.cumsum(tally) - (tally - 1) / 2.0)[offsets]
+
+
+def _counting_span(values: np.ndarray) -> int | None:
+    """max - min + 1 when every value is a whole number and max - min <= COUNTING_RANGE_FACTOR * count
+    (the values are then ranked by counting), else None."""
+    if not values.size:
+        return None
     low, high = values.min(), values.max()
     if not high - low <= COUNTING_RANGE_FACTOR * values.size:
-        return False
-    head = values[:256]
-    if not np.array_equal(head, np.rint(head)):
-        return False
-    return bool(np.array_equal(values, np.rint(values)))
+        return None
+    if values.size > 256 and not (values[:256] == np.rint(values[:256])).all():
+        return None
+    if not (values == np.rint(values)).all():
+        return None
+    return int(high - low) + 1
 
 
-def _rank_by_counting(values: np.ndarray, sizes: Sequence[int]) -> tuple[np.ndarray, _Ties]:
+def _offsets(values: np.ndarray) -> np.ndarray:
+    """Whole-number values as steps above their minimum: their places in a tally."""
+    return (values - values.min()).astype(np.intp)
+
+
+def _rank_by_counting(values: np.ndarray, sizes: Sequence[int], span: int) -> tuple[np.ndarray, _Ties]:
     """Mid-rank of value v: (readings below v) + (readings level with v + 1) / 2, from a tally."""
-    offsets = (values - values.min()).astype(np.intp)
-    span = int(offsets.max()) + 1
-    bounds = np.concatenate(([0], np.cumsum(sizes)))
+    offsets = _offsets(values)
+    bounds = [0, *accumulate(sizes)]
     by_value = np.stack([np.bincount(offsets[s:e], minlength=span) for s, e in zip(bounds[:-1], bounds[1:])])
     tally = by_value.sum(axis=0)
     ends = np.cumsum(tally)
@@ -103,15 +123,14 @@ def midranks(values: Sequence[float] | np.ndarray) -> np.ndarray:
         raise ValueError("Readings to rank must not contain blanks (NaN); drop them first.")
     if array.size == 0:
         return array.copy()
-    counts = find_grid(array).to_counts(array)
-    return _rank_exact_values(counts, [counts.size])[0]
+    return _exact_midranks(find_grid(array).to_counts(array))
 
 
 def midranks_on_grid(counts: np.ndarray) -> np.ndarray:
     """Mid-ranks of readings already on their common grid (``Grid.to_counts`` of every reading
     compared): the same ranks ``midranks`` gives the readings themselves, without finding the grid again."""
     array = np.asarray(counts, dtype=float).ravel()
-    return _rank_exact_values(array, [array.size])[0] if array.size else array.copy()
+    return _exact_midranks(array) if array.size else array.copy()
 
 
 def rank_groups(counts: Sequence[np.ndarray], values: Sequence[np.ndarray]) -> tuple[list[np.ndarray], tuple[TieBlock, ...]]:
@@ -125,23 +144,24 @@ def rank_groups(counts: Sequence[np.ndarray], values: Sequence[np.ndarray]) -> t
     sizes = [len(c) for c in counts]
     combined = np.concatenate([np.asarray(c, dtype=float) for c in counts])
     ranks, ties = _rank_exact_values(combined, sizes)
-    split = np.cumsum(sizes)[:-1]
+    bounds = [0, *accumulate(sizes)]
     blocks = ()
     if ties.starts.size:
         combined_values = np.concatenate([np.asarray(v, dtype=float) for v in values])
         blocks = tuple(
             TieBlock(
-                value=float(combined_values[entry]),
-                count=int(end - start),
-                first_rank=int(start + 1),
-                last_rank=int(end),
-                mid_rank=float(start + 1 + end) / 2.0,
-                counts_by_group=tuple(int(c) for c in group_counts),
+                value=value,
+                count=end - start,
+                first_rank=start + 1,
+                last_rank=end,
+                mid_rank=(start + 1 + end) / 2.0,
+                counts_by_group=tuple(group_counts),
             )
-            for entry, start, end, group_counts in zip(
-                ties.first_entries.tolist(), ties.starts.tolist(), ties.ends.tolist(), ties.by_group.tolist())
+            for value, start, end, group_counts in zip(
+                combined_values[ties.first_entries].tolist(), ties.starts.tolist(), ties.ends.tolist(),
+                ties.by_group.tolist())
         )
-    return list(np.split(ranks, split)), blocks
+    return [ranks[start:end] for start, end in zip(bounds[:-1], bounds[1:])], blocks
 
 
 def tie_correction_sum(counts: np.ndarray) -> float:
