@@ -14,6 +14,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from functools import lru_cache
+from itertools import accumulate
 
 import numpy as np
 from scipy import special as _special
@@ -22,6 +23,7 @@ from scipy import stats as _dist
 from rankwise.stats.grid import Grid, find_grid
 from rankwise.stats.ranks import midranks, midranks_on_grid
 from rankwise.stats.results import BrunnerMunzelResult, MoodMedianResult, ShapeCheck
+from rankwise.stats.summary import linear_quantile, sorted_median
 
 SHAPE_MIN_READINGS = 5
 """Fewest readings per group for which the same-shape check is attempted."""
@@ -56,13 +58,17 @@ def check_shape(a: np.ndarray, b: np.ndarray, grid: Grid | None = None) -> Shape
     if a.size < SHAPE_MIN_READINGS or b.size < SHAPE_MIN_READINGS:
         return None
     grid = find_grid(a, b) if grid is None else grid
+    counts_a, counts_b = grid.to_counts(a), grid.to_counts(b)
     # Doubled counts minus doubled medians: whole numbers on a grid, so deviations tie exactly.
-    aligned_a = 2.0 * grid.to_counts(a) - 2.0 * np.median(grid.to_counts(a))
-    aligned_b = 2.0 * grid.to_counts(b) - 2.0 * np.median(grid.to_counts(b))
+    ordered_a, ordered_b = np.sort(counts_a), np.sort(counts_b)
+    median_a, median_b = 2.0 * sorted_median(ordered_a), 2.0 * sorted_median(ordered_b)
+    aligned_a, aligned_b = 2.0 * counts_a - median_a, 2.0 * counts_b - median_b
     dispersion_p = _fligner_killeen_p([np.abs(aligned_a), np.abs(aligned_b)])
-    shape_p = _kolmogorov_smirnov_p(aligned_a, aligned_b)
-    iqr_a = float(np.subtract(*np.percentile(a, [75.0, 25.0])))
-    iqr_b = float(np.subtract(*np.percentile(b, [75.0, 25.0])))
+    # The same map of every reading keeps the order: the aligned readings come out sorted.
+    shape_p = _kolmogorov_smirnov_p(2.0 * ordered_a - median_a, 2.0 * ordered_b - median_b)
+    readings_a, readings_b = np.sort(a), np.sort(b)
+    iqr_a = linear_quantile(readings_a, 0.75) - linear_quantile(readings_a, 0.25)
+    iqr_b = linear_quantile(readings_b, 0.75) - linear_quantile(readings_b, 0.25)
     return ShapeCheck(
         spread_ratio=iqr_b / iqr_a if iqr_a > 0 else float("nan"),
         dispersion_method=DISPERSION_METHOD,
@@ -84,22 +90,32 @@ def _fligner_killeen_p(deviations: Sequence[np.ndarray]) -> float:
     sizes = [d.size for d in deviations]
     combined = np.concatenate(deviations)
     total = combined.size
-    scores = _special.ndtri(midranks(combined) / (2.0 * (total + 1.0)) + 0.5)  # the normal quantile
+    ranks = midranks_on_grid(combined) if _small_whole_numbers(combined) else midranks(combined)
+    scores = _special.ndtri(ranks / (2.0 * (total + 1.0)) + 0.5)  # the normal quantile
     variance = float(np.var(scores, ddof=1))
     if not variance > 0.0:
         return 1.0
     mean_score = scores.mean()
-    split = np.split(scores, np.cumsum(sizes)[:-1])
-    statistic = sum(s.size * (s.mean() - mean_score) ** 2 for s in split) / variance
+    bounds = [0, *accumulate(sizes)]
+    statistic = sum((end - start) * (scores[start:end].mean() - mean_score) ** 2
+                    for start, end in zip(bounds[:-1], bounds[1:])) / variance
     return float(_special.chdtrc(len(sizes) - 1, statistic))  # chi-square upper tail
 
 
+def _small_whole_numbers(values: np.ndarray) -> bool:
+    """True when every value is a whole number below 2^52 in size: its own grid at 0 decimals, so
+    ``midranks_on_grid`` ranks it as ``midranks`` would, without the grid search."""
+    return bool((values == np.rint(values)).all() and np.abs(values).max(initial=0.0) < 2.0**52)
+
+
 def _kolmogorov_smirnov_p(x: np.ndarray, y: np.ndarray) -> float:
-    """Two-sided p of the two-sample Kolmogorov-Smirnov distance (no-ties null distribution)."""
+    """Two-sided p of the two-sample Kolmogorov-Smirnov distance (no-ties null distribution);
+    ``x`` and ``y`` ascending."""
     m, n = x.size, y.size
-    points = np.union1d(x, y)
-    below_x = np.searchsorted(np.sort(x), points, side="right")
-    below_y = np.searchsorted(np.sort(y), points, side="right")
+    # The cumulative shares at every reading (the steps of both; a repeated reading adds nothing).
+    points = np.concatenate([x, y])
+    below_x = np.searchsorted(x, points, side="right")
+    below_y = np.searchsorted(y, points, side="right")
     # The distance scaled by m n is a whole number: |n i - m j| at the lattice point (i, j).
     gap = int(np.max(np.abs(n * below_x - m * below_y)))
     if gap == 0:
