@@ -45,3 +45,38 @@ def test_dots_placed_too_late_are_not_drawn(qtbot, monkeypatch):
         chart.show_result(*paired_case())
         chart.clear()
     assert chart.view is None and all(len(item.getData()[0]) == 0 for item in chart._dots)
+
+
+def test_dots_of_one_look_are_set_at_once_and_drawn_as_pyqtgraph_draws_them(qtbot):
+    """``SameLookDots`` gives every dot the first dot's place in the symbol atlas in one step; the
+    reference is pyqtgraph's own ``ScatterPlotItem``, which looks each dot up: same places, same picture."""
+    import pyqtgraph as pg
+
+    from rankwise.ui.charts import style
+    from rankwise.ui.charts.same_look_dots import SameLookDots
+
+    generator = np.random.default_rng(5)  # invented positions
+    x, y = generator.random(3000), np.round(generator.random(3000), 2)
+    drawn = []
+    for kind in (pg.ScatterPlotItem, SameLookDots):
+        plot = pg.PlotWidget()
+        qtbot.addWidget(plot)
+        plot.resize(400, 300)
+        dots = kind(size=style.MARKER_SIZE, **style.group_marker(1), hoverable=True)
+        plot.addItem(dots)
+        dots.setData(x=x[:7], y=y[:7])
+        dots.addPoints(x=x[7:], y=y[7:])
+        plot.show()
+        qtbot.waitExposed(plot)
+        drawn.append((dots.data["sourceRect"].copy(), plot.grab().toImage()))
+    (places, picture), (same_places, same_picture) = drawn
+    assert np.array_equal(places, same_places) and np.all(same_places["w"] > 0)
+    assert picture == same_picture
+
+
+def test_the_dot_plot_sets_its_dots_at_once(qtbot):
+    from rankwise.ui.charts.same_look_dots import SameLookDots
+
+    chart = _chart(qtbot)
+    chart.show_result(*several_case())
+    assert chart._dots and all(isinstance(item, SameLookDots) for item in chart._dots)

@@ -13,6 +13,7 @@ from rankwise.stats import Analysis
 from rankwise.ui.charts import style
 from rankwise.ui.charts.chart_frame import ChartFrame
 from rankwise.ui.charts.readings_view import ReadingsView, stacked_offsets
+from rankwise.ui.charts.same_look_dots import SameLookDots
 
 MEDIAN_HALF_WIDTH = 0.38
 """Half the width of a median bar, in group slots."""
@@ -138,7 +139,7 @@ class ReadingsDotPlot(ChartFrame):
         """The scatter item of group ``index`` (made the first time a group needs it)."""
         while len(self._dots) <= index:
             number = len(self._dots)
-            dots = pg.ScatterPlotItem(
+            dots = SameLookDots(
                 size=style.MARKER_SIZE,
                 **style.group_marker(number),
                 hoverable=True,
