@@ -9,7 +9,8 @@ sorted b, is itself sorted. Each round draws a random sample of the remaining ca
 two sample quantiles that bracket the wanted rank (the Floyd-Rivest idea), and counts per row with
 a binary search how many differences lie below each (Monahan 1984, ACM TOMS 10, 265-270, on the
 same row-wise candidate ranges; Johnson & Mizoguchi 1978, SIAM J. Comput. 7, 147-153). Memory
-stays O(n_a + n_b + sample); a few rounds of O(n_a log n_b) each suffice.
+stays O(n_a + n_b + sample); a few rounds of O(n_a log n_b) each suffice. Up to 2^18 differences
+(512 x 512 readings) are simply listed and partitioned once for every rank asked.
 
 The same selector serves the one-sample (paired) question: ``select_walsh_sums`` selects among
 the n (n + 1) / 2 sums d_i + d_j, i <= j, whose halves are the Walsh averages.
@@ -92,6 +93,11 @@ def _select(columns: np.ndarray, row_offsets: np.ndarray, first_column: np.ndarr
     for rank in wanted:
         if not 1 <= rank <= total:
             raise ValueError(f"ranks must lie between 1 and {total}; got {rank}.")
+    if total <= _DIRECT_LIMIT:  # few enough to list: one partition places every wanted rank
+        listed = _candidates(columns, row_offsets, first_column, columns.size - first_column)
+        distinct = sorted(set(wanted))
+        placed = np.partition(listed, [rank - 1 for rank in distinct])
+        return np.array([float(placed[rank - 1]) for rank in wanted])
     rng = np.random.default_rng(_SEED)
     whole = _whole_numbers(columns) and _whole_numbers(row_offsets)
     found: dict[int, float] = {}
@@ -198,8 +204,15 @@ def _sample_candidates(columns, offsets, left, counts, remaining, rng) -> np.nda
 
 def _select_directly(columns, offsets, left, counts, rank_among) -> float:
     """Gather the remaining candidates and partition them."""
+    values = _candidates(columns, offsets, left, counts)
+    return float(np.partition(values, rank_among - 1)[rank_among - 1])
+
+
+def _candidates(columns, offsets, left, counts) -> np.ndarray:
+    """The values of the candidates, columns left[i] .. left[i] + counts[i] - 1 of each row i, in any order."""
+    if not left.any() and (counts == columns.size).all():  # every difference: the whole table
+        return np.subtract.outer(columns, offsets).ravel()
     rows = np.repeat(np.arange(offsets.size), counts)
     starts = np.repeat(np.cumsum(counts) - counts, counts)
     positions = np.repeat(left, counts) + (np.arange(rows.size) - starts)
-    values = columns[positions] - offsets[rows]
-    return float(np.partition(values, rank_among - 1)[rank_among - 1])
+    return columns[positions] - offsets[rows]
