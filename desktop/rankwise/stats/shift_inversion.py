@@ -68,17 +68,22 @@ def accepted_shifts(counts_a: np.ndarray, counts_b: np.ndarray, level: float,
     b = np.asarray(counts_b, dtype=float)
     if not (_whole(a) and _whole(b)) or a.size * b.size > MAX_DIFFERENCES:
         return None
-    differences = np.unique(np.subtract.outer(b.astype(np.int64), a.astype(np.int64)))
+    # k distinct readings of A and l of B make at least k + l - 1 distinct differences (b_1 - a_k <
+    # ... < b_1 - a_1 < b_2 - a_1 < ... < b_l - a_1), so at least 2 (k + l - 1) + 1 tries.
+    fewest_tries = 2 * (_distinct_count(a) + _distinct_count(b) - 1) + 1
+    if fewest_tries * SECONDS_PER_COUNT > INVERSION_SECONDS:  # too many tries whatever each costs
+        return None
+    # Mid-ranks tie exactly where the readings do, so the readings' own tie blocks are the ranks' blocks.
+    one_count = exact_count_seconds(block_sizes_of(np.concatenate([a, b])), min(a.size, b.size), a.size + b.size)
+    if fewest_tries * one_count > INVERSION_SECONDS:
+        return None
+    differences = _distinct(np.subtract.outer(b.astype(np.int64), a.astype(np.int64)).ravel())
     # Twice the shifts tried, ascending: one below all differences, each difference, each gap, one above.
     tried = np.empty(2 * differences.size + 1, dtype=np.int64)
     tried[1::2] = 2 * differences
     tried[2:-1:2] = differences[:-1] + differences[1:]
     tried[0], tried[-1] = 2 * differences[0] - 1, 2 * differences[-1] + 1
-    if tried.size * SECONDS_PER_COUNT > INVERSION_SECONDS:  # too many tries whatever each costs
-        return None
-    # Mid-ranks tie exactly where the readings do, so the readings' own tie blocks are the ranks' blocks.
-    one_count = exact_count_seconds(block_sizes_of(np.concatenate([a, b])), min(a.size, b.size), a.size + b.size)
-    if tried.size * one_count > INVERSION_SECONDS:
+    if tried.size * one_count > INVERSION_SECONDS:  # one_count includes SECONDS_PER_COUNT
         return None
     accepted = np.array([_p_value(a, b, int(t), alternative) > 1.0 - level + _P_TOLERANCE for t in tried])
     return accepted_set(tried, accepted, alternative, steps_per_unit=2)
@@ -128,6 +133,18 @@ def _p_value(a: np.ndarray, b: np.ndarray, twice_shift: int, alternative: str) -
     if alternative == "b-less":
         return distribution.at_least(twice_u_a)
     return min(1.0, 2.0 * min(distribution.at_most(twice_u_a), distribution.at_least(twice_u_a)))
+
+
+def _distinct(values: np.ndarray) -> np.ndarray:
+    """The distinct values, ascending."""
+    ordered = np.sort(values)
+    return ordered[np.concatenate(([True], ordered[1:] != ordered[:-1]))]
+
+
+def _distinct_count(values: np.ndarray) -> int:
+    """How many distinct values there are."""
+    ordered = np.sort(values)
+    return int(np.count_nonzero(ordered[1:] != ordered[:-1])) + 1
 
 
 def _whole(values: np.ndarray) -> bool:
