@@ -1,5 +1,7 @@
 """Checking readings in (plain-words refusals) and finding their gauge resolution."""
 
+from decimal import Decimal
+
 import numpy as np
 import pytest
 
@@ -59,6 +61,19 @@ def test_resolutions_of_typed_decimals_and_of_continuous_readings():
     many = np.round(np.random.default_rng(4).normal(size=200_000), 1)
     many[-1] = 0.123
     assert find_grid(many).decimals == 3
+
+
+def test_the_resolution_is_the_most_decimals_typed():
+    """Seeded readings typed as decimal text with 0 to 9 decimals, one of them with a last digit that
+    is not 0, at every position among up to 12 readings: the grid has exactly that many decimals
+    (the typed text is the reference)."""
+    rng = np.random.default_rng(17)
+    for trial in range(400):
+        decimals, n = int(rng.integers(0, 10)), int(rng.integers(1, 13))
+        steps = rng.integers(-10**6, 10**6, n) * 10
+        steps[int(rng.integers(0, n))] += int(rng.integers(1, 10))  # the one reading that needs every decimal
+        typed = [str(Decimal(int(k)).scaleb(-decimals)) for k in steps]
+        assert find_grid(np.array([float(text) for text in typed])).decimals == decimals, typed
 
 
 def test_the_callers_readings_are_never_changed():

@@ -12,6 +12,7 @@ so binary noise never splits a tie; a reading with more digits than that is kept
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 
 import numpy as np
@@ -91,6 +92,8 @@ def _fits(values: np.ndarray, decimals: int) -> bool:
     allowed for values that passed through spreadsheet arithmetic.
     """
     scale = 10.0**decimals
+    if not _first_readings_fit(values, scale):
+        return False
     for start in range(0, values.size, _CHUNK):
         if not _chunk_fits(values[start:start + _CHUNK], scale):
             return False
@@ -117,6 +120,22 @@ def _chunk_fits(values: np.ndarray, scale: float) -> bool:
     return bool(np.all(off <= allowed))
 
 
+_FIRST_READINGS = 4
+"""Readings checked one by one before a whole chunk: most resolutions too coarse fail on them."""
+
+
+def _first_readings_fit(values: np.ndarray, scale: float) -> bool:
+    """``_chunk_fits`` for the first few readings, in the same float arithmetic one reading at a
+    time (Python's round is numpy's rint, half to even; math.ulp is numpy's spacing of |x|)."""
+    for value in values[:_FIRST_READINGS].tolist():
+        scaled = value * scale
+        if not abs(scaled) < _EXACT_INTEGER_LIMIT:
+            return False
+        if not abs(float(round(scaled)) / scale - value) <= 4.0 * math.ulp(abs(value)):
+            return False
+    return True
+
+
 PREFIX_READINGS = 256
 """The search first runs on this many readings: no set needs fewer decimals than a part of it."""
 
@@ -132,8 +151,8 @@ def find_grid(*groups: np.ndarray) -> Grid:
     if not np.isfinite(combined).all():
         combined = combined[np.isfinite(combined)]
     start = _coarsest_fit(combined[:PREFIX_READINGS], 0)
-    if start is None:
-        return Grid(None)
+    if start is None or combined.size <= PREFIX_READINGS:  # the prefix was the whole set
+        return Grid(start)
     return Grid(_coarsest_fit(combined, start))
 
 
