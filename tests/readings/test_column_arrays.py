@@ -118,3 +118,50 @@ def test_counts_of_a_column_as_read(texts):
     sheet = make_sheet(texts, names=["A"])
     counts = sheet.counts(0)
     assert (counts.used, counts.skipped, counts.censored, counts.blanks) == _full_count(sheet.groups[0])
+
+
+def test_a_copy_of_the_sheet_takes_its_arrays_along_and_stands_apart():
+    """``ReadingSheet.copy`` (what the window hands to its worker) gives the analysis and the arrays
+    that a copy read cell by cell (``from_snapshot``, the reference) gives, and keeps them while the
+    sheet is edited on."""
+    from hypothesis import given, settings
+    from hypothesis import strategies as st
+
+    from rankwise.readings import ReadingSheet
+    from rankwise.stats.analysis import Question
+
+    def frozen(sheet):
+        analyses = []
+        for question in (Question.TWO_GROUPS, Question.PAIRED):
+            try:
+                analyses.append(sheet.to_analysis(question, groups=[0, 1]))
+            except (ValueError, ReadingsError) as error:
+                analyses.append(str(error))
+        arrays = [(a.kinds.tolist(), a.values.tolist(), a.decimals.tolist())
+                  for a in (column.arrays() for column in sheet.groups)]
+        return sheet.snapshot(), repr(analyses), repr(arrays), sheet.decimal_label
+
+    @settings(max_examples=80, deadline=None)
+    @given(before=st.lists(_edit_strategy(), max_size=8), after=st.lists(_edit_strategy(), min_size=1, max_size=4))
+    def run(before, after):
+        sheet = make_sheet(["1", "", "2", "n/a"], ["", "3", "<0,5"], names=["A", "B"])
+        for column in sheet.groups:
+            column.arrays()  # kept in step from here on, as the window's sheet keeps them
+        for edit in before:
+            try:
+                _apply(sheet, edit)
+            except (ValueError, ReadingsError):
+                pass
+        copy = sheet.copy()
+        expected = frozen(ReadingSheet.from_snapshot(sheet.snapshot()))
+        # the arrays the sheet kept are taken along, not made again from the cells
+        assert [column._arrays is not None for column in copy.groups] == [
+            column._kept_arrays() is not None for column in sheet.groups]
+        for edit in after:
+            try:
+                _apply(sheet, edit)
+            except (ValueError, ReadingsError):
+                pass
+        assert frozen(copy) == expected
+
+    run()

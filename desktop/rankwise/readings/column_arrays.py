@@ -51,6 +51,15 @@ class ColumnArrays:
         self._answers: dict[str, object] = {}
         """What the window asked since the last change (it asks the same several times per edit)."""
 
+    def copy_for(self, cells: list[Cell]) -> ColumnArrays:
+        """A copy of these arrays for ``cells``, a copy of the list they mirror (numpy copies, no pass over the cells)."""
+        if len(cells) != self.kinds.size:
+            raise ValueError("the cells are not a copy of the list these arrays mirror")
+        twin = ColumnArrays.__new__(ColumnArrays)
+        twin._cells, twin._answers = cells, {}
+        twin.kinds, twin.values, twin.decimals = self.kinds.copy(), self.values.copy(), self.decimals.copy()
+        return twin
+
     def mirrors(self, cells: list[Cell]) -> bool:
         """True when these arrays are those of ``cells`` (the same list, as long)."""
         return cells is self._cells and len(cells) == self.kinds.size

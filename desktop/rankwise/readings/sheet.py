@@ -166,6 +166,17 @@ class ReadingSheet:
             parts=parts,
         )
 
+    def copy(self) -> ReadingSheet:
+        """An independent copy of the sheet as it stands, without undo history, to read on another
+        thread: the cells are shared (they are immutable), the arrays kept in step are copied."""
+        twin = ReadingSheet(self.groups, decimal=self._decimal, mixed_limits=self._mixed_limits, parts=self.parts)
+        for mine, copied in zip(self.groups, twin.groups):
+            kept = mine._kept_arrays()
+            if kept is not None:
+                copied._arrays = kept.copy_for(copied.cells)
+        twin._decided = self._decided
+        return twin
+
     def snapshot(self) -> SheetSnapshot:
         """A frozen copy of the sheet as it stands."""
         return SheetSnapshot(

@@ -10,7 +10,7 @@ import functools
 import math
 from dataclasses import replace
 
-from rankwise.readings import ReadingSheet, ReadingsError, SheetSnapshot
+from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.readings.censored import MixedLimitsError
 from rankwise.readings.for_analysis import build_analysis as analysis_of_columns
 from rankwise.stats.analysis import Analysis, Question
@@ -46,11 +46,6 @@ def analysis_for(sheet: ReadingSheet, choice) -> Analysis:
     return analysis
 
 
-def analysis_of_copy(snapshot: SheetSnapshot, choice) -> Analysis:
-    """``analysis_for`` a copy of the sheet (runs on the worker thread; the copy cannot change)."""
-    return analysis_for(ReadingSheet.from_snapshot(snapshot), choice)
-
-
 class WindowAnalysis:
     """Mixin of ``MainWindow``: analysis requests, progress, results and problems."""
 
@@ -75,11 +70,13 @@ class WindowAnalysis:
         """Recompute after an edit (debounced) or at once (after opening or a question change).
 
         A large sheet (more than ``LARGE_SHEET_CELLS`` cells) is read into an analysis on the worker,
-        from a copy of the sheet taken now, so that the window never waits for it."""
+        from a copy of the sheet taken now (``ReadingSheet.copy``: the cells shared, the arrays the
+        sheet keeps in step copied, so the worker need not read every cell again), so that the
+        window never waits for it."""
         if sum(len(group.cells) for group in self.sheet.groups) > LARGE_SHEET_CELLS:
             choice = self.question_panel.choice()
             if not choice.problem:
-                job = functools.partial(analysis_of_copy, self.sheet.snapshot(), choice)
+                job = functools.partial(analysis_for, self.sheet.copy(), choice)
                 self.runner.request_now(job) if immediately else self.runner.request(job)
                 return
         analysis, reason = self.build_analysis()
