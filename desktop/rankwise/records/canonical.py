@@ -23,6 +23,7 @@ from functools import lru_cache
 from typing import Any
 
 from rankwise.records.errors import RecordError
+from rankwise.stats.frozen_floats import FrozenFloats
 
 _NON_FINITE = {"NaN": math.nan, "Infinity": math.inf, "-Infinity": -math.inf}
 
@@ -43,6 +44,8 @@ def encode(value: Any, hint: Any) -> Any:
     arms = _union_arms(hint)
     if arms is not None:
         return _through_union(value, arms, encode, _tagged)
+    if hint is FrozenFloats:
+        return [_encode_float(item) for item in value]
     if typing.get_origin(hint) is tuple:
         scalar = _ENCODE_SCALAR.get(_repeated_item(hint))
         if scalar is not None:  # a long run of numbers: one conversion each, no dispatch
@@ -75,6 +78,8 @@ def _decode(data: Any, hint: Any) -> Any:
     arms = _union_arms(hint)
     if arms is not None:
         return _through_union(data, arms, _decode, _untagged)
+    if hint is FrozenFloats:
+        return FrozenFloats(_decode(data, tuple[float, ...]))
     if typing.get_origin(hint) is tuple:
         _require(data, list)
         scalar = _DECODE_SCALAR.get(_repeated_item(hint))

@@ -44,9 +44,9 @@ EXACT_BUDGET = 4e7
 NULL_CHART_LIMIT = 200
 """Largest number of non-zero differences for which the null distribution is kept for the chart."""
 _EXACT_CRITICAL_LIMIT = 400
+"""Largest n for which critical_t counts the exact no-ties distribution (normal beyond)."""
 _P_TOLERANCE = 1e-12
 """Sums of exact probabilities carry rounding noise; p within this of alpha counts as equal."""
-"""Largest n for which critical_t counts the exact no-ties distribution (normal beyond)."""
 
 
 def compare_paired(
@@ -135,8 +135,8 @@ def compare_paired(
         if n_nonzero <= NULL_CHART_LIMIT:
             null_distribution = NullDistribution(
                 statistic="W+",
-                support=tuple(float(s) for s in support),
-                probabilities=tuple(float(p) for p in probabilities),
+                support=support,
+                probabilities=probabilities,
                 observed=w_plus,
                 exact=True,
             )

@@ -10,6 +10,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Iterator
 
+from rankwise.stats.frozen_floats import FrozenFloats
+
 
 @dataclass(frozen=True)
 class ConfidenceInterval:
@@ -82,15 +84,21 @@ class NullDistribution:
         statistic: which statistic ("U of A", "W+", ...).
         support: the values the statistic can take, ascending.
         probabilities: the probability of each value (sums to 1).
+        (Both are kept as ``FrozenFloats``: thousands of values, one array each; any sequence given is converted.)
         observed: the observed value of the statistic.
         exact: True for the exact permutation distribution, False when it was not affordable.
     """
 
     statistic: str
-    support: tuple[float, ...]
-    probabilities: tuple[float, ...]
+    support: FrozenFloats
+    probabilities: FrozenFloats
     observed: float
     exact: bool
+
+    def __post_init__(self) -> None:
+        for name in ("support", "probabilities"):
+            if not isinstance(getattr(self, name), FrozenFloats):
+                object.__setattr__(self, name, FrozenFloats(getattr(self, name)))
 
 
 @dataclass(frozen=True)

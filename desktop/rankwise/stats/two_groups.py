@@ -23,6 +23,7 @@ from rankwise.stats import shape
 from rankwise.stats.analysis import ALTERNATIVES, METHODS
 from rankwise.stats.critical import critical_value, smallest_equal_size, smallest_partner_size
 from rankwise.stats.exact_ranksum import RankSumDistribution, exact_count_seconds, rank_sum_distribution
+from rankwise.stats.frozen_floats import FrozenFloats
 from rankwise.stats.grid import Grid, find_grid
 from rankwise.stats.hodges_lehmann import hodges_lehmann_shift, moses_interval
 from rankwise.stats.inputs import check_choice, check_differences, check_level, clean_group
@@ -296,8 +297,8 @@ def null_distribution_of(distribution: RankSumDistribution | None, u_a: float) -
         return None
     return NullDistribution(
         statistic="U of A",
-        support=tuple((distribution.twice_u / 2.0).tolist()),
-        probabilities=tuple(distribution.probabilities.tolist()),
+        support=FrozenFloats(distribution.twice_u / 2.0),
+        probabilities=FrozenFloats(distribution.probabilities),
         observed=float(u_a),
         exact=True,
     )
