@@ -6,7 +6,7 @@ import scipy.stats
 
 import rankwise.stats
 from rankwise.stats import midranks
-from rankwise.stats.ranks import rank_groups
+from rankwise.stats.ranks import midranks_on_grid_together_and_within, rank_groups
 
 
 def test_public_name_is_the_one_ranking():
@@ -94,3 +94,15 @@ def test_wide_whole_numbers_are_ranked_by_sorting_with_the_same_result():
     (ranks,), blocks = rank_groups([values], [values])
     np.testing.assert_array_equal(ranks, scipy.stats.rankdata(values))
     assert [(b.value, b.count) for b in blocks] == [(1e12, 2)]
+
+
+@pytest.mark.parametrize("spread", [3.0, 1e9])
+def test_ranks_together_and_within_each_group_agree_with_scipy(spread):
+    """scipy.stats.rankdata(method="average") of the groups together and of each group alone, for whole
+    numbers in a narrow range (one tally) and in a wide one (sorting)."""
+    rng = np.random.default_rng(int(spread) % 97)
+    groups = [np.rint(rng.normal(0.0, spread, n)) for n in (23, 31, 9)]
+    together, within = midranks_on_grid_together_and_within(groups)
+    np.testing.assert_array_equal(together, scipy.stats.rankdata(np.concatenate(groups), method="average"))
+    for ours, group in zip(within, groups):
+        np.testing.assert_array_equal(ours, scipy.stats.rankdata(group, method="average"))

@@ -13,6 +13,7 @@ def _seeded_groups():
         yield np.round(rng.normal(10.0, 0.02, n), 3)
         yield rng.normal(0.0, 10.0 ** rng.integers(-9, 10), n)
         yield rng.integers(-4, 5, n).astype(float)
+        yield rng.integers(-1, 2, n) * 0.0  # +0.0 and -0.0 readings (equal; numpy orders them either way)
 
 
 def test_quantiles_of_sorted_readings_are_numpys_floats():

@@ -133,6 +133,25 @@ def midranks_on_grid(counts: np.ndarray) -> np.ndarray:
     return _exact_midranks(array) if array.size else array.copy()
 
 
+def midranks_on_grid_together_and_within(groups: Sequence[np.ndarray]) -> tuple[np.ndarray, list[np.ndarray]]:
+    """``midranks_on_grid`` of the groups together (in entry order) and of each group alone, from one
+    tally when the readings are ranked by counting."""
+    arrays = [np.asarray(g, dtype=float).ravel() for g in groups]
+    combined = np.concatenate(arrays)
+    span = _counting_span(combined)
+    if span is None:
+        return midranks_on_grid(combined), [midranks_on_grid(g) for g in arrays]
+    offsets = _offsets(combined)
+    bounds = [0, *accumulate(g.size for g in arrays)]
+    within, tally = [], np.zeros(span, dtype=np.intp)
+    for start, end in zip(bounds[:-1], bounds[1:]):
+        # Steps left empty below a group's lowest reading change none of its cumulative counts.
+        group_tally = np.bincount(offsets[start:end], minlength=span)
+        within.append((np.cumsum(group_tally) - (group_tally - 1) / 2.0)[offsets[start:end]])
+        tally += group_tally
+    return (np.cumsum(tally) - (tally - 1) / 2.0)[offsets], within
+
+
 def rank_groups(counts: Sequence[np.ndarray], values: Sequence[np.ndarray]) -> tuple[list[np.ndarray], tuple[TieBlock, ...]]:
     """Rank several groups together.
 

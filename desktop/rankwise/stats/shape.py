@@ -21,7 +21,7 @@ from scipy import special as _special
 from scipy import stats as _dist
 
 from rankwise.stats.grid import Grid, find_grid
-from rankwise.stats.ranks import midranks, midranks_on_grid
+from rankwise.stats.ranks import midranks, midranks_on_grid, midranks_on_grid_together_and_within
 from rankwise.stats.results import BrunnerMunzelResult, MoodMedianResult, ShapeCheck
 from rankwise.stats.summary import linear_quantile, sorted_median
 
@@ -169,10 +169,10 @@ def brunner_munzel(a: np.ndarray, b: np.ndarray, alternative: str, grid: Grid | 
         return None
     grid = find_grid(a, b) if grid is None else grid
     counts_a, counts_b = grid.to_counts(a), grid.to_counts(b)
-    overall = midranks_on_grid(np.concatenate([counts_a, counts_b]))
+    overall, (within_a, within_b) = midranks_on_grid_together_and_within([counts_a, counts_b])
     overall_a, overall_b = overall[:n_a], overall[n_a:]
-    placement_a = overall_a - midranks_on_grid(counts_a)
-    placement_b = overall_b - midranks_on_grid(counts_b)
+    placement_a = overall_a - within_a
+    placement_b = overall_b - within_b
     var_a = float(np.sum((placement_a - placement_a.mean()) ** 2) / (n_a - 1))
     var_b = float(np.sum((placement_b - placement_b.mean()) ** 2) / (n_b - 1))
     pooled = n_a * var_a + n_b * var_b
@@ -206,12 +206,12 @@ def mood_median(groups: Sequence[np.ndarray], grid: Grid | None = None) -> MoodM
         return None
     grid = find_grid(*arrays) if grid is None else grid
     counts = [grid.to_counts(g) for g in arrays]
-    grand_count = float(np.median(np.concatenate(counts)))
-    above = np.array([int(np.sum(c > grand_count)) for c in counts])
-    not_above = np.array([c.size for c in counts]) - above
-    table = np.vstack([above, not_above]).astype(float)
-    if np.any(table.sum(axis=1) == 0):
+    grand_count = sorted_median(np.sort(np.concatenate(counts)))
+    above = [int(np.count_nonzero(c > grand_count)) for c in counts]
+    not_above = [c.size - k for c, k in zip(counts, above)]
+    if sum(above) == 0 or sum(not_above) == 0:
         return None
+    table = np.array([above, not_above], dtype=float)
     expected = np.outer(table.sum(axis=1), table.sum(axis=0)) / table.sum()
     deviation = np.abs(table - expected)
     if len(arrays) == 2:
@@ -219,7 +219,7 @@ def mood_median(groups: Sequence[np.ndarray], grid: Grid | None = None) -> MoodM
     statistic = float(np.sum(deviation**2 / expected))
     return MoodMedianResult(
         grand_median=float(grid.to_readings(grand_count)),
-        table=(tuple(int(v) for v in above), tuple(int(v) for v in not_above)),
+        table=(tuple(above), tuple(not_above)),
         statistic=statistic,
         p_value=float(_special.chdtrc(len(arrays) - 1, statistic)),
     )

@@ -42,6 +42,6 @@ def sorted_median(ordered: np.ndarray) -> float:
     """The median of ascending readings as numpy.median computes it: the middle reading, or the
     sum of the two middle ones halved."""
     middle = ordered.size // 2
-    if ordered.size % 2:
-        return float(ordered[middle])
-    return (float(ordered[middle - 1]) + float(ordered[middle])) / 2.0
+    if ordered.size % 2:  # numpy's mean adds from +0.0: a middle reading of -0.0 comes out as 0.0
+        return 0.0 + float(ordered[middle])
+    return (0.0 + float(ordered[middle - 1]) + float(ordered[middle])) / 2.0
