@@ -81,9 +81,10 @@ def _rank_by_counting(values: np.ndarray, sizes: Sequence[int], span: int) -> tu
     ends = np.cumsum(tally)
     ranks = (ends - (tally - 1) / 2.0)[offsets]
     tied = np.flatnonzero(tally > 1)
-    first = np.full(span, values.size)
-    np.minimum.at(first, offsets, np.arange(values.size))
-    ties = _Ties(starts=(ends - tally)[tied], ends=ends[tied], first_entries=first[tied], by_group=by_value[:, tied].T)
+    starts = (ends - tally)[tied]
+    # In a stable order by value, a block's first reading in entry order comes first.
+    first_entries = np.argsort(offsets, kind="stable")[starts]
+    ties = _Ties(starts=starts, ends=ends[tied], first_entries=first_entries, by_group=by_value[:, tied].T)
     return ranks, ties
 
 

@@ -63,7 +63,12 @@ def check_shape(a: np.ndarray, b: np.ndarray, grid: Grid | None = None) -> Shape
     ordered_a, ordered_b = np.sort(counts_a), np.sort(counts_b)
     median_a, median_b = 2.0 * sorted_median(ordered_a), 2.0 * sorted_median(ordered_b)
     aligned_a, aligned_b = 2.0 * counts_a - median_a, 2.0 * counts_b - median_b
-    dispersion_p = _fligner_killeen_p([np.abs(aligned_a), np.abs(aligned_b)])
+    # On a grid the deviations are whole numbers; below 2^52 they are their own grid at 0 decimals,
+    # where midranks_on_grid ranks them as midranks would, without the grid search.
+    largest = max(abs(2.0 * ordered_a[0] - median_a), abs(2.0 * ordered_a[-1] - median_a),
+                  abs(2.0 * ordered_b[0] - median_b), abs(2.0 * ordered_b[-1] - median_b))
+    dispersion_p = _fligner_killeen_p([np.abs(aligned_a), np.abs(aligned_b)],
+                                      on_own_grid=grid.decimals is not None and largest < 2.0**52)
     # The same map of every reading keeps the order: the aligned readings come out sorted.
     shape_p = _kolmogorov_smirnov_p(2.0 * ordered_a - median_a, 2.0 * ordered_b - median_b)
     readings_a, readings_b = np.sort(a), np.sort(b)
@@ -82,15 +87,16 @@ def check_shape(a: np.ndarray, b: np.ndarray, grid: Grid | None = None) -> Shape
     )
 
 
-def _fligner_killeen_p(deviations: Sequence[np.ndarray]) -> float:
+def _fligner_killeen_p(deviations: Sequence[np.ndarray], on_own_grid: bool = False) -> float:
     """Chi-square p of the Fligner-Killeen statistic on absolute deviations from group medians.
 
-    Deviations that are all equal carry no information about spread: p = 1.
+    Deviations that are all equal carry no information about spread: p = 1. ``on_own_grid``: the
+    deviations are whole numbers below 2^52, compared exactly as they are.
     """
     sizes = [d.size for d in deviations]
     combined = np.concatenate(deviations)
     total = combined.size
-    ranks = midranks_on_grid(combined) if _small_whole_numbers(combined) else midranks(combined)
+    ranks = midranks_on_grid(combined) if on_own_grid else midranks(combined)
     scores = _special.ndtri(ranks / (2.0 * (total + 1.0)) + 0.5)  # the normal quantile
     variance = float(np.var(scores, ddof=1))
     if not variance > 0.0:
@@ -100,12 +106,6 @@ def _fligner_killeen_p(deviations: Sequence[np.ndarray]) -> float:
     statistic = sum((end - start) * (scores[start:end].mean() - mean_score) ** 2
                     for start, end in zip(bounds[:-1], bounds[1:])) / variance
     return float(_special.chdtrc(len(sizes) - 1, statistic))  # chi-square upper tail
-
-
-def _small_whole_numbers(values: np.ndarray) -> bool:
-    """True when every value is a whole number below 2^52 in size: its own grid at 0 decimals, so
-    ``midranks_on_grid`` ranks it as ``midranks`` would, without the grid search."""
-    return bool((values == np.rint(values)).all() and np.abs(values).max(initial=0.0) < 2.0**52)
 
 
 def _kolmogorov_smirnov_p(x: np.ndarray, y: np.ndarray) -> float:
