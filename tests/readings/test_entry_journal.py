@@ -12,6 +12,7 @@ from hypothesis import strategies as st
 from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.readings.entry_journal import (
     PIECE_CELLS,
+    Piece,
     base_lines,
     change_lines,
     change_record,
@@ -150,3 +151,26 @@ def test_a_last_line_without_its_ending_is_left_out():
     sheet.delete_rows(0)
     journal.lines[-1] = journal.lines[-1].rstrip("\n")
     assert read_journal(journal.lines).snapshot == before
+
+
+@settings(max_examples=60, deadline=None)
+@given(columns=st.lists(st.lists(st.one_of(TEXTS, st.text(max_size=6)), max_size=12), min_size=1, max_size=3))
+def test_pieces_are_written_as_the_json_module_writes_them(columns):
+    """Each distinct cell is encoded once and reused; the lines are those ``json.dumps`` writes for the
+    cells one by one (the reference: the standard library's encoder, same separators)."""
+    import json
+
+    from rankwise.readings.entry_journal import _piece_line
+    from rankwise.readings.snapshot import cell_to_dict
+
+    sheet = ReadingSheet(decimal="auto")
+    for number, texts in enumerate(columns):
+        sheet.add_group()
+        sheet.paste_block(number, 0, [[text] for text in texts])
+    snapshot = sheet.snapshot()
+    lines = list(base_lines(snapshot, {}, ""))[1:]
+    expected = [json.dumps({"piece": [g, start, [cell_to_dict(cell) for cell in group.cells[start:start + PIECE_CELLS]]]},
+                           ensure_ascii=False, separators=(",", ":")) + "\n"
+                for g, group in enumerate(snapshot.groups) for start in range(0, len(group.cells), PIECE_CELLS)]
+    assert lines == expected
+    assert _piece_line(Piece(0, 3, ()), {}) == '{"piece":[0,3,[]]}\n'

@@ -118,14 +118,16 @@ def base_lines(snapshot: SheetSnapshot, question: dict[str, Any], source: str) -
         "sheet": sheet,
         "pieces": len(pieces),
     })
-    yield from (_piece_line(piece) for piece in pieces)
+    encoded: dict[int, str] = {}
+    yield from (_piece_line(piece, encoded) for piece in pieces)
 
 
 def change_lines(record: ChangeRecord) -> Iterator[str]:
     """The lines of one change: the change line, then its pieces."""
     yield _line({"change": record.rows or "cells", "first_row": record.first_row, "count": record.count,
                  "lengths": [list(pair) for pair in record.lengths], "pieces": len(record.pieces)})
-    yield from (_piece_line(piece) for piece in record.pieces)
+    encoded: dict[int, str] = {}
+    yield from (_piece_line(piece, encoded) for piece in record.pieces)
 
 
 def question_line(question: dict[str, Any]) -> str:
@@ -219,8 +221,25 @@ def _put(columns: list[list[Cell]], pieces: list[tuple[int, int, list[Cell]]]) -
         column[row:row + len(cells)] = cells
 
 
-def _piece_line(piece: Piece) -> str:
-    return _line({"piece": [piece.group, piece.row, [cell_to_dict(cell) for cell in piece.cells]]})
+def _piece_line(piece: Piece, encoded: dict[int, str]) -> str:
+    """The line ``_line({"piece": [group, row, [cell_to_dict(cell), ...]]})`` writes.
+
+    The cells of an opened file are shared by equal entries (an export of 10^6 readings has a few
+    hundred cell objects), and encoding each reading again held the interpreter lock for seconds
+    while the window was being typed in: each cell object is encoded once, ``encoded`` keeping its
+    text by ``id(cell)`` from piece to piece (the caller keeps every cell alive meanwhile, so no id
+    is reused). A piece of mostly new cells (typed ones) is encoded whole, as one list.
+    """
+    keys = list(map(id, piece.cells))
+    texts = list(map(encoded.get, keys))
+    if None in texts:
+        new = {key: cell for key, cell, text in zip(keys, piece.cells, texts) if text is None}
+        if len(new) > len(texts) // 4:
+            return _line({"piece": [piece.group, piece.row, [cell_to_dict(cell) for cell in piece.cells]]})
+        for key, cell in new.items():
+            encoded[key] = json.dumps(cell_to_dict(cell), ensure_ascii=False, separators=(",", ":"))
+        texts = list(map(encoded.get, keys))
+    return f'{{"piece":[{piece.group:d},{piece.row:d},[' + ",".join(texts) + "]]}\n"
 
 
 def _line(data: dict[str, Any]) -> str:
