@@ -60,7 +60,8 @@ def hodges_lehmann_shift(sorted_a: np.ndarray, sorted_b: np.ndarray) -> float:
     """Median of all b_j - a_i (the mean of the two middle differences when n_a n_b is even)."""
     total = len(sorted_a) * len(sorted_b)
     middle = [(total + 1) // 2, total // 2 + 1]
-    return float(np.mean(select_pairwise_differences(sorted_a, sorted_b, middle)))
+    low, high = select_pairwise_differences(sorted_a, sorted_b, middle).tolist()
+    return (0.0 + low + high) / 2.0  # numpy.mean's arithmetic: the sum starts from +0.0
 
 
 def moses_interval(sorted_a: np.ndarray, sorted_b: np.ndarray, critical: int | None) -> tuple[float, float]:
