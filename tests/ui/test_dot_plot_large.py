@@ -1,9 +1,10 @@
-"""The dots of a large result are chosen and placed on a thread of their own: the same drawing, once
+"""The dots of a large result are chosen and placed on a background thread: the same drawing, once
 ready, and never the dots of a result that is no longer asked for."""
 
 from __future__ import annotations
 
 import numpy as np
+import pytest
 
 from window_support import PATIENCE_MS
 
@@ -80,3 +81,33 @@ def test_the_dot_plot_sets_its_dots_at_once(qtbot):
     chart = _chart(qtbot)
     chart.show_result(*several_case())
     assert chart._dots and all(isinstance(item, SameLookDots) for item in chart._dots)
+
+
+def test_dots_and_ranks_are_worked_on_by_long_lived_background_threads(qtbot, monkeypatch):
+    """Large results are handed to the same few background threads, never to the window's thread,
+    and showing a result starts no thread (starting one made the window wait for it)."""
+    import threading
+
+    import rankwise.ui.rank_table as rank_table
+    from rankwise.ui import background
+
+    monkeypatch.setattr(dot_plot, "LARGE_VIEW_READINGS", 0)
+    monkeypatch.setattr(rank_table, "LARGE_RESULT_READINGS", 0)
+    worked_on = []
+    place, contents = dot_plot._place_dots, rank_table._contents
+    monkeypatch.setattr(dot_plot, "_place_dots", lambda view: (worked_on.append(threading.current_thread()), place(view))[1])
+    monkeypatch.setattr(rank_table, "_contents",
+                        lambda *case: (worked_on.append(threading.current_thread()), contents(*case))[1])
+    chart, table = _chart(qtbot), rank_table.RankTable()
+    qtbot.addWidget(table)
+    chart.show_result(*several_case())  # the first hand-off may start the threads
+    qtbot.waitUntil(lambda: chart.view is not None, timeout=PATIENCE_MS)
+    started = threading.Thread.start
+    monkeypatch.setattr(threading.Thread, "start", lambda thread: pytest.fail("a thread was started"))
+    for number, case in enumerate((paired_case(), several_case(), paired_case())):
+        chart.show_result(*case)
+        table.show_result(*case)
+        qtbot.waitUntil(lambda done=3 + 2 * number: len(worked_on) == done, timeout=PATIENCE_MS)
+    monkeypatch.setattr(threading.Thread, "start", started)
+    assert threading.main_thread() not in worked_on
+    assert set(worked_on) <= set(background._threads) and len(background._threads) == background.THREADS

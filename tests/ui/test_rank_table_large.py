@@ -1,4 +1,4 @@
-"""A large result's rank table is sorted on a thread of its own: the same table, once ready, and
+"""A large result's rank table is sorted on a background thread: the same table, once ready, and
 never the table of a result that is no longer shown."""
 
 from __future__ import annotations

@@ -8,7 +8,6 @@ same-parts question it lists the differences ranked by size with their signs.
 from __future__ import annotations
 
 import functools
-import threading
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
@@ -19,6 +18,7 @@ from PySide6.QtGui import QBrush, QColor, QFont
 from PySide6.QtWidgets import QLabel, QTableView, QVBoxLayout, QWidget
 
 from rankwise.stats.results import PairedResult, SeveralGroupsResult, TieBlock, TwoGroupResult
+from rankwise.ui.background import hand_off
 from rankwise.wording.numbers import format_count, format_reading, with_mark
 from rankwise.wording.questions import decimals_of
 
@@ -29,7 +29,7 @@ TIE_TINT = QColor("#e8eef7")
 """Background of alternate tie blocks; the bracket marks and the words carry the meaning too."""
 
 LARGE_RESULT_READINGS = 50_000
-"""A result with more readings than this is sorted for the table on a thread of its own; until that is
+"""A result with more readings than this is sorted for the table on a background thread; until that is
 done the table stands empty and says so."""
 
 
@@ -335,8 +335,8 @@ class RankTable(QWidget):
         self.sums.setMinimumHeight(self._sums_height())
 
     def show_result(self, result, analysis) -> None:
-        """Fill the table from a result of the statistics service; a large one is sorted on a thread
-        of its own meanwhile (the table stands empty until then)."""
+        """Fill the table from a result of the statistics service; a large one is sorted on a background
+        thread meanwhile (the table stands empty until then)."""
         if _readings_in(result) <= LARGE_RESULT_READINGS:
             contents = _contents(result, analysis)
             if contents is None:
@@ -355,7 +355,7 @@ class RankTable(QWidget):
             except RuntimeError:  # the window closed meanwhile
                 pass
 
-        threading.Thread(target=sort, name="rankwise-rank-table", daemon=True).start()
+        hand_off(sort)
 
     def _fill(self, shown: int, contents: _Contents) -> None:
         if shown != self._shown:

@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import threading
 from dataclasses import dataclass
 
 import numpy as np
@@ -10,6 +9,7 @@ import pyqtgraph as pg
 from PySide6.QtCore import Signal
 
 from rankwise.stats import Analysis
+from rankwise.ui.background import hand_off
 from rankwise.ui.charts import style
 from rankwise.ui.charts.chart_frame import ChartFrame
 from rankwise.ui.charts.readings_view import ReadingsView, stacked_offsets
@@ -28,7 +28,7 @@ DOT_LIMIT = 4000
 (for the same parts measured twice, every k-th part), so that a 10^6-reading export draws at once.
 The median bars, the limits and the rank table still use every reading."""
 LARGE_VIEW_READINGS = 50_000
-"""With more readings than this the dots are chosen and placed on a thread of their own; the chart
+"""With more readings than this the dots are chosen and placed on a background thread; the chart
 shows them when that is done."""
 
 TOOLTIP = (
@@ -74,7 +74,7 @@ class _Dots:
 
 
 def _place_dots(view: ReadingsView) -> _Dots:
-    """The dots of ``view`` placed (numpy only: it may run on a thread of its own)."""
+    """The dots of ``view`` placed (numpy only: it may run on a background thread)."""
     arrays = [np.asarray(group, dtype=float) for group in view.values]
     drawn = _sample(arrays, view.paired)
     positions = [index + stacked_offsets(values, spacing=TIE_SPACING, half_width=MEDIAN_HALF_WIDTH - 0.04)
@@ -184,7 +184,7 @@ class ReadingsDotPlot(ChartFrame):
             except RuntimeError:  # the window closed meanwhile
                 pass
 
-        threading.Thread(target=place, name="rankwise-dot-plot", daemon=True).start()
+        hand_off(place)
 
     def _draw(self, asked: int, view: ReadingsView, dots: _Dots) -> None:
         if asked != self._asked:
