@@ -9,6 +9,7 @@ from datetime import datetime, timezone
 
 import pytest
 from PySide6.QtCore import Qt
+from PySide6.QtWidgets import QLabel
 
 from window_support import DEMO_FILES, PATIENCE_MS, answers, screenshot, wait_for_verdict, window  # noqa: F401
 
@@ -167,3 +168,24 @@ def test_window_and_report_agree_and_both_records_verify(qtbot, window, answers,
     assert from_window.result.p_value == from_report.result.p_value
     assert from_window.analysis.notes == from_report.analysis.notes
     assert from_window.snapshot.parts == from_report.snapshot.parts
+
+
+def test_on_a_small_screen_the_message_that_the_question_changed_is_read_whole(qtbot, window, answers, monkeypatch):
+    """At 1024 x 700 the message naming the question a file was set to, and why, ran under the
+    decimal-mark label and off the window's edge; it now wraps onto as many lines as it needs, and the
+    readings' counts come back when it goes."""
+    window.resize(1024, 700)
+    qtbot.waitUntil(lambda: window.width() == 1024, timeout=PATIENCE_MS)
+    _open_through_the_dialog(qtbot, window, answers, monkeypatch, COATING)
+    bar = window.statusBar()
+    message = bar.currentMessage()
+    assert "The question was set to 'Same parts: before vs after?'" in message and message.endswith("'Part'.")
+    shown = next(label for label in bar.findChildren(QLabel) if label.isVisible() and label.text() == message)
+    qtbot.waitUntil(lambda: shown.height() >= shown.heightForWidth(shown.width()), timeout=PATIENCE_MS)
+    permanent = [label for label in (window.status_decimal, window.status_state) if label.isVisible() and label.text()]
+    assert shown.geometry().right() < min((label.x() for label in permanent), default=bar.width())
+    assert not window.status_counts.isVisible()
+    screenshot(window, "window-small-question-set-message")
+    bar.clearMessage()
+    assert bar.currentMessage() == "" and not shown.isVisible()
+    qtbot.waitUntil(window.status_counts.isVisible, timeout=PATIENCE_MS)

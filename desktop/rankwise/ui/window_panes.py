@@ -24,6 +24,7 @@ from rankwise.ui.chart_tab import ChartTab
 from rankwise.ui.elided_label import ElidedLabel
 from rankwise.ui.screen_fit import fit_to_screen
 from rankwise.ui.signed_strip import SignedStrip
+from rankwise.ui.status_line import StatusLine
 
 NARROW_WIDTH = 1280
 """Below this window width (in Qt's scaled pixels) the question and the sheet fold into tabs."""
@@ -194,6 +195,7 @@ class WindowPanes:
         self.setCentralWidget(self.main_splitter)
         self._narrow: bool | None = None
         self._arrange_panes()
+        self.setStatusBar(StatusLine())
         self.status_counts = ElidedLabel()
         self.status_counts.setAccessibleName("Readings per group")
         self.status_state = QLabel()
