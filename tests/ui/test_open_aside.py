@@ -8,7 +8,7 @@ import threading
 import pytest
 from PySide6.QtCore import QTimer
 
-from window_support import DEMO_FILES, answers, reading_threads, wait_for_verdict, window  # noqa: F401 - pytest fixtures
+from window_support import DEMO_FILES, PATIENCE_MS, answers, reading_threads, wait_for_verdict, window  # noqa: F401 - pytest fixtures
 
 import rankwise.readings.open as opening
 import rankwise.ui.window_files as window_files
@@ -60,3 +60,28 @@ def test_the_sheet_of_a_large_file_from_the_open_dialog_is_built_aside(qtbot, wi
     expected = real_build(ReadingSheet, reading_set)
     assert [(g.name, g.cells) for g in window.sheet.groups] == [(g.name, g.cells) for g in expected.groups]
     wait_for_verdict(qtbot, window)
+
+
+def test_what_the_window_first_asks_of_a_large_files_sheet_is_worked_out_aside(qtbot, window, monkeypatch):
+    """The flags, counts and planner's values of a large file's sheet are worked out on the thread
+    that builds the sheet; showing it asks them again of the kept answers, not of every reading."""
+    import rankwise.readings.column_arrays as column_arrays
+
+    worked_on = []
+    real_flags, real_count = column_arrays.flag_rows, column_arrays.ColumnArrays._count
+    monkeypatch.setattr(column_arrays, "flag_rows",
+                        lambda *args, **kwargs: (worked_on.append(threading.current_thread()), real_flags(*args, **kwargs))[1])
+    monkeypatch.setattr(column_arrays.ColumnArrays, "_count",
+                        lambda arrays: (worked_on.append(threading.current_thread()), real_count(arrays))[1])
+    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+    assert window.open_path(PATH)
+    qtbot.waitUntil(lambda: window.opening is None, timeout=PATIENCE_MS)
+    wait_for_verdict(qtbot, window)
+    window.grid.viewport().repaint()
+    assert worked_on and threading.main_thread() not in worked_on
+    assert window.sheet.flags(0) == real_flags(*_measured(window.sheet.groups[0]), lambda row: window.sheet.cell(0, row).text)
+
+
+def _measured(column):
+    arrays = column.arrays()
+    return arrays.reading_rows(), arrays.measured()

@@ -8,11 +8,12 @@ belong to a list of cells; anything else that replaces the list gets fresh array
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Callable, Sequence
 
 import numpy as np
 
 from rankwise.readings.cells import Cell, CellKind, GroupCounts
+from rankwise.readings.suspicious import flag_rows
 
 KIND_CODES = {CellKind.EMPTY: 0, CellKind.NUMBER: 1, CellKind.NOTE: 2, CellKind.CENSORED: 3, CellKind.INVALID: 4}
 """The code of each kind of cell in ``ColumnArrays.kinds``."""
@@ -125,6 +126,15 @@ class ColumnArrays:
         if "decimals" not in self._answers:
             self._answers["decimals"] = int(self.decimals.max()) if self.decimals.size else NO_DECIMALS
         return self._answers["decimals"]
+
+    def flags(self, text_of: Callable[[int], str], lsl: float | None, usl: float | None,
+              unit: str) -> dict[int, tuple[str, ...]]:
+        """``rankwise.readings.suspicious.flag_rows`` of the measured readings (``text_of(row)``: a
+        row's text), kept until the next change; the caller must not change what it returns."""
+        key = ("flags", lsl, usl, unit)
+        if key not in self._answers:
+            self._answers[key] = flag_rows(self.reading_rows(), self.measured(), text_of, lsl=lsl, usl=usl, unit=unit)
+        return self._answers[key]
 
     def measured(self) -> np.ndarray:
         """The measured readings in row order (readings below a detection limit, notes and blanks left

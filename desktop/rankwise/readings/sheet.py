@@ -20,7 +20,6 @@ from rankwise.readings.group_names import next_group_names
 from rankwise.readings import decimal_mark
 from rankwise.readings.parse import check_decimal, parse_reading
 from rankwise.readings.snapshot import GroupSnapshot, RowParts, SheetSnapshot
-from rankwise.readings.suspicious import flag_rows
 
 if TYPE_CHECKING:
     from rankwise.readings.reading_set import ReadingSet
@@ -236,9 +235,7 @@ class ReadingSheet:
     def flags(self, group: int) -> dict[int, tuple[str, ...]]:
         """Suspicious readings of a group by row (slipped decimal point, beyond LSL/USL); never changed."""
         column = self.groups[self._group_index(group)]
-        arrays = column.arrays()
-        return flag_rows(arrays.reading_rows(), arrays.measured(), lambda row: column.cells[row].text,
-                         lsl=column.lsl, usl=column.usl, unit=column.unit)
+        return column.arrays().flags(lambda row: column.cells[row].text, column.lsl, column.usl, column.unit)
 
     def counts(self, group: int) -> GroupCounts:
         """How many readings of a group are used, skipped, censored, and how many blanks lie between them

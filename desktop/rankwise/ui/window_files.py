@@ -36,8 +36,14 @@ LARGE_FILE_BYTES = 2_000_000
 def _sheet_of(reading_set) -> ReadingSheet:
     sheet = ReadingSheet.from_reading_set(reading_set)
     sheet.mark_saved()
-    for group in sheet.groups:
-        group.arrays()  # made here, on the opening thread for a large file; the window's edits keep them
+    for index, group in enumerate(sheet.groups):
+        # Made here, on the opening thread for a large file: the arrays (the window's edits keep them
+        # in step), and what the window asks of them as it shows the sheet (counts, flags, the planner's values).
+        arrays = group.arrays()
+        sheet.counts(index)
+        sheet.flags(index)
+        arrays.squares_about_mean()
+        arrays.finest_decimals()
     return sheet
 
 
