@@ -1,6 +1,8 @@
 """Many characteristics in plain words: outcome, share of tolerance, the beyond-a-limit mark, headline."""
 
 import pytest
+import scipy.stats
+from statsmodels.stats.multitest import multipletests
 
 from rankwise.stats import Analysis, Characteristic, GroupReadings, Question, Settings, run
 from rankwise.wording import CAUTION_SHORT, describe
@@ -8,6 +10,7 @@ from rankwise.wording.characteristics import (
     BEYOND_LIMIT_MARK,
     MOVED_UP,
     NO_CHANGE,
+    NOT_AFTER_ADJUSTMENT,
     SAME_WITHIN,
     beyond_limit,
     summary_lines,
@@ -62,3 +65,29 @@ def test_no_adjustment_is_said_in_the_verdict():
     analysis = analysis_of([("depth", A, A, None), ("pitch", A, A, None)], adjust="none")
     verdict = describe(run(analysis), analysis)
     assert "not adjusted" in verdict.sentences[0]
+
+
+def test_significant_only_on_its_own_is_said_so_beside_an_interval_that_leaves_out_no_change():
+    """A characteristic at p = 0.041 alone (scipy.stats.mannwhitneyu exact, no ties) among three compared:
+    Holm's adjusted p (statsmodels multipletests) is above 5 %, while its 95 % interval leaves out zero.
+    The summary must not put "no change shown" beside that interval without saying why."""
+    moved = tuple(round(v + 0.3, 2) for v in A)
+    depth_a = (9.91, 9.96, 10.01, 10.04, 10.08, 9.98)
+    depth_b = (10.05, 10.09, 10.03, 10.11, 10.02, 10.12)
+    analysis = analysis_of([("bore", A, moved, None), ("depth", depth_a, depth_b, None), ("pitch", A, A, None)])
+    result = run(analysis)
+    depth = result.rows[1]
+    assert depth.result.p_value == pytest.approx(scipy.stats.mannwhitneyu(depth_b, depth_a, method="exact").pvalue, abs=1e-12)
+    assert depth.result.p_value <= 0.05 and depth.result.shift_ci.low > 0.0
+    holm = multipletests([row.result.p_value for row in result.rows], alpha=0.05, method="holm")[1]
+    assert depth.p_adjusted == pytest.approx(holm[1], abs=1e-12) and depth.p_adjusted > 0.05
+    lines = summary_lines(result, analysis)
+    assert [line.outcome for line in lines] == [MOVED_UP, NOT_AFTER_ADJUSTMENT, NO_CHANGE]
+    verdict = describe(result, analysis)
+    assert verdict.headline.startswith("1 of 3 characteristics was shown to move")
+    assert "Taken alone, depth would count as moved" in " ".join(verdict.sentences)
+    assert any("95 % confidence interval of that characteristic's shift on its own" in s for s in verdict.sentences)
+    alone = analysis_of([("depth", depth_a, depth_b, None)], adjust="none")
+    alone_result = run(alone)
+    assert [line.outcome for line in summary_lines(alone_result, alone)] == [MOVED_UP]
+    assert "Taken alone" not in " ".join(describe(alone_result, alone).sentences)

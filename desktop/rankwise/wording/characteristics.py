@@ -19,7 +19,10 @@ CHARACTERISTICS_FOUND = ("One row per part, a column naming the process and a co
 
 MOVED_UP, MOVED_DOWN = "moved up", "moved down"
 NO_CHANGE, SAME_WITHIN = "no change shown", "same within the margin"
-"""The plain-words outcomes of one characteristic."""
+NOT_AFTER_ADJUSTMENT = "not shown after adjustment"
+"""The plain-words outcomes of one characteristic; the last for one that would count as moved on its
+own (p at or below the level, its interval leaving out no change) but not once the p-values are
+adjusted for the number compared."""
 
 BEYOND_LIMIT_MARK = "▲ beyond a limit"
 """Beside a characteristic whose B centre, by the shift's interval, may lie beyond LSL or USL:
@@ -56,14 +59,15 @@ class SummaryLine:
 
 
 def outcome(row: CharacteristicRow) -> str:
-    """"same within the margin", "moved up", "moved down" or "no change shown" (by the adjusted p)."""
+    """"same within the margin", "moved up", "moved down" (by the adjusted p), "not shown after
+    adjustment" (significant only on its own) or "no change shown"."""
     result = row.result
     if result.equivalent:
         return SAME_WITHIN
     if row.significant:
         upward = result.shift > 0 if result.shift else result.prob_b_greater > 0.5
         return MOVED_UP if upward else MOVED_DOWN
-    return NO_CHANGE
+    return NOT_AFTER_ADJUSTMENT if result.significant else NO_CHANGE
 
 
 def tolerance_share(row: CharacteristicRow, item: Characteristic) -> float | None:
@@ -134,6 +138,24 @@ def adjustment_sentence(result: CharacteristicsResult) -> str:
     return f"p-values adjusted for the {len(result.rows)} characteristics compared {words}."
 
 
+def interval_sentence(result: CharacteristicsResult) -> str:
+    """What the intervals (one-sided questions: bounds) are: each characteristic's own, at the comparison's confidence."""
+    kind = "interval" if result.alternative == "two-sided" else "bound"
+    return (f"Each {kind} is the {format_level(result.confidence)} confidence {kind} of that characteristic's "
+            "shift on its own, not adjusted for the number compared.")
+
+
+def alone_sentence(lines: tuple[SummaryLine, ...], names: list[str], result: CharacteristicsResult) -> str:
+    """Which characteristics would count as moved on their own but not after the adjustment, or ""."""
+    alone = [name for name, line in zip(names, lines) if line.outcome == NOT_AFTER_ADJUSTMENT]
+    if not alone:
+        return ""
+    they = "it is" if len(alone) == 1 else "they are"
+    return (f"Taken alone, {', '.join(alone)} would count as moved (p at or below {format_level(result.alpha)}, "
+            f"{'the interval' if result.alternative == 'two-sided' else 'the bound'} leaves out no change); among the {len(result.rows)} characteristics compared this "
+            f"may be chance, so {they} not shown to move.")
+
+
 def limit_sentence(lines: tuple[SummaryLine, ...], names: list[str]) -> str:
     """Which characteristics are marked because their B centre may lie beyond a limit, or ""."""
     marked = [name for name, line in zip(names, lines) if line.beyond_limit]
@@ -148,7 +170,10 @@ def describe_characteristics(result: CharacteristicsResult, analysis: Analysis) 
     lines = summary_lines(result, analysis)
     names = [row.name for row in result.rows]
     same = [name for name, line in zip(names, lines) if line.outcome == SAME_WITHIN]
-    sentences = [adjustment_sentence(result)]
+    sentences = [adjustment_sentence(result), interval_sentence(result)]
+    alone = alone_sentence(lines, names, result)
+    if alone:
+        sentences.append(alone)
     if same:
         sentences.append(f"Shown to be the same within their margins: {', '.join(same)}.")
     marks = limit_sentence(lines, names)
