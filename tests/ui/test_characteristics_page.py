@@ -70,3 +70,23 @@ def test_rendered_summary_pages_are_saved_for_looking_at(qapp, tmp_path, records
             subprocess.run(["pdftoppm", "-png", "-r", "60", str(path), str(SCREENSHOTS / path.stem)], check=True,
                            timeout=60)
             assert (SCREENSHOTS / f"{path.stem}-1.png").exists()
+
+
+@pytest.mark.parametrize("page_size", ["A4", "Letter"])
+def test_every_outcome_stands_whole_in_its_column(qapp, tmp_path, page_size):
+    """The outcome column once cut "same within the margin" to "same within the m…"; the page writes the
+    short form "same within margin", and "not shown overall" (a move seen only alone) fits as it is."""
+    from rankwise.wording.characteristics import NOT_AFTER_ADJUSTMENT, SAME_WITHIN_SHORT
+
+    table = open_characteristics(DEMO)
+    within = table.to_analysis("old die", "new die", settings=Settings(adjust="holm"), margin_share=0.3)
+    record = ResultRecord.now(within, table.snapshot("old die", "new die"), run(within), signed())
+    path = tmp_path / f"within-{page_size}.pdf"
+    write_verdict_pdf(path, record, page_size)
+    text = page_text(path)
+    assert text.count(SAME_WITHIN_SHORT) == 10 and "…" not in text.split("Outcome", 1)[1].split("Characteristics compared")[0]
+    alone = replace(record, result=replace(record.result, rows=tuple(
+        replace(row, significant=False) if row.name == "Bore depth" else row for row in record.result.rows)))
+    path = tmp_path / f"alone-{page_size}.pdf"
+    write_verdict_pdf(path, alone, page_size)
+    assert NOT_AFTER_ADJUSTMENT in page_text(path)

@@ -19,7 +19,7 @@ CHARACTERISTICS_FOUND = ("One row per part, a column naming the process and a co
 
 MOVED_UP, MOVED_DOWN = "moved up", "moved down"
 NO_CHANGE, SAME_WITHIN = "no change shown", "same within the margin"
-NOT_AFTER_ADJUSTMENT = "not shown after adjustment"
+NOT_AFTER_ADJUSTMENT = "not shown overall"
 """The plain-words outcomes of one characteristic; the last for one that would count as moved on its
 own (p at or below the level, its interval leaving out no change) but not once the p-values are
 adjusted for the number compared."""
@@ -29,6 +29,8 @@ BEYOND_LIMIT_MARK = "▲ beyond a limit"
 a symbol and words, never colour alone."""
 BEYOND_LIMIT_SHORT = "▲ beyond"
 """The same mark where room is short (the one-page summary), explained in the verdict's sentences."""
+SAME_WITHIN_SHORT = "same within margin"
+"""The outcome "same within the margin" where room is short (the one-page summary)."""
 
 ADJUST_WORDS = {
     "holm": "by Holm (1979): the chance of any false alarm among all of them stays within the {level} level",
@@ -59,8 +61,8 @@ class SummaryLine:
 
 
 def outcome(row: CharacteristicRow) -> str:
-    """"same within the margin", "moved up", "moved down" (by the adjusted p), "not shown after
-    adjustment" (significant only on its own) or "no change shown"."""
+    """"same within the margin", "moved up", "moved down" (by the adjusted p), "not shown overall"
+    (significant only on its own) or "no change shown"."""
     result = row.result
     if result.equivalent:
         return SAME_WITHIN
@@ -153,7 +155,7 @@ def alone_sentence(lines: tuple[SummaryLine, ...], names: list[str], result: Cha
     they = "it is" if len(alone) == 1 else "they are"
     return (f"Taken alone, {', '.join(alone)} would count as moved (p at or below {format_level(result.alpha)}, "
             f"{'the interval' if result.alternative == 'two-sided' else 'the bound'} leaves out no change); among the {len(result.rows)} characteristics compared this "
-            f"may be chance, so {they} not shown to move.")
+            f"may be chance, so overall {they} not shown to move.")
 
 
 def limit_sentence(lines: tuple[SummaryLine, ...], names: list[str]) -> str:

@@ -14,7 +14,14 @@ from rankwise.ui.printing.page_content import PageContent
 from rankwise.ui.printing.page_layout import MUTED_INK, PagePlan, _Composer, draw_verdict_page
 from rankwise.ui.printing.page_text import line_height, page_font
 from rankwise.wording import QUESTION_TITLES, describe, describe_question, key_numbers
-from rankwise.wording.characteristics import BEYOND_LIMIT_SHORT, COLUMNS, SummaryLine, summary_lines
+from rankwise.wording.characteristics import (
+    BEYOND_LIMIT_SHORT,
+    COLUMNS,
+    SAME_WITHIN,
+    SAME_WITHIN_SHORT,
+    SummaryLine,
+    summary_lines,
+)
 
 PAGE_ROWS = 40
 """Characteristics listed on the page; the rest are named as kept in the workbook."""
@@ -84,6 +91,8 @@ class _SummaryComposer(_Composer):
                 text = " / ".join(line.texts[_AT[name]] for name in picks)
                 if picks == ("Limit",) and line.beyond_limit:
                     text = BEYOND_LIMIT_SHORT
+                if picks == ("Outcome",) and line.outcome == SAME_WITHIN:
+                    text = SAME_WITHIN_SHORT
                 unit = line.texts[_AT["Unit"]]
                 if picks == ("Characteristic",) and unit:
                     text = f"{text} ({unit})"
