@@ -74,9 +74,17 @@ def test_rendered_summary_pages_are_saved_for_looking_at(qapp, tmp_path, records
 
 @pytest.mark.parametrize("page_size", ["A4", "Letter"])
 def test_every_outcome_stands_whole_in_its_column(qapp, tmp_path, page_size):
-    """The outcome column once cut "same within the margin" to "same within the m…"; the page writes the
-    short form "same within margin", and "not shown overall" (a move seen only alone) fits as it is."""
-    from rankwise.wording.characteristics import NOT_AFTER_ADJUSTMENT, SAME_WITHIN_SHORT
+    """The outcome column once cut "same within the margin" to "same within the m…"; the page writes short
+    forms ("same within margin", "up, in margin"), and "not shown overall" (a move seen only on its
+    own) fits as it is. With a margin of 30 % of the tolerance the housing has 8 characteristics the same
+    within it, and face flatness (up) and port diameter (down) moved by less than it."""
+    from rankwise.wording.characteristics import (
+        MOVED_DOWN_WITHIN,
+        MOVED_UP_WITHIN,
+        NOT_AFTER_ADJUSTMENT,
+        SAME_WITHIN,
+        SHORT_OUTCOMES,
+    )
 
     table = open_characteristics(DEMO)
     within = table.to_analysis("old die", "new die", settings=Settings(adjust="holm"), margin_share=0.3)
@@ -84,7 +92,10 @@ def test_every_outcome_stands_whole_in_its_column(qapp, tmp_path, page_size):
     path = tmp_path / f"within-{page_size}.pdf"
     write_verdict_pdf(path, record, page_size)
     text = page_text(path)
-    assert text.count(SAME_WITHIN_SHORT) == 10 and "…" not in text.split("Outcome", 1)[1].split("Characteristics compared")[0]
+    outcomes = text.split("Outcome", 1)[1].split("Characteristics compared")[0]
+    assert "…" not in outcomes
+    assert (outcomes.count(SHORT_OUTCOMES[SAME_WITHIN]), outcomes.count(SHORT_OUTCOMES[MOVED_UP_WITHIN]),
+            outcomes.count(SHORT_OUTCOMES[MOVED_DOWN_WITHIN])) == (8, 1, 1)
     alone = replace(record, result=replace(record.result, rows=tuple(
         replace(row, significant=False) if row.name == "Bore depth" else row for row in record.result.rows)))
     path = tmp_path / f"alone-{page_size}.pdf"

@@ -9,10 +9,12 @@ from rankwise.wording import CAUTION_SHORT, describe
 from rankwise.wording.characteristics import (
     BEYOND_LIMIT_MARK,
     MOVED_UP,
+    MOVED_UP_WITHIN,
     NO_CHANGE,
     NOT_AFTER_ADJUSTMENT,
     SAME_WITHIN,
     beyond_limit,
+    characteristics_key_numbers,
     summary_lines,
     tolerance_share,
 )
@@ -91,3 +93,19 @@ def test_significant_only_on_its_own_is_said_so_beside_an_interval_that_leaves_o
     alone_result = run(alone)
     assert [line.outcome for line in summary_lines(alone_result, alone)] == [MOVED_UP]
     assert "Taken alone" not in " ".join(describe(alone_result, alone).sentences)
+
+
+def test_a_move_inside_its_margin_counts_as_moved_and_says_it_stays_inside():
+    """B is A moved by 0.3 (p = 2 / C(12, 6), brute-force count of splits) with a margin of 1.0: the move is
+    shown and so is that it stays inside the margin. It counts among the moved, as "Shown to move" says."""
+    moved = tuple(round(v + 0.3, 2) for v in A)
+    analysis = analysis_of([("bore", A, moved, 1.0), ("pitch", A, A, None)])
+    result = run(analysis)
+    bore = result.rows[0]
+    assert bore.significant and bore.result.equivalent
+    assert [line.outcome for line in summary_lines(result, analysis)] == [MOVED_UP_WITHIN, NO_CHANGE]
+    verdict = describe(result, analysis)
+    assert verdict.headline == "1 of 2 characteristics was shown to move from old to new: bore."
+    assert "Shown to move, but by less than its margin (two one-sided tests, each at the 5 % level): bore." in verdict.sentences
+    numbers = {number.key: number.value for number in characteristics_key_numbers(result, analysis)}
+    assert numbers["moved"] == 1

@@ -11,6 +11,7 @@ from dataclasses import dataclass
 from rankwise.stats.analysis import Analysis, Characteristic
 from rankwise.stats.results import CharacteristicRow, CharacteristicsResult
 from rankwise.wording.numbers import MISSING, format_centre, format_level, format_p, format_percent
+from rankwise.wording.phrases import level_phrase
 from rankwise.wording.verdict_types import KeyNumber, Verdict, cautioned_verdict
 
 CHARACTERISTICS_FOUND = ("One row per part, a column naming the process and a column per characteristic: "
@@ -18,19 +19,24 @@ CHARACTERISTICS_FOUND = ("One row per part, a column naming the process and a co
 """What the open dialog says when a file fits the many-characteristics question."""
 
 MOVED_UP, MOVED_DOWN = "moved up", "moved down"
+MOVED_UP_WITHIN, MOVED_DOWN_WITHIN = "moved up, within the margin", "moved down, within the margin"
 NO_CHANGE, SAME_WITHIN = "no change shown", "same within the margin"
 NOT_AFTER_ADJUSTMENT = "not shown overall"
-"""The plain-words outcomes of one characteristic; the last for one that would count as moved on its
-own (p at or below the level, its interval leaving out no change) but not once the p-values are
-adjusted for the number compared."""
+"""The plain-words outcomes of one characteristic. "Within the margin": the move is shown, and so is
+that it stays inside the margin (two one-sided tests). "Not shown overall": it would
+count as moved on its own (p at or below the level, its interval leaving out no change) but not once
+the p-values are adjusted for the number compared."""
+MOVED = (MOVED_UP, MOVED_DOWN, MOVED_UP_WITHIN, MOVED_DOWN_WITHIN)
+"""The outcomes that count as shown to move (by the adjusted p)."""
 
 BEYOND_LIMIT_MARK = "▲ beyond a limit"
 """Beside a characteristic whose B centre, by the shift's interval, may lie beyond LSL or USL:
 a symbol and words, never colour alone."""
 BEYOND_LIMIT_SHORT = "▲ beyond"
 """The same mark where room is short (the one-page summary), explained in the verdict's sentences."""
-SAME_WITHIN_SHORT = "same within margin"
-"""The outcome "same within the margin" where room is short (the one-page summary)."""
+SHORT_OUTCOMES = {SAME_WITHIN: "same within margin", MOVED_UP_WITHIN: "up, in margin",
+                  MOVED_DOWN_WITHIN: "down, in margin"}
+"""Outcomes in fewer words where room is short (the one-page summary)."""
 
 ADJUST_WORDS = {
     "holm": "by Holm (1979): the chance of any false alarm among all of them stays within the {level} level",
@@ -61,14 +67,17 @@ class SummaryLine:
 
 
 def outcome(row: CharacteristicRow) -> str:
-    """"same within the margin", "moved up", "moved down" (by the adjusted p), "not shown overall"
-    (significant only on its own) or "no change shown"."""
+    """"moved up" or "moved down" (by the adjusted p), either with ", within the margin" when the
+    shift is also shown to stay inside its margin; "same within the margin"; "not shown overall"
+    (significant only on its own); or "no change shown"."""
     result = row.result
-    if result.equivalent:
-        return SAME_WITHIN
     if row.significant:
         upward = result.shift > 0 if result.shift else result.prob_b_greater > 0.5
+        if result.equivalent:
+            return MOVED_UP_WITHIN if upward else MOVED_DOWN_WITHIN
         return MOVED_UP if upward else MOVED_DOWN
+    if result.equivalent:
+        return SAME_WITHIN
     return NOT_AFTER_ADJUSTMENT if result.significant else NO_CHANGE
 
 
@@ -122,7 +131,7 @@ def _centre(value: float | None, decimals: int | None, mark: str) -> str:
 def headline(result: CharacteristicsResult, analysis: Analysis) -> str:
     """One sentence: how many characteristics moved, and which."""
     lines = summary_lines(result, analysis)
-    moved = [row.name for row, line in zip(result.rows, lines) if line.outcome in (MOVED_UP, MOVED_DOWN)]
+    moved = [row.name for row, line in zip(result.rows, lines) if line.outcome in MOVED]
     total = len(result.rows)
     if not moved:
         return (f"No characteristic of the {total} was shown to move from {result.name_a} to "
@@ -178,6 +187,10 @@ def describe_characteristics(result: CharacteristicsResult, analysis: Analysis) 
         sentences.append(alone)
     if same:
         sentences.append(f"Shown to be the same within their margins: {', '.join(same)}.")
+    within = [name for name, line in zip(names, lines) if line.outcome in (MOVED_UP_WITHIN, MOVED_DOWN_WITHIN)]
+    if within:
+        sentences.append(f"Shown to move, but by less than {'its margin' if len(within) == 1 else 'their margins'} "
+                         f"(two one-sided tests, each at {level_phrase(result.alpha)}): {', '.join(within)}.")
     marks = limit_sentence(lines, names)
     if marks:
         sentences.append(marks)
@@ -194,7 +207,7 @@ def describe_characteristics(result: CharacteristicsResult, analysis: Analysis) 
 def characteristics_key_numbers(result: CharacteristicsResult, analysis: Analysis) -> tuple[KeyNumber, ...]:
     """The comparison's few overall numbers; each characteristic's numbers are in the summary table."""
     lines = summary_lines(result, analysis)
-    moved = sum(line.outcome in (MOVED_UP, MOVED_DOWN) for line in lines)
+    moved = sum(line.outcome in MOVED for line in lines)
     marked = sum(line.beyond_limit for line in lines)
     return (
         KeyNumber("characteristics", "Characteristics compared", str(len(result.rows)),

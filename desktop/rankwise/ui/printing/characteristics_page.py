@@ -17,8 +17,7 @@ from rankwise.wording import QUESTION_TITLES, describe, describe_question, key_n
 from rankwise.wording.characteristics import (
     BEYOND_LIMIT_SHORT,
     COLUMNS,
-    SAME_WITHIN,
-    SAME_WITHIN_SHORT,
+    SHORT_OUTCOMES,
     SummaryLine,
     summary_lines,
 )
@@ -91,8 +90,8 @@ class _SummaryComposer(_Composer):
                 text = " / ".join(line.texts[_AT[name]] for name in picks)
                 if picks == ("Limit",) and line.beyond_limit:
                     text = BEYOND_LIMIT_SHORT
-                if picks == ("Outcome",) and line.outcome == SAME_WITHIN:
-                    text = SAME_WITHIN_SHORT
+                if picks == ("Outcome",):
+                    text = SHORT_OUTCOMES.get(line.outcome, text)
                 unit = line.texts[_AT["Unit"]]
                 if picks == ("Characteristic",) and unit:
                     text = f"{text} ({unit})"
