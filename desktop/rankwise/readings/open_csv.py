@@ -18,6 +18,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from rankwise.readings.columns import CONVERT_CHUNK
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.parse import SMALLEST_NORMAL
 
@@ -282,7 +283,9 @@ def check_cell_lengths(path: Path, columns: dict[int, np.ndarray], first_data_ro
     """Refuse a file with a cell far too long for a reading (a damaged or wrong file)."""
     too_long = re.compile(rf"[^\n]{{{MAX_CELL_CHARACTERS + 1}}}")
     for column in columns.values():
-        if column.size and too_long.search("\n".join(column)):
+        # a chunk at a time: one search over the whole column holds the interpreter lock too long
+        if any(too_long.search("\n".join(column[start:start + CONVERT_CHUNK]))
+               for start in range(0, column.size, CONVERT_CHUNK)):
             row = next(i for i, text in enumerate(column) if len(text) > MAX_CELL_CHARACTERS)
             raise ReadingsError(
                 f"Row {first_data_row + row + 1} of '{path.name}' holds a cell of {len(column[row]):,} characters, "
