@@ -152,11 +152,13 @@ def test_a_key_number_without_a_value_is_written_as_its_text():
     assert key_number_cell(key("—", None)) == ("—", None)
 
 
-def test_a_many_characteristics_record_shows_its_dates_and_cuts_off_no_text(tmp_path):
+@pytest.mark.parametrize("margin_share", [None, 0.3])
+def test_a_many_characteristics_record_shows_its_dates_and_cuts_off_no_text(tmp_path, margin_share):
     """The housing demo (invented readings) compared on every characteristic: the summary's sign-off
-    dates have room in their column (they showed ### when printed), and no text is cut off."""
+    dates have room in their column (they showed ### when printed), and no text is cut off; with a
+    margin of 30 % of each tolerance the outcomes are the longest ("moved down, within the margin")."""
     table = open_characteristics(DEMO / "housing_two_dies.csv")
-    analysis = table.to_analysis("old die", "new die", settings=Settings())
+    analysis = table.to_analysis("old die", "new die", settings=Settings(), margin_share=margin_share)
     record = ResultRecord.now(analysis, table.snapshot("old die", "new die"), run(analysis), signoff())
     path = tmp_path / "characteristics.xlsx"
     write_record(path, record)

@@ -20,8 +20,9 @@ from rankwise.wording.characteristics import COLUMNS, summary_lines
 
 SUMMARY_TITLE = "Summary"
 DETAILS_TITLE = "Each characteristic"
-WIDTHS = (26, 21, 7, 7, 10, 10, 10, 17, 10, 9, 10, 16, 16)
-"""Widths of the summary's columns, in ``COLUMNS`` order (landscape A4 or Letter); the second
+WIDTHS = (26, 21, 7, 7, 10, 10, 10, 17, 10, 9, 10, 31, 16)
+"""Widths of the summary's columns, in ``COLUMNS`` order (landscape A4 or Letter, fitted to the page's width);
+the outcome's holds the longest, "moved down, within the margin"; the second
 also holds the sign-off's dates and times, which need about 20 characters (narrower, a reader sees ###)."""
 
 
