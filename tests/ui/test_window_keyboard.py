@@ -7,7 +7,7 @@ from PySide6.QtCore import Qt
 from PySide6.QtGui import QAccessible
 from PySide6.QtWidgets import QAbstractButton, QApplication, QLabel, QTabBar, QWidget
 
-from window_support import answers, press, screenshot, wait_for_verdict, window  # noqa: F401 - pytest fixtures
+from window_support import PATIENCE_MS, answers, press, screenshot, wait_for_verdict, window  # noqa: F401 - pytest fixtures
 
 F6 = Qt.Key.Key_F6
 SHIFT_F6 = (Qt.Key.Key_F6, Qt.KeyboardModifier.ShiftModifier)
@@ -95,3 +95,22 @@ def test_buttons_and_tabs_have_mnemonics_or_sit_in_the_tab_order(qtbot, window):
             assert "&" in widget.text() or widget.focusPolicy() & Qt.FocusPolicy.TabFocus, widget.text()
     tabs = window.tabs
     assert all("&" in tabs.tabText(i) for i in range(tabs.count()))
+
+
+def test_a_button_that_cannot_be_pressed_looks_greyed(qtbot, window):
+    """Under the window's style sheet a disabled button kept the dark text and border of one that can be
+    pressed: a finished comparison's Stop looked as pressable as its neighbour. Disabled text is now grey."""
+    from PySide6.QtGui import QColor
+    from PySide6.QtWidgets import QPushButton
+
+    def darkest(button):
+        image = button.grab().toImage()
+        return min(QColor(image.pixel(x, y)).lightness() for x in range(image.width()) for y in range(image.height()))
+
+    pressable, not_now = QPushButton("Stop", window), QPushButton("Stop", window)
+    not_now.setEnabled(False)
+    for place, button in enumerate((pressable, not_now)):
+        button.move(10 + 120 * place, 10)
+        button.show()
+    qtbot.waitUntil(lambda: pressable.isVisible() and not_now.isVisible(), timeout=PATIENCE_MS)
+    assert darkest(not_now) >= darkest(pressable) + 60
