@@ -9,8 +9,10 @@ each step, the most processor time the window's thread itself spent between two 
 in that step (on a shared machine a stall is also time spent waiting for a core or for the other
 threads to let go of Python's interpreter lock), the time to each verdict, and the peak memory
 of the process (ru_maxrss) once the file is open and at the end. With ``--stalls`` a watching
-thread looks at the window's thread every 10 ms while its event loop stands still for more than
-50 ms and prints to stderr, for the longest stalls, the stacks it found there most often.
+thread looks at every thread every 10 ms while the window's event loop stands still for more than
+50 ms and prints to stderr, for the longest stalls, the step they came in and the stacks it found
+most often on each thread (the window's thread mostly shows the event loop: it is waiting, and
+what it waits for is on the other threads; threads waiting for work are left out).
 """
 
 from __future__ import annotations
@@ -60,16 +62,21 @@ class Heartbeat:
         return longest * 1000.0, busiest * 1000.0
 
 
+IDLE_LEAVES = {"wait", "get", "_serve", "_run", "_watch"}
+"""Functions a thread waits for work in (the stacks of such threads are left out of the report)."""
+
+
 class StallWatch:
-    """Samples the window thread's stack every 10 ms while its heartbeat has not beaten for more than
-    50 ms; keeps the samples of each stall longer than 100 ms."""
+    """Samples every thread's stack every 10 ms while the heartbeat has not beaten for more than
+    50 ms; keeps the samples of each stall longer than 100 ms, with the step it came in."""
 
     def __init__(self, heartbeat: Heartbeat) -> None:
         self.heartbeat = heartbeat
-        self.stalls: list[tuple[float, Counter]] = []
+        self.step = "opening"
+        self.stalls: list[tuple[float, str, Counter]] = []
         self.running = True
         self.main = threading.main_thread().ident
-        threading.Thread(target=self._watch, daemon=True).start()
+        threading.Thread(target=self._watch, name="stall-watch", daemon=True).start()
 
     def _watch(self) -> None:
         began, seen = None, Counter()
@@ -78,21 +85,24 @@ class StallWatch:
             last = self.heartbeat.last
             if began is not None and last != began:  # the loop turned again: the stall is over
                 if last - began > 0.1:
-                    self.stalls.append((last - began, seen))
+                    self.stalls.append((last - began, self.step, seen))
                 began, seen = None, Counter()
             if time.perf_counter() - last > 0.05:
                 began = last
-                frame = sys._current_frames().get(self.main)
-                if frame is not None:
-                    lines = [f"{Path(f.filename).name}:{f.lineno} {f.name}" for f in traceback.extract_stack(frame)]
-                    seen[tuple(lines[-6:])] += 1
+                names = {thread.ident: thread.name for thread in threading.enumerate()}
+                for ident, frame in sys._current_frames().items():
+                    stack = traceback.extract_stack(frame)
+                    if ident != self.main and (not stack or stack[-1].name in IDLE_LEAVES):
+                        continue
+                    lines = [f"{Path(f.filename).name}:{f.lineno} {f.name}" for f in stack]
+                    seen[(names.get(ident, "?"), *lines[-5:])] += 1
 
     def report(self) -> None:
         self.running = False
-        for duration, seen in sorted(self.stalls, key=lambda stall: -stall[0])[:8]:
-            print(f"stall of {duration * 1000:.0f} ms:", file=sys.stderr)
-            for stack, count in seen.most_common(4):
-                print(f"  {count * 10:6d} ms  " + "  <  ".join(reversed(stack)), file=sys.stderr)
+        for duration, step, seen in sorted(self.stalls, key=lambda stall: -stall[0])[:8]:
+            print(f"stall of {duration * 1000:.0f} ms ({step}):", file=sys.stderr)
+            for (thread, *stack), count in seen.most_common(6):
+                print(f"  {count * 10:6d} ms  {thread}: " + "  <  ".join(reversed(stack)), file=sys.stderr)
 
 
 def wait(condition, timeout_s: float = 600.0) -> None:
@@ -133,12 +143,16 @@ def measure(path: Path) -> dict:
     figures["stall_open_ms"], figures["busy_open_ms"] = heartbeat.step()
     figures["peak_open_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
 
+    if watch is not None:
+        watch.step = "showing ranks and dots"
     window.tabs.setCurrentWidget(window.rank_table)
     wait(lambda: window.rank_table.model.rowCount() > 0)
     window.tabs.setCurrentWidget(window.dot_plot)
     wait(lambda: window.dot_plot.chart is not None and window.dot_plot.chart.view is not None)
     figures["stall_show_ms"], figures["busy_show_ms"] = heartbeat.step()
 
+    if watch is not None:
+        watch.step = "one edit"
     shown.clear()
     start = time.perf_counter()
     window.grid.setFocus()
