@@ -4,6 +4,7 @@ summary, open one characteristic, save the signed record; 1,000 characteristics 
 from __future__ import annotations
 
 import hashlib
+import threading
 
 import numpy as np
 from PySide6.QtCore import Qt
@@ -13,6 +14,7 @@ from window_support import DEMO_FILES, PATIENCE_MS, answers, screenshot, wait_fo
 from rankwise.records import read_record, verify_record
 from rankwise.records.signoff import Signature
 from rankwise.stats import CharacteristicsResult, Question
+from rankwise.ui import characteristics_window
 from rankwise.ui.characteristics_dialog import CharacteristicsDialog
 from rankwise.ui.characteristics_window import CharacteristicsWindow
 from rankwise.ui.signoff_dialog import SignOffDialog, local_now
@@ -83,7 +85,13 @@ def test_the_demo_housing_opens_as_many_characteristics(qtbot, window, answers, 
     answers.save_path = out
     signature = Signature("Ann Lee", "quality engineer", "accept the change", "", local_now())
     monkeypatch.setattr(SignOffDialog, "ask", classmethod(lambda cls, parent, **kw: signature))
+    writing_threads = []
+    real_write = characteristics_window.write_record
+    monkeypatch.setattr(characteristics_window, "write_record",
+                        lambda *args, **kwargs: (writing_threads.append(threading.current_thread()),
+                                                 real_write(*args, **kwargs))[1])
     assert summary.save_record() == out
+    assert writing_threads and threading.main_thread() not in writing_threads  # the window kept answering
     record = read_record(out)
     assert record.analysis.question is Question.CHARACTERISTICS and isinstance(record.result, CharacteristicsResult)
     assert verify_record(out).intact

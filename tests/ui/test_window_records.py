@@ -49,6 +49,22 @@ def test_sign_and_save_locks_the_analysis(qtbot, window, answers, monkeypatch, t
     assert window.question_panel.option.key == "differ"
 
 
+def test_the_record_is_written_while_the_window_keeps_answering(qtbot, window, answers, monkeypatch, tmp_path):
+    """Writing a record (seconds for many readings or characteristics) runs aside, not on the window's thread."""
+    import threading
+
+    import rankwise.records
+
+    writing_threads = []
+    real_write = rankwise.records.write_record
+    monkeypatch.setattr(rankwise.records, "write_record",
+                        lambda *args, **kwargs: (writing_threads.append(threading.current_thread()),
+                                                 real_write(*args, **kwargs))[1])
+    path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
+    assert read_record(path).signoff.revision == 1
+    assert writing_threads and threading.main_thread() not in writing_threads
+
+
 def test_new_revision_unlocks_a_copy_with_the_next_number(qtbot, window, answers, monkeypatch, tmp_path):
     """'Start a new revision' unlocks the readings; the next signature is revision 2."""
     _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)

@@ -31,7 +31,7 @@ from rankwise.ui import dialogs
 from rankwise.ui.characteristics_dialog import CharacteristicsChoice, CharacteristicsDialog
 from rankwise.ui.screen_fit import fit_to_screen
 from rankwise.ui.signoff_dialog import SignOffDialog
-from rankwise.ui.worker import AnalysisRunner
+from rankwise.ui.worker import AnalysisRunner, run_aside
 from rankwise.wording import CAUTION_SHORT, describe
 from rankwise.wording.characteristics import BEYOND_LIMIT_MARK, COLUMNS, summary_lines
 
@@ -247,7 +247,7 @@ class CharacteristicsWindow(QDialog):
         if record is None:
             return None
         try:
-            write_record(path, record)
+            run_aside(self, f"Saving the signed record {path.name}…", lambda: write_record(path, record))
         except RecordError as error:
             dialogs.show_problem(self, "The record was not saved", str(error))
             return None

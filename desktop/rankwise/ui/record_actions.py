@@ -179,9 +179,11 @@ class RecordActions(QObject):
     def _write_asking_before_replacing(self, path: Path, record: ResultRecord) -> bool:
         """Write ``record`` to ``path``; a signed record there is replaced only when the user agrees."""
         from rankwise.records import RecordError, write_record
+        from rankwise.ui.worker import run_aside
 
+        saving = f"Saving the signed record {path.name}…"
         try:
-            write_record(path, record)
+            run_aside(self.window, saving, lambda: write_record(path, record))
         except RecordError as error:
             if not (path.exists() and dialogs.confirm(
                 self.window, "Replace a signed record?",
@@ -189,7 +191,7 @@ class RecordActions(QObject):
             )):
                 return False
             try:
-                write_record(path, record, overwrite_signed=True)
+                run_aside(self.window, saving, lambda: write_record(path, record, overwrite_signed=True))
             except RecordError as second_error:
                 dialogs.show_problem(self.window, "Cannot save the signed result", str(second_error))
                 return False
