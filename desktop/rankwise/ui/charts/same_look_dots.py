@@ -32,4 +32,4 @@ class SameLookDots(pg.ScatterPlotItem):
 def _all_same_look(data: np.ndarray) -> bool:
     """True when no dot in ``data`` has a size, symbol, pen or brush of its own."""
     return bool(np.all(data["size"] == -1)) and all(
-        value is None for field in _OWN_LOOK for value in data[field])
+        data[field].tolist().count(None) == data.size for field in _OWN_LOOK)
