@@ -3,6 +3,7 @@ record, reopening it, and the one-page verdict as PDF."""
 
 from __future__ import annotations
 
+import threading
 from datetime import datetime, timezone
 
 import openpyxl
@@ -10,6 +11,8 @@ from pypdf import PdfReader
 
 from window_support import answers, wait_for_verdict, window  # noqa: F401 - pytest fixtures
 
+import rankwise.records
+import rankwise.records.verify
 from rankwise.records import Signature, read_record
 from rankwise.ui.main_window import MainWindow
 from rankwise.ui.recovery import RecoveryFile
@@ -51,10 +54,6 @@ def test_sign_and_save_locks_the_analysis(qtbot, window, answers, monkeypatch, t
 
 def test_the_record_is_written_while_the_window_keeps_answering(qtbot, window, answers, monkeypatch, tmp_path):
     """Writing a record (seconds for many readings or characteristics) runs aside, not on the window's thread."""
-    import threading
-
-    import rankwise.records
-
     writing_threads = []
     real_write = rankwise.records.write_record
     monkeypatch.setattr(rankwise.records, "write_record",
@@ -90,11 +89,17 @@ def test_a_signed_record_is_not_replaced_without_asking(qtbot, window, answers, 
 
 
 def test_check_a_record_intact_then_changed(qtbot, window, answers, monkeypatch, tmp_path):
-    """Checking an untouched record says intact; after one reading is edited it lists the change."""
+    """Checking an untouched record (aside: seconds for a large one) says intact; after one reading is
+    edited it lists the change."""
     path = _signed_demo(qtbot, window, answers, monkeypatch, tmp_path)
     answers.open_path = path
+    checking_threads = []
+    real_verify = rankwise.records.verify.verify_record
+    monkeypatch.setattr(rankwise.records.verify, "verify_record",
+                        lambda *args: (checking_threads.append(threading.current_thread()), real_verify(*args))[1])
     window.records.check_record()
     assert answers.messages and answers.messages[-1][0] == "Record unchanged"
+    assert checking_threads and threading.main_thread() not in checking_threads  # the window kept answering
     book = openpyxl.load_workbook(path)
     readings = book[[name for name in book.sheetnames if "eading" in name][0]]
     changed = next(cell for row in readings.iter_rows() for cell in row if isinstance(cell.value, (int, float)))

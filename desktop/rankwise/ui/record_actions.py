@@ -251,11 +251,12 @@ class RecordActions(QObject):
     def check_record(self) -> None:
         """Ask for a signed result workbook and say, in plain words, whether it is unchanged."""
         from rankwise.records.verify import verify_record
+        from rankwise.ui.worker import run_aside
 
         path = dialogs.ask_open_path(self.window, "Check a signed record", dialogs.RECORD_FILTER)
         if path is None:
             return
-        verification = verify_record(path)
+        verification = run_aside(self.window, f"Checking {path.name}…", lambda: verify_record(path))
         if verification.status == "intact":
             notes = "".join(f"\n\n{note}" for note in verification.notes)
             dialogs.show_message(self.window, "Record unchanged",
