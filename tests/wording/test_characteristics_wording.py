@@ -67,6 +67,8 @@ def test_no_adjustment_is_said_in_the_verdict():
     analysis = analysis_of([("depth", A, A, None), ("pitch", A, A, None)], adjust="none")
     verdict = describe(run(analysis), analysis)
     assert "not adjusted" in verdict.sentences[0]
+    one = analysis_of([("depth", A, A, None)])
+    assert describe(run(one), one).headline == "The characteristic depth was not shown to move from old to new at the 5 % level."
 
 
 def test_significant_only_on_its_own_is_said_so_beside_an_interval_that_leaves_out_no_change():
@@ -92,6 +94,7 @@ def test_significant_only_on_its_own_is_said_so_beside_an_interval_that_leaves_o
     alone = analysis_of([("depth", depth_a, depth_b, None)], adjust="none")
     alone_result = run(alone)
     assert [line.outcome for line in summary_lines(alone_result, alone)] == [MOVED_UP]
+    assert describe(alone_result, alone).headline == "The characteristic depth was shown to move from old to new."
     assert "Taken alone" not in " ".join(describe(alone_result, alone).sentences)
 
 

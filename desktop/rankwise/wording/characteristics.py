@@ -134,10 +134,12 @@ def headline(result: CharacteristicsResult, analysis: Analysis) -> str:
     moved = [row.name for row, line in zip(result.rows, lines) if line.outcome in MOVED]
     total = len(result.rows)
     if not moved:
-        return (f"No characteristic of the {total} was shown to move from {result.name_a} to "
-                f"{result.name_b} at the {format_level(result.alpha)} level.")
+        which = f"The characteristic {result.rows[0].name} was not" if total == 1 else f"No characteristic of the {total} was"
+        return f"{which} shown to move from {result.name_a} to {result.name_b} at the {format_level(result.alpha)} level."
     listed = ", ".join(moved[:8]) + (f" and {len(moved) - 8} more" if len(moved) > 8 else "")
     verb = "was" if len(moved) == 1 else "were"
+    if total == 1:
+        return f"The characteristic {listed} was shown to move from {result.name_a} to {result.name_b}."
     return f"{len(moved)} of {total} characteristics {verb} shown to move from {result.name_a} to {result.name_b}: {listed}."
 
 
