@@ -134,7 +134,7 @@ def test_missing_readings_are_counted_per_characteristic_never_zero():
     result = compare_characteristics([("bore", a, b), ("depth", [1.0, 2.0, 3.0], [4.0, 5.0, 6.0])])
     bore = result.row("bore").result
     assert (bore.n_a, bore.n_dropped_a, bore.n_b, bore.n_dropped_b) == (4, 1, 3, 2)
-    assert 0.0 not in bore.values_a + bore.values_b
+    assert 0.0 not in bore.values_a and 0.0 not in bore.values_b
     assert result.row("depth").result.n_dropped_a == 0
 
 

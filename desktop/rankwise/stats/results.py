@@ -13,6 +13,13 @@ from typing import Iterator
 from rankwise.stats.frozen_floats import FrozenFloats
 
 
+def _freeze(result: object, *names: str) -> None:
+    """Turn the fields ``names`` of a frozen result into ``FrozenFloats`` (any sequence of numbers given)."""
+    for name in names:
+        if not isinstance(getattr(result, name), FrozenFloats):
+            object.__setattr__(result, name, FrozenFloats(getattr(result, name)))
+
+
 @dataclass(frozen=True)
 class ConfidenceInterval:
     """A confidence set for an estimate: an interval whose ends may be open or closed.
@@ -96,9 +103,7 @@ class NullDistribution:
     exact: bool
 
     def __post_init__(self) -> None:
-        for name in ("support", "probabilities"):
-            if not isinstance(getattr(self, name), FrozenFloats):
-                object.__setattr__(self, name, FrozenFloats(getattr(self, name)))
+        _freeze(self, "support", "probabilities")
 
 
 @dataclass(frozen=True)
@@ -178,6 +183,7 @@ class TwoGroupResult:
         n_a, n_b: readings used; n_dropped_a, n_dropped_b: blanks / NaN dropped.
         values_a, values_b: the readings used, in entry order.
         ranks_a, ranks_b: each reading's mid-rank in the combined sample, in entry order.
+        (These four are ``FrozenFloats``: up to millions of readings, one array each.)
         tie_blocks: every value shared by two or more readings, ascending.
         rank_sum_a, rank_sum_b: sums of ranks per group.
         u_a: rank_sum_a - n_a (n_a + 1) / 2 (pairs where A reads higher, ties counted half);
@@ -215,10 +221,10 @@ class TwoGroupResult:
     n_b: int
     n_dropped_a: int
     n_dropped_b: int
-    values_a: tuple[float, ...]
-    values_b: tuple[float, ...]
-    ranks_a: tuple[float, ...]
-    ranks_b: tuple[float, ...]
+    values_a: FrozenFloats
+    values_b: FrozenFloats
+    ranks_a: FrozenFloats
+    ranks_b: FrozenFloats
     tie_blocks: tuple[TieBlock, ...]
     rank_sum_a: float
     rank_sum_b: float
@@ -252,6 +258,9 @@ class TwoGroupResult:
     equivalence_ci: ConfidenceInterval | None
     min_parts_needed: int | None
     warnings: tuple[str, ...]
+
+    def __post_init__(self) -> None:
+        _freeze(self, "values_a", "values_b", "ranks_a", "ranks_b")
 
     @property
     def median_a(self) -> float:

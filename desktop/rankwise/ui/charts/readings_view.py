@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 import numpy as np
@@ -22,7 +23,7 @@ class ReadingsView:
 
     Attributes:
         names: the groups' names, in order.
-        values: the readings used per group, in entry order.
+        values: the readings used per group, in entry order (a result's own runs of numbers, not copied).
         medians: each group's median.
         paired: True when values[0][i] and values[1][i] are the same part.
         unit: the readings' unit, or "".
@@ -33,7 +34,7 @@ class ReadingsView:
     """
 
     names: tuple[str, ...]
-    values: tuple[tuple[float, ...], ...]
+    values: tuple[Sequence[float], ...]
     medians: tuple[float, ...]
     paired: bool
     unit: str
@@ -67,7 +68,7 @@ def readings_view(result, analysis: Analysis) -> ReadingsView | None:
     """The readings behind ``result`` (None for a planning result, which has no readings)."""
     if isinstance(result, (TwoGroupResult, PairedResult)):
         names = (result.name_a, result.name_b)
-        values = (tuple(result.values_a), tuple(result.values_b))
+        values = (result.values_a, result.values_b)
         medians = (result.summary_a.median, result.summary_b.median)
     elif isinstance(result, SeveralGroupsResult):
         names = tuple(summary.name for summary in result.summaries)
