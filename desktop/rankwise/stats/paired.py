@@ -30,6 +30,7 @@ from rankwise.stats.change_inversion import accepted_changes
 from rankwise.stats.exact_signed_rank import exact_cost as _exact_cost
 from rankwise.stats.exact_signed_rank import exact_p as _exact_p
 from rankwise.stats.exact_signed_rank import signed_rank_null
+from rankwise.stats.frozen_floats import FrozenFloats
 from rankwise.stats.grid import find_grid, snap_to_decimals
 from rankwise.stats.hodges_lehmann import select_walsh_sums
 from rankwise.stats.inputs import check_choice, check_level, readings_array
@@ -182,10 +183,10 @@ def compare_paired(
         n_pairs=int(values_a.size),
         n_zero=n_zero,
         n_dropped=len(dropped_rows),
-        values_a=tuple(float(v) for v in values_a),
-        values_b=tuple(float(v) for v in values_b),
-        differences=tuple(float(v) for v in differences),
-        signed_ranks=tuple(float(v) for v in signed_ranks),
+        values_a=FrozenFloats(values_a),
+        values_b=FrozenFloats(values_b),
+        differences=FrozenFloats(differences),
+        signed_ranks=FrozenFloats(signed_ranks),
         tie_blocks=tie_blocks,
         w_plus=w_plus,
         w_minus=w_minus,

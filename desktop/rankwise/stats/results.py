@@ -303,6 +303,7 @@ class PairedResult:
         n_zero: pairs with no difference; n_dropped: incomplete pairs dropped.
         values_a, values_b: the complete pairs, in entry order; differences: b - a per pair.
         signed_ranks: each difference's signed mid-rank of |d| (0 for a dropped zero).
+        (These four are ``FrozenFloats``, one array each.)
         tie_blocks: shared |d| values.
         w_plus, w_minus: rank sums of positive and negative differences.
         zero_method: "wilcox" or "pratt"; alternative, alpha, confidence as for two groups.
@@ -322,10 +323,10 @@ class PairedResult:
     n_pairs: int
     n_zero: int
     n_dropped: int
-    values_a: tuple[float, ...]
-    values_b: tuple[float, ...]
-    differences: tuple[float, ...]
-    signed_ranks: tuple[float, ...]
+    values_a: FrozenFloats
+    values_b: FrozenFloats
+    differences: FrozenFloats
+    signed_ranks: FrozenFloats
     tie_blocks: tuple[TieBlock, ...]
     w_plus: float
     w_minus: float
@@ -349,6 +350,9 @@ class PairedResult:
     equivalent: bool | None
     equivalence_ci: ConfidenceInterval | None
     warnings: tuple[str, ...]
+
+    def __post_init__(self) -> None:
+        _freeze(self, "values_a", "values_b", "differences", "signed_ranks")
 
 
 @dataclass(frozen=True)
@@ -379,7 +383,7 @@ class SeveralGroupsResult:
 
     Attributes:
         summaries: per group, in the order given.
-        values, ranks: per group, the readings used and their mid-ranks in entry order.
+        values, ranks: per group, the readings used and their mid-ranks in entry order (``FrozenFloats``).
         tie_blocks: shared values across all groups.
         rank_sums, mean_ranks: per group.
         h: tie-corrected H; df: k - 1; tie_correction: the divisor 1 - sum(t^3 - t)/(N^3 - N).
@@ -394,8 +398,8 @@ class SeveralGroupsResult:
     """
 
     summaries: tuple[GroupSummary, ...]
-    values: tuple[tuple[float, ...], ...]
-    ranks: tuple[tuple[float, ...], ...]
+    values: tuple[FrozenFloats, ...]
+    ranks: tuple[FrozenFloats, ...]
     tie_blocks: tuple[TieBlock, ...]
     rank_sums: tuple[float, ...]
     mean_ranks: tuple[float, ...]
@@ -414,6 +418,11 @@ class SeveralGroupsResult:
     pairs: tuple[PairComparison, ...]
     mood_median: MoodMedianResult | None
     warnings: tuple[str, ...]
+
+    def __post_init__(self) -> None:
+        for name in ("values", "ranks"):
+            object.__setattr__(self, name, tuple(
+                group if isinstance(group, FrozenFloats) else FrozenFloats(group) for group in getattr(self, name)))
 
 
 @dataclass(frozen=True)

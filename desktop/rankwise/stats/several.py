@@ -18,6 +18,7 @@ from collections.abc import Mapping, Sequence
 import numpy as np
 from scipy import stats as _dist
 
+from rankwise.stats.frozen_floats import FrozenFloats
 from rankwise.stats.grid import find_grid
 from rankwise.stats.inputs import check_choice, check_level, clean_group
 from rankwise.stats.progress import SILENT, Monitor
@@ -113,8 +114,8 @@ def compare_several(
     pairs = _dunn_pairs(names, sizes, mean_ranks, total, ties, alpha, reference, degenerate)
     return SeveralGroupsResult(
         summaries=tuple(summarize(name, v, dropped) for name, (v, dropped) in zip(names, cleaned)),
-        values=tuple(tuple(float(x) for x in v) for v in values),
-        ranks=tuple(tuple(float(x) for x in r) for r in ranks),
+        values=tuple(FrozenFloats(v) for v in values),
+        ranks=tuple(FrozenFloats(r) for r in ranks),
         tie_blocks=tie_blocks,
         rank_sums=tuple(float(s) for s in rank_sums),
         mean_ranks=tuple(float(m) for m in mean_ranks),

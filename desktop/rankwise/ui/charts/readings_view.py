@@ -72,7 +72,7 @@ def readings_view(result, analysis: Analysis) -> ReadingsView | None:
         medians = (result.summary_a.median, result.summary_b.median)
     elif isinstance(result, SeveralGroupsResult):
         names = tuple(summary.name for summary in result.summaries)
-        values = tuple(tuple(group) for group in result.values)
+        values = result.values
         medians = tuple(summary.median for summary in result.summaries)
     elif isinstance(result, PlanResult):
         return None
