@@ -7,6 +7,7 @@ Heavy modules (the window, the statistics, the charts) are imported only when th
 from __future__ import annotations
 
 import argparse
+import signal
 import sys
 from collections.abc import Sequence
 from pathlib import Path
@@ -48,6 +49,8 @@ def run_record_command(argv: Sequence[str]) -> int:
     """Run ``report`` or ``verify``; the PDF of ``report`` is drawn by the window's printing module."""
     from rankwise.records.cli import page_size, run_report, run_verify
 
+    if hasattr(signal, "SIGPIPE"):  # output piped into a reader that stops early (`| head`): end quietly, as
+        signal.signal(signal.SIGPIPE, signal.SIG_DFL)  # other command-line tools do, not with a traceback
     args = record_parser().parse_args(list(argv))
     if args.command == "report":
         from rankwise.ui.printing import render_pdf_for_cli

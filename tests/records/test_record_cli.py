@@ -133,3 +133,17 @@ def test_the_commands_run_through_python_dash_m(readings, tmp_path):
                              capture_output=True, text=True, env=env, cwd=ROOT, check=False)
     assert checked.returncode == 0, checked.stdout + checked.stderr
     assert "intact" in checked.stdout
+
+
+def test_output_piped_into_a_reader_that_stops_early_ends_quietly(readings, tmp_path):
+    """`rankwise report … | head -1`: the reader goes away before the summary is printed; the record is
+    written (it comes first) and the command ends as other tools do, with no traceback."""
+    out = tmp_path / "result.xlsx"
+    env = dict(os.environ, QT_QPA_PLATFORM="offscreen")
+    command = subprocess.Popen([sys.executable, "-m", "rankwise", "report", str(readings), "--out", str(out),
+                                "--signed-by", "Ann Lee", "--role", "technician"],
+                               stdout=subprocess.PIPE, stderr=subprocess.PIPE, env=env, cwd=ROOT)
+    command.stdout.close()  # the reader is gone before anything is printed
+    _, errors = command.communicate(timeout=300)
+    assert b"Traceback" not in errors and b"BrokenPipe" not in errors, errors.decode()
+    assert read_record(out).signoff.prepared.name == "Ann Lee"
