@@ -38,7 +38,8 @@ def test_the_print_preview_fits_the_screen_shows_its_whole_toolbar_and_the_whole
     SCREENSHOTS.mkdir(parents=True, exist_ok=True)
     environment = dict(os.environ, QT_SCALE_FACTOR=scale,
                        QT_QPA_PLATFORM=f"offscreen:configfile={_screen_config(tmp_path, width, height)}",
-                       PYTHONPATH=os.pathsep.join(sys.path))
+                       PYTHONPATH=os.pathsep.join(sys.path),
+                       PYTHONFAULTHANDLER="1")  # a crash of the child prints where it happened (seen once, at 200 %)
     finished = subprocess.run([sys.executable, __file__, str(SCREENSHOTS / f"print-preview-{screen}.png")],
                               env=environment, capture_output=True, text=True, timeout=300)
     assert finished.returncode == 0, finished.stderr
