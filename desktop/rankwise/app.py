@@ -1,7 +1,8 @@
 """Command line and start-up: ``rankwise [FILE] [--demo]`` opens the window; ``report`` and ``verify`` run scripted.
 
 Heavy modules (the window, the statistics, the charts) are imported only when they are needed, so
-``rankwise verify`` does not start Qt widgets and the window appears quickly.
+``rankwise verify`` does not start Qt widgets; the window imports what it needs before it appears
+(``ui.start_up``), so that nothing loads behind it while it is in use.
 """
 
 from __future__ import annotations
@@ -73,7 +74,9 @@ def run_window(args: argparse.Namespace) -> int:
     app.setApplicationDisplayName("Rankwise")
 
     from rankwise.ui.main_window import MainWindow
+    from rankwise.ui.start_up import import_what_the_window_needs
 
+    import_what_the_window_needs()
     window = MainWindow()
     window.show()
 

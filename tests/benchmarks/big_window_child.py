@@ -123,7 +123,9 @@ def measure(path: Path) -> dict:
     from rankwise.ui import dialogs
     from rankwise.ui.main_window import MainWindow
     from rankwise.ui.recovery import RecoveryFile
+    from rankwise.ui.start_up import import_what_the_window_needs
 
+    import_what_the_window_needs()  # as the program does before showing the window
     dialogs.ask_keep_changes = lambda parent, text: "discard"
     window = MainWindow(recovery=RecoveryFile.for_new_window(Path(tempfile.mkdtemp(prefix="rankwise-bench-"))))
     window.resize(1440, 900)

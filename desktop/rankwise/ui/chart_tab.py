@@ -1,30 +1,15 @@
 """A tab holding one chart, built the first time the tab is shown and brought up to date when seen.
 
-Charts draw with pyqtgraph, which takes a while to load; building each chart only when its tab is
-first opened keeps the window's start quick, and updating a chart only while it is in view keeps
-typing quick. Once the window runs, the chart modules load on a thread of their own, so that the
-first chart opened does not stop the window while they load.
+Building each chart only when its tab is first opened keeps the window's start quick, and updating a
+chart only while it is in view keeps typing quick. The chart modules themselves are imported before
+the window appears (``start_up``).
 """
 
 from __future__ import annotations
 
-import importlib
-import threading
-
 from PySide6.QtCore import QTimer
 from PySide6.QtGui import QShowEvent
 from PySide6.QtWidgets import QVBoxLayout, QWidget
-
-_loading: list[threading.Thread] = []
-
-
-def _load_charts_aside() -> None:
-    """Import the chart modules on a thread of their own (once per process)."""
-    if not _loading:
-        _loading.append(threading.Thread(target=importlib.import_module, args=("rankwise.ui.charts",),
-                                         name="rankwise-load-charts", daemon=True))
-        _loading[0].start()
-
 
 class ChartTab(QWidget):
     """Holds the chart class ``chart_name`` of ``rankwise.ui.charts`` and the result it should show."""
@@ -37,7 +22,6 @@ class ChartTab(QWidget):
         self._stale = False
         layout = QVBoxLayout(self)
         layout.setContentsMargins(0, 0, 0, 0)
-        QTimer.singleShot(0, _load_charts_aside)  # once the window's event loop runs
 
     def show_result(self, result, analysis) -> None:
         """Show this result now when the tab is in view, else when it is next opened."""
