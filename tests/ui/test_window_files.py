@@ -129,18 +129,32 @@ def test_missing_demo_files_give_a_plain_message(qtbot, window, answers, monkeyp
     assert title == "Demo readings not found" and "no-demo-here" in text and "open any CSV or XLSX" in text
 
 
-def test_a_large_file_opens_on_a_thread_of_its_own(qtbot, window, reading_threads):
-    """Past LARGE_FILE_BYTES the file is read off the window's thread; the sheet is the same."""
-    import threading
-
+def test_a_large_file_opens_in_a_process_of_its_own(qtbot, window, reading_threads):
+    """Past LARGE_FILE_BYTES the file is read in a child process: the window's process runs no reader,
+    and the sheet is the one reading the file here gives."""
     path = DEMO_FILES / "two_wheels_roughness.csv"
     assert window.open_path(path)
     qtbot.waitUntil(lambda: window.opening is None and window.source_path == path, timeout=PATIENCE_MS)
-    assert reading_threads.seen and reading_threads.seen[0] is not threading.main_thread()
+    assert reading_threads.seen == []
     expected = reading_threads.real_open(path)
     assert [group.name for group in window.sheet.groups] == [group.name for group in expected.groups]
     assert [c.text for c in window.sheet.groups[0].cells] == [c.text for c in expected.groups[0].cells]
     wait_for_verdict(qtbot, window)
+
+
+def test_closing_the_window_while_a_large_file_is_read_stops_the_reading(qtbot, window, monkeypatch):
+    import sys
+
+    import rankwise.readings.read_aside as read_aside
+    import rankwise.ui.window_files as window_files
+
+    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+    monkeypatch.setattr(read_aside, "child_command", lambda path: [sys.executable, "-c", "import time; time.sleep(600)"])
+    assert window.open_path(DEMO_FILES / "two_wheels_roughness.csv")
+    reading = window.opening
+    window.close()
+    reading._thread.join(PATIENCE_MS / 1000)
+    assert not reading._thread.is_alive() and reading._reading.cancelled
 
 
 def test_a_large_file_that_cannot_be_read_is_reported_in_words(qtbot, window, tmp_path, monkeypatch, answers):
@@ -155,27 +169,16 @@ def test_a_large_file_that_cannot_be_read_is_reported_in_words(qtbot, window, tm
     assert window.sheet.group_names == ["A", "B"]
 
 
-def test_a_large_file_of_many_characteristics_is_recognised_on_the_opening_thread(qtbot, window, monkeypatch):
-    """Past LARGE_FILE_BYTES the look for many characteristics runs on the opening thread too; the
+def test_a_large_file_of_many_characteristics_is_recognised_by_the_reading_process(qtbot, window, monkeypatch):
+    """Past LARGE_FILE_BYTES the look for many characteristics runs in the reading process too; the
     window then offers their choice as for a small file (here the technician cancels it)."""
-    import threading
-
-    import rankwise.readings.characteristics as characteristics
     import rankwise.ui.window_files as window_files
     from rankwise.ui.characteristics_dialog import CharacteristicsDialog
 
-    looked_on, asked = [], []
-    real_check = characteristics.is_characteristics_file
-
-    def watched(path):
-        looked_on.append(threading.current_thread())
-        return real_check(path)
-
-    monkeypatch.setattr(characteristics, "is_characteristics_file", watched)
+    asked = []
     monkeypatch.setattr(CharacteristicsDialog, "ask", classmethod(lambda cls, parent, table: asked.append(table)))
     monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
     assert window.open_path(DEMO_FILES / "housing_two_dies.csv")
     qtbot.waitUntil(lambda: window.opening is None and bool(asked), timeout=PATIENCE_MS)
-    assert looked_on[0] is not threading.main_thread()
     assert len(asked[0].characteristics) >= 2
     assert window.sheet.group_names == ["A", "B"] and window.source_path is None

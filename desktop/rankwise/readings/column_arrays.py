@@ -61,6 +61,19 @@ class ColumnArrays:
         twin.kinds, twin.values, twin.decimals = self.kinds.copy(), self.values.copy(), self.decimals.copy()
         return twin
 
+    def __getstate__(self) -> tuple:
+        return self.kinds, self.values, self.decimals, self._answers  # not the cells: their group gives them back
+
+    def __setstate__(self, state: tuple) -> None:
+        self.kinds, self.values, self.decimals, self._answers = state
+        self._cells = None
+
+    def adopt(self, cells: list[Cell]) -> None:
+        """Mirror ``cells`` again after being unpickled (``cells``: the group's list, as long as these arrays)."""
+        if len(cells) != self.kinds.size:
+            raise ValueError("the cells are not the list these arrays were made from")
+        self._cells = cells
+
     def mirrors(self, cells: list[Cell]) -> bool:
         """True when these arrays are those of ``cells`` (the same list, as long)."""
         return cells is self._cells and len(cells) == self.kinds.size

@@ -12,6 +12,7 @@ from collections.abc import Callable, Iterable, Sequence
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
 
+from rankwise.readings.cell_codes import CellCodes
 from rankwise.readings.cells import EMPTY_CELL, Cell, CellKind, GroupCounts, SkippedCell
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.censored import check_mixed_limits
@@ -52,6 +53,15 @@ class GroupColumn:
     def copy(self) -> GroupColumn:
         """An independent copy (the cells themselves are immutable)."""
         return dataclasses.replace(self, cells=list(self.cells))
+
+    def __getstate__(self) -> dict:
+        return {**self.__dict__, "cells": CellCodes(self.cells)}  # compact: see ``cell_codes``
+
+    def __setstate__(self, state: dict) -> None:
+        cells = state["cells"].cells()
+        self.__dict__.update(state, cells=cells)
+        if self._arrays is not None:
+            self._arrays.adopt(cells)
 
     def arrays(self) -> ColumnArrays:
         """The cells as arrays: made on first use, then kept in step by the sheet's edits."""

@@ -9,6 +9,7 @@ from PySide6.QtCore import QObject, Signal
 
 import rankwise
 from rankwise.readings import GroupColumn, ReadingSheet, ReadingsError
+from rankwise.readings.read_aside import sheet_of
 from rankwise.ui import dialogs
 from rankwise.ui.question_panel import OPTION_OF_QUESTION
 from rankwise.ui.recent_files import remember_file
@@ -30,25 +31,12 @@ def empty_sheet() -> ReadingSheet:
 
 
 LARGE_FILE_BYTES = 2_000_000
-"""A file larger than this opens on a thread of its own (the window keeps answering meanwhile)."""
-
-
-def _sheet_of(reading_set) -> ReadingSheet:
-    sheet = ReadingSheet.from_reading_set(reading_set)
-    sheet.mark_saved()
-    for index, group in enumerate(sheet.groups):
-        # Made here, on the opening thread for a large file: the arrays (the window's edits keep them
-        # in step), and what the window asks of them as it shows the sheet (counts, flags, the planner's values).
-        arrays = group.arrays()
-        sheet.counts(index)
-        sheet.flags(index)
-        arrays.squares_about_mean()
-        arrays.finest_decimals()
-    return sheet
+"""A file larger than this opens in a process of its own (the window keeps answering meanwhile)."""
 
 
 class FileOpening(QObject):
-    """Reads a large file into a sheet on a thread of its own (the file readers load there too).
+    """Reads a large file in a process of its own (``read_aside``), waited for on a thread of the window's:
+    the window's process only unpacks the outcome.
 
     Signals:
         opened(object, object): the ``ReadingSet`` read and the ``ReadingSheet`` built from it.
@@ -63,29 +51,31 @@ class FileOpening(QObject):
     def __init__(self, path: Path, parent: QObject | None = None) -> None:
         super().__init__(parent)
         self.path = path
+        self._reading = None
         self._thread = threading.Thread(target=self._read, name="rankwise-open", daemon=True)
 
     def start(self) -> None:
-        """Begin reading; one of the signals follows."""
+        """Begin reading; one of the signals follows (none after ``cancel``)."""
+        from rankwise.readings.read_aside import ChildReading
+
+        self._reading = ChildReading(self.path)
         self._thread.start()
 
-    def _read(self) -> None:
-        from rankwise.readings.characteristics import is_characteristics_file
-        from rankwise.readings.open import open_readings
+    def cancel(self) -> None:
+        """Stop reading (the window is closing)."""
+        if self._reading is not None:
+            self._reading.cancel()
 
-        if is_characteristics_file(self.path):
-            self.many_characteristics.emit()
+    def _read(self) -> None:
+        outcome = self._reading.outcome()
+        if self._reading.cancelled:
             return
-        try:
-            reading_set = open_readings(self.path)
-            sheet = _sheet_of(reading_set)
-        except ReadingsError as error:
-            self.failed.emit(str(error))
-        except OSError as error:
-            self.failed.emit(f"The file cannot be read ({error.strerror or error}). Check that it is there and not open "
-                             "in another program.")
+        if outcome.kind == "many characteristics":
+            self.many_characteristics.emit()
+        elif outcome.kind == "opened":
+            self.opened.emit(outcome.reading_set, outcome.sheet)
         else:
-            self.opened.emit(reading_set, sheet)
+            self.failed.emit(outcome.message)
 
 
 class WindowFiles:
@@ -189,8 +179,8 @@ class WindowFiles:
         """Put opened readings into the sheet (``sheet``: already built from them) and analyse them."""
         if sheet is None:
             large = path.is_file() and path.stat().st_size > LARGE_FILE_BYTES
-            sheet = (run_aside(self, f"Opening {path.name}…", lambda: _sheet_of(reading_set)) if large
-                     else _sheet_of(reading_set))
+            sheet = (run_aside(self, f"Opening {path.name}…", lambda: sheet_of(reading_set)) if large
+                     else sheet_of(reading_set))
         from rankwise.readings.same_parts import suggest
 
         natural = suggest(reading_set.groups, reading_set.pairing).question
