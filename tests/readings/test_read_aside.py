@@ -74,14 +74,14 @@ def test_a_file_that_cannot_be_read_gives_the_readers_own_words(tmp_path):
     ("import sys; sys.stdout.buffer.write(b'not a pickle')", "exit code 0"),
 ])
 def test_a_child_that_ends_without_an_outcome_is_a_plain_message(monkeypatch, command, words):
-    monkeypatch.setattr(read_aside, "child_command", lambda path: [sys.executable, "-c", command])
+    monkeypatch.setattr(read_aside, "child_command", lambda *args: [sys.executable, "-c", command])
     outcome = read_aside.ChildReading(DEMO_FILES / "two_wheels_roughness.csv").outcome()
     assert outcome.kind == "failed"
     assert words in outcome.message and "The file is unchanged" in outcome.message and "Traceback" not in outcome.message
 
 
 def test_cancel_stops_the_child_and_nothing_is_given(monkeypatch):
-    monkeypatch.setattr(read_aside, "child_command", lambda path: [sys.executable, "-c", "import time; time.sleep(600)"])
+    monkeypatch.setattr(read_aside, "child_command", lambda *args: [sys.executable, "-c", "import time; time.sleep(600)"])
     reading = read_aside.ChildReading(DEMO_FILES / "two_wheels_roughness.csv")
     reading.cancel()
     outcome = reading.outcome()  # returns at once: the child was killed

@@ -149,7 +149,7 @@ def test_closing_the_window_while_a_large_file_is_read_stops_the_reading(qtbot, 
     import rankwise.ui.window_files as window_files
 
     monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
-    monkeypatch.setattr(read_aside, "child_command", lambda path: [sys.executable, "-c", "import time; time.sleep(600)"])
+    monkeypatch.setattr(read_aside, "child_command", lambda *args: [sys.executable, "-c", "import time; time.sleep(600)"])
     assert window.open_path(DEMO_FILES / "two_wheels_roughness.csv")
     reading = window.opening
     window.close()

@@ -313,3 +313,27 @@ def test_a_start_tidies_up_saves_cut_short_in_the_folders_rankwise_saved_into(tm
     os.utime(left, (then, then))
     remove_interrupted_saves_in_the_background().join(CHILD_LIMIT_S)
     assert not left.exists()
+
+
+def test_a_large_files_first_edit_is_kept_from_the_lines_its_reader_wrote(qtbot, window, monkeypatch):
+    """The process that read a large file also wrote its sheet's lines for the recovery file: the first
+    edit's copy takes them (nothing is encoded again in the window's process, and their file then
+    goes) and reads back as the sheet stands after the edit."""
+    import rankwise.ui.recovery as recovery
+    import rankwise.ui.window_files as window_files
+
+    encoded_here = []
+    real_base_lines = recovery.base_lines
+    monkeypatch.setattr(recovery, "base_lines", lambda *args: (encoded_here.append(args), real_base_lines(*args))[1])
+    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+    assert window.open_path(Path(__file__).resolve().parents[2] / "demo_files" / "long_export.csv")
+    qtbot.waitUntil(lambda: window.opening is None, timeout=PATIENCE_MS)
+    folder, name = window.keeper.file.folder, window.keeper.file.path.name
+    assert len(list(folder.glob(f".{name}.opened-*.tmp"))) == 1 and not window.keeper.file.exists()
+    model = window.sheet_model
+    model.setData(model.index(2, 1), window.sheet.groups[1].cells[7].text)
+    assert window.keeper.wait_until_written()
+    assert encoded_here == [] and list(folder.glob(f".{name}.opened-*.tmp")) == []
+    kept = window.keeper.file.load()
+    assert kept.changes == 1 and kept.source == str(window.source_path)
+    assert [(g.name, g.cells) for g in kept.snapshot.groups] == [(g.name, tuple(g.cells)) for g in window.sheet.groups]

@@ -102,24 +102,36 @@ def change_record(groups: list[list[Cell]], kind: str, first_group: int, last_gr
 
 def base_lines(snapshot: SheetSnapshot, question: dict[str, Any], source: str) -> Iterator[str]:
     """The journal's first lines: the header, then the whole sheet in pieces."""
-    pieces = [
-        Piece(g, start, group.cells[start:start + PIECE_CELLS])
-        for g, group in enumerate(snapshot.groups)
-        for start in range(0, len(group.cells), PIECE_CELLS)
-    ]
+    yield header_line(sheet_header(snapshot), question, source)
+    yield from piece_lines(snapshot)
+
+
+def sheet_header(snapshot: SheetSnapshot) -> dict[str, Any]:
+    """What the header says of the sheet: its settings, its groups with their lengths, and how many
+    ``piece_lines`` of it follow the header."""
     sheet = snapshot.to_dict(with_cells=False)
     for data, group in zip(sheet["groups"], snapshot.groups):
         data["length"] = len(group.cells)
-    yield _line({
+    return {"sheet": sheet, "pieces": sum(-(-len(group.cells) // PIECE_CELLS) for group in snapshot.groups)}
+
+
+def header_line(header: dict[str, Any], question: dict[str, Any], source: str) -> str:
+    """The journal's first line (``header``: the ``sheet_header`` of the sheet whose pieces follow)."""
+    return _line({
         "format": JOURNAL_FORMAT,
         "started_at": datetime.now(timezone.utc).isoformat(timespec="seconds"),
         "source": source,
         "question": question,
-        "sheet": sheet,
-        "pieces": len(pieces),
+        **header,
     })
+
+
+def piece_lines(snapshot: SheetSnapshot) -> Iterator[str]:
+    """The whole sheet in pieces (``Piece``), group by group (written after ``header_line``)."""
     encoded: dict[int, str] = {}
-    yield from (_piece_line(piece, encoded) for piece in pieces)
+    for g, group in enumerate(snapshot.groups):
+        for start in range(0, len(group.cells), PIECE_CELLS):
+            yield _piece_line(Piece(g, start, group.cells[start:start + PIECE_CELLS]), encoded)
 
 
 def change_lines(record: ChangeRecord) -> Iterator[str]:

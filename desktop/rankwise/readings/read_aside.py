@@ -4,10 +4,11 @@ Python runs one thread of a process at a time. The file readers (pandas, the tex
 arrays of a 10^6-row export) keep that turn for tens of milliseconds at a stretch for a second or
 more, and the window's thread, which needs a turn each time it draws, waited for each of them. In
 a child process they take no turn from the window: the child reads the file, builds the sheet and
-sends both back pickled (about 35 MB for 10^6 readings, unpickled in about 30 ms). A reader that
-crashes, or is killed, ends the child, never the window; the window reports it in words.
+sends both back pickled (about 35 MB for 10^6 readings). A reader that crashes, or is killed, ends
+the child, never the window; the window reports it in words. The child also writes the sheet's
+lines for the recovery file's first copy (encoding 10^6 cells there, too, kept the window waiting).
 
-    python -m rankwise.readings.read_aside FILE   (writes the pickled ``Outcome`` to standard output)
+    python -m rankwise.readings.read_aside FILE [--pieces-to PIECES]   (the pickled ``Outcome`` to standard output)
 """
 
 from __future__ import annotations
@@ -27,6 +28,7 @@ import numpy as np
 
 from rankwise.readings.cell_codes import CellCodes
 from rankwise.readings.cells import Cell
+from rankwise.readings.entry_journal import piece_lines
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet
 from rankwise.readings.sheet import ReadingSheet
@@ -40,12 +42,16 @@ class Outcome:
         kind: "opened" (``reading_set`` and ``sheet`` hold the readings), "many characteristics"
             (the file holds one row per part and many characteristics; nothing was read) or
             "failed" (``message`` says why, in plain words).
+        pieces: the file holding ``entry_journal.piece_lines`` of the sheet as read, when one was
+            asked for and written (the recovery file's first copy takes them instead of encoding
+            every cell on the window's side); else None.
     """
 
     kind: str
     reading_set: ReadingSet | None = None
     sheet: ReadingSheet | None = None
     message: str = ""
+    pieces: Path | None = None
 
 
 def sheet_of(reading_set: ReadingSet) -> ReadingSheet:
@@ -111,9 +117,9 @@ def _settled(reading_set: ReadingSet) -> ReadingSet:
     return dataclasses.replace(reading_set, groups=tuple(settled(group) for group in reading_set.groups))
 
 
-def _child_main(path: str) -> int:
+def _child_main(path: str, pieces_to: str | None) -> int:
     """Read ``path`` and write the pickled outcome to standard output (anything a reader prints goes
-    to standard error instead)."""
+    to standard error instead); with ``pieces_to``, also the piece lines of the sheet read, there."""
     out, sys.stdout = sys.stdout.buffer, sys.stderr
     try:
         outcome = read_file(Path(path))
@@ -124,9 +130,22 @@ def _child_main(path: str) -> int:
         outcome = Outcome("failed", message=_unexpected(f"{type(error).__name__}: {error}"))
     if outcome.reading_set is not None:
         outcome = dataclasses.replace(outcome, reading_set=_settled(outcome.reading_set))
+    if outcome.sheet is not None and pieces_to is not None:
+        outcome = dataclasses.replace(outcome, pieces=_write_pieces(outcome.sheet, Path(pieces_to)))
     out.write(pickle.dumps(outcome, protocol=pickle.HIGHEST_PROTOCOL))
     out.flush()
     return 0
+
+
+def _write_pieces(sheet: ReadingSheet, path: Path) -> Path | None:
+    """Write the sheet's piece lines to ``path``; None (and no file) when they cannot be written."""
+    try:
+        with open(path, "w", encoding="utf-8", newline="\n") as stream:
+            stream.writelines(piece_lines(sheet.snapshot()))
+    except OSError:
+        path.unlink(missing_ok=True)
+        return None
+    return path
 
 
 def _unexpected(what: str) -> str:
@@ -134,20 +153,24 @@ def _unexpected(what: str) -> str:
             "open it in the program that made it and save it again, or open a copy.")
 
 
-def child_command(path: Path) -> list[str]:
-    """The command that reads ``path`` in a child process."""
-    return [sys.executable, "-m", "rankwise.readings.read_aside", str(path)]
+def child_command(path: Path, pieces_to: Path | None) -> list[str]:
+    """The command that reads ``path`` in a child process (and writes the sheet's piece lines to ``pieces_to``)."""
+    return [sys.executable, "-m", "rankwise.readings.read_aside", str(path),
+            *(["--pieces-to", str(pieces_to)] if pieces_to is not None else [])]
 
 
 class ChildReading:
-    """One file read in a child process; ``outcome()`` waits for it (without holding the window's turn)."""
+    """One file read in a child process; ``outcome()`` waits for it (without holding the window's turn).
 
-    def __init__(self, path: Path) -> None:
+    ``pieces_to``: where the child may write the piece lines of the sheet it reads (``Outcome.pieces``).
+    """
+
+    def __init__(self, path: Path, pieces_to: Path | None = None) -> None:
         package_parent = str(Path(__file__).resolve().parents[2])
         paths = [package_parent, *filter(None, os.environ.get("PYTHONPATH", "").split(os.pathsep))]
         environment = dict(os.environ, PYTHONPATH=os.pathsep.join(paths))
         self._errors = tempfile.TemporaryFile()
-        self._child = subprocess.Popen(child_command(path), stdin=subprocess.DEVNULL, stdout=subprocess.PIPE,
+        self._child = subprocess.Popen(child_command(path, pieces_to), stdin=subprocess.DEVNULL, stdout=subprocess.PIPE,
                                        stderr=self._errors, env=environment)
         self.cancelled = False
 
@@ -183,8 +206,8 @@ def _ending(code: int) -> str:
 
 
 if __name__ == "__main__":
-    if len(sys.argv) != 2:
-        sys.exit("usage: python -m rankwise.readings.read_aside FILE")
+    if len(sys.argv) not in (2, 4) or (len(sys.argv) == 4 and sys.argv[2] != "--pieces-to"):
+        sys.exit("usage: python -m rankwise.readings.read_aside FILE [--pieces-to PIECES]")
     from rankwise.readings import read_aside  # pickled under its own name, not as __main__
 
-    sys.exit(read_aside._child_main(sys.argv[1]))
+    sys.exit(read_aside._child_main(sys.argv[1], sys.argv[3] if len(sys.argv) == 4 else None))

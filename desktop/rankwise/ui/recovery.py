@@ -20,7 +20,7 @@ import os
 import queue
 import tempfile
 import threading
-from collections.abc import Callable
+from collections.abc import Callable, Iterable, Iterator
 from pathlib import Path
 from typing import Any
 
@@ -32,8 +32,10 @@ from rankwise.readings.entry_journal import (
     base_lines,
     change_lines,
     change_record,
+    header_line,
     question_line,
     read_journal,
+    sheet_header,
 )
 
 ENTRY_SUFFIX = ".rankwise-entry"
@@ -44,6 +46,7 @@ SMALL_PIECES = 2
 on the window's thread (well under a millisecond); larger work goes to the writer's thread."""
 
 _window_numbers = itertools.count(1)
+_pieces_numbers = itertools.count(1)
 
 
 def recovery_folder() -> Path:
@@ -282,6 +285,15 @@ class JournalWriter:
                 pass
 
 
+def _lines_with_pieces(head: str, pieces: Path, tail: Iterable[str]) -> Iterator[str]:
+    """``head``, the piece lines kept in ``pieces`` (a megabyte at a time; the file goes once read), then ``tail``."""
+    yield head
+    with open(pieces, encoding="utf-8", newline="\n") as stream:
+        yield from iter(lambda: stream.read(1 << 20), "")
+    pieces.unlink(missing_ok=True)
+    yield from tail
+
+
 class RecoveryKeeper(QObject):
     """Keeps a window's unsaved entry in its recovery file, edit by edit, off the window's thread.
 
@@ -307,6 +319,8 @@ class RecoveryKeeper(QObject):
         self._writer = JournalWriter(file.path, self.problem.emit)
         self._sheet = None
         self._has_copy = False
+        self._pieces: tuple[object, Path, dict] | None = None
+        """The sheet, the file of its piece lines as opened (``use_pieces``) and its ``sheet_header``."""
 
     def follow(self, sheet) -> None:
         """Keep ``sheet`` from now on (a new entry, an opened file): the old entry's file goes."""
@@ -314,10 +328,25 @@ class RecoveryKeeper(QObject):
             self._sheet.unsubscribe(self._on_change)
         self._sheet = sheet
         sheet.subscribe(self._on_change)
+        self._drop_pieces()
         if self._has_copy:
             self._writer.remove()
             self._has_copy = False
         self.settle()
+
+    def pieces_file(self) -> Path:
+        """A new path where a reader may write the piece lines of a sheet it opens (``use_pieces``);
+        it lies with this window's temporary files and goes with them."""
+        return self.file.folder / f".{self.file.path.name}.opened-{next(_pieces_numbers)}.tmp"
+
+    def use_pieces(self, sheet, pieces: Path) -> None:
+        """``pieces`` holds the piece lines of ``sheet`` as it stands now (written by the process that
+        read the file): the first edit's full copy takes them instead of encoding every cell here."""
+        self._drop_pieces()
+        if sheet is self._sheet and not self._has_copy:
+            self._pieces = (sheet, pieces, sheet_header(sheet.snapshot()))
+        else:
+            pieces.unlink(missing_ok=True)
 
     def adopt(self, left: RecoveryFile) -> None:
         """Take over ``left``, whose entry the window now shows (restored): its file becomes this
@@ -357,6 +386,7 @@ class RecoveryKeeper(QObject):
         """The window closes normally: remove its file and let go of its lock."""
         if self._sheet is not None:
             self._sheet.unsubscribe(self._on_change)
+        self._drop_pieces()
         self._writer.remove()
         self._writer.stop()
         self.file.clear()
@@ -367,14 +397,30 @@ class RecoveryKeeper(QObject):
             self._writer.copy_lost.clear()
             self._has_copy = False
         record = None
-        if self._has_copy:
+        if self._has_copy or self._pieces is not None:
             columns = [group.cells for group in self._sheet.groups]
             record = change_record(columns, change.kind, change.first_group, change.last_group,
                                    change.first_row, change.last_row)
         if record is None:
+            self._drop_pieces()
             self._write_copy()
+        elif not self._has_copy:
+            self._write_copy_from_pieces(record)
         else:
             self._writer.append(lambda: change_lines(record), small=len(record.pieces) <= SMALL_PIECES)
+
+    def _write_copy_from_pieces(self, record) -> None:
+        """The first copy of an opened file: its header, its piece lines as opened, then this first change."""
+        _, pieces, header = self._pieces
+        self._pieces = None
+        head = header_line(header, self._question(), self._source())
+        self._writer.start_over(lambda: _lines_with_pieces(head, pieces, change_lines(record)))
+        self._has_copy = True
+
+    def _drop_pieces(self) -> None:
+        if self._pieces is not None:
+            self._pieces[1].unlink(missing_ok=True)
+            self._pieces = None
 
     def _write_copy(self) -> None:
         snapshot, question, source = self._sheet.snapshot(), self._question(), self._source()

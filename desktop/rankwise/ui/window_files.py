@@ -39,18 +39,20 @@ class FileOpening(QObject):
     the window's process only unpacks the outcome.
 
     Signals:
-        opened(object, object): the ``ReadingSet`` read and the ``ReadingSheet`` built from it.
+        opened(object, object, object): the ``ReadingSet`` read, the ``ReadingSheet`` built from it, and
+            the file of the sheet's piece lines for the recovery file (``pieces_to``), or None.
         failed(str): the plain-words reason the file cannot be opened.
         many_characteristics(): the file holds many characteristics (one row per part); nothing was read.
     """
 
-    opened = Signal(object, object)
+    opened = Signal(object, object, object)
     failed = Signal(str)
     many_characteristics = Signal()
 
-    def __init__(self, path: Path, parent: QObject | None = None) -> None:
+    def __init__(self, path: Path, pieces_to: Path | None = None, parent: QObject | None = None) -> None:
         super().__init__(parent)
         self.path = path
+        self._pieces_to = pieces_to
         self._reading = None
         self._thread = threading.Thread(target=self._read, name="rankwise-open", daemon=True)
 
@@ -58,7 +60,7 @@ class FileOpening(QObject):
         """Begin reading; one of the signals follows (none after ``cancel``)."""
         from rankwise.readings.read_aside import ChildReading
 
-        self._reading = ChildReading(self.path)
+        self._reading = ChildReading(self.path, self._pieces_to)
         self._thread.start()
 
     def cancel(self) -> None:
@@ -73,7 +75,7 @@ class FileOpening(QObject):
         if outcome.kind == "many characteristics":
             self.many_characteristics.emit()
         elif outcome.kind == "opened":
-            self.opened.emit(outcome.reading_set, outcome.sheet)
+            self.opened.emit(outcome.reading_set, outcome.sheet, outcome.pieces)
         else:
             self.failed.emit(outcome.message)
 
@@ -126,7 +128,7 @@ class WindowFiles:
             remember_file(path)
             return True
         if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
-            self.opening = FileOpening(path, self)  # it looks for many characteristics first, on its thread
+            self.opening = FileOpening(path, self.keeper.pieces_file(), self)  # it looks for many characteristics first, on its thread
             self.opening.opened.connect(self._on_file_opened)
             self.opening.failed.connect(self._on_file_failed)
             self.opening.many_characteristics.connect(self._on_many_characteristics)
@@ -151,9 +153,11 @@ class WindowFiles:
         remember_file(path)
         return True
 
-    def _on_file_opened(self, reading_set, sheet: ReadingSheet) -> None:
+    def _on_file_opened(self, reading_set, sheet: ReadingSheet, pieces: Path | None) -> None:
         path, self.opening = self.opening.path, None
         self.load_reading_set(reading_set, path, sheet)
+        if pieces is not None:
+            self.keeper.use_pieces(sheet, pieces)
         remember_file(path)
 
     def _offer_characteristics(self, path: Path) -> bool | None:
