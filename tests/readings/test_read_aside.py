@@ -110,3 +110,17 @@ def test_a_pickled_group_keeps_its_arrays_in_step_with_its_cells():
     assert back == group and back._kept_arrays() is not None
     np.testing.assert_array_equal(back.arrays().values, arrays.values)
     np.testing.assert_array_equal(back.arrays().decimals, arrays.decimals)
+
+
+def test_the_child_writes_the_sheets_piece_lines_where_asked(tmp_path):
+    from rankwise.readings.entry_journal import piece_lines
+
+    pieces = tmp_path / "pieces.tmp"
+    outcome = read_aside.ChildReading(DEMO_FILES / "long_export.csv", pieces).outcome()
+    assert outcome.pieces == pieces
+    assert pieces.read_text(encoding="utf-8") == "".join(piece_lines(outcome.sheet.snapshot()))
+
+
+def test_piece_lines_that_cannot_be_written_leave_the_reading_as_it_is(tmp_path):
+    outcome = read_aside.ChildReading(DEMO_FILES / "long_export.csv", tmp_path / "no-such-folder" / "pieces.tmp").outcome()
+    assert outcome.kind == "opened" and outcome.pieces is None
