@@ -8,7 +8,7 @@ one reading, and waits for the updated verdict. It prints one line of JSON: the 
 each step, the most processor time the window's thread itself spent between two turns of its loop
 in that step (on a shared machine a stall is also time spent waiting for a core or for the other
 threads to let go of Python's interpreter lock), the time to each verdict, and the peak memory
-of the process (ru_maxrss) once the file is open and at the end. With ``--stalls`` a watching
+of the process (``peak_mib``) once the file is open and at the end. With ``--stalls`` a watching
 thread looks at every thread every 10 ms while the window's event loop stands still for more than
 50 ms and prints to stderr, for the longest stalls, the step they came in and the stacks it found
 most often on each thread (the window's thread mostly shows the event loop: it is waiting, and
@@ -19,7 +19,6 @@ from __future__ import annotations
 
 import json
 import os
-import resource
 import sys
 import tempfile
 import threading
@@ -105,6 +104,16 @@ class StallWatch:
                 print(f"  {count * 10:6d} ms  {thread}: " + "  <  ".join(reversed(stack)), file=sys.stderr)
 
 
+def peak_mib() -> float:
+    """The most memory this process has held (VmHWM, in MiB). Not ``ru_maxrss``: Linux keeps that
+    across ``exec``, so a child started by a large process reports its parent's size."""
+    with open("/proc/self/status", encoding="ascii") as status:
+        for line in status:
+            if line.startswith("VmHWM:"):
+                return int(line.split()[1]) / 1024.0
+    raise OSError("no VmHWM in /proc/self/status")
+
+
 def wait(condition, timeout_s: float = 600.0) -> None:
     """Turn the event loop until ``condition()`` holds (the heartbeat keeps beating meanwhile)."""
     loop = QEventLoop()
@@ -143,7 +152,7 @@ def measure(path: Path) -> dict:
     wait(lambda: bool(shown) and not window.runner.busy and getattr(window, "opening", None) is None)
     figures["open_to_verdict_s"] = time.perf_counter() - start
     figures["stall_open_ms"], figures["busy_open_ms"] = heartbeat.step()
-    figures["peak_open_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
+    figures["peak_open_mib"] = peak_mib()
 
     if watch is not None:
         watch.step = "showing ranks and dots"
@@ -164,7 +173,7 @@ def measure(path: Path) -> dict:
     figures["edit_to_verdict_s"] = time.perf_counter() - start
     wait(lambda: window.keeper.wait_until_written(0))  # the recovery copy written, the window turning meanwhile
     figures["stall_edit_ms"], figures["busy_edit_ms"] = heartbeat.step()
-    figures["peak_mib"] = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024.0
+    figures["peak_mib"] = peak_mib()
     if watch is not None:
         watch.report()
     window.close()
