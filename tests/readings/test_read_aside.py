@@ -113,11 +113,11 @@ def test_a_pickled_group_keeps_its_arrays_in_step_with_its_cells():
 
 
 def test_the_child_writes_the_sheets_piece_lines_where_asked(tmp_path):
-    from rankwise.readings.entry_journal import piece_lines
+    from rankwise.readings.entry_journal import piece_lines, sheet_header
 
     pieces = tmp_path / "pieces.tmp"
     outcome = read_aside.ChildReading(DEMO_FILES / "long_export.csv", pieces).outcome()
-    assert outcome.pieces == pieces
+    assert outcome.pieces.path == pieces and outcome.pieces.header == sheet_header(outcome.sheet.snapshot())
     assert pieces.read_text(encoding="utf-8") == "".join(piece_lines(outcome.sheet.snapshot()))
 
 

@@ -137,8 +137,9 @@ def test_a_damaged_entry_is_put_aside_and_reported_in_words(qtbot, tmp_path, ans
     assert restarted.sheet.group_names == ["A", "B"]
 
 
-def test_temporary_copies_and_locks_of_gone_windows_are_cleaned_up(qtbot, tmp_path, answers):
-    leftover = tmp_path / f".window-1-7{ENTRY_SUFFIX}.abcd1234.tmp"
+@pytest.mark.parametrize("what", ["abcd1234", "opened-3"])  # a copy cut short; the lines a reading process wrote
+def test_temporary_copies_and_locks_of_gone_windows_are_cleaned_up(qtbot, tmp_path, answers, what):
+    leftover = tmp_path / f".window-1-7{ENTRY_SUFFIX}.{what}.tmp"
     leftover.write_text("{}")
     restarted = new_window(qtbot, tmp_path)
     assert not restarted.offer_recovery()

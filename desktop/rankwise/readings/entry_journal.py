@@ -19,6 +19,7 @@ import json
 from collections.abc import Iterable, Iterator
 from dataclasses import dataclass, replace
 from datetime import datetime, timezone
+from pathlib import Path
 from typing import Any
 
 from rankwise.readings.cells import EMPTY_CELL, Cell
@@ -57,6 +58,14 @@ class ChangeRecord:
     count: int
     pieces: tuple[Piece, ...]
     lengths: tuple[tuple[int, int], ...]
+
+
+@dataclass(frozen=True)
+class WrittenPieces:
+    """A sheet's ``piece_lines``, written to the file ``path`` ahead of its journal, and its ``sheet_header``."""
+
+    path: Path
+    header: dict[str, Any]
 
 
 @dataclass(frozen=True)

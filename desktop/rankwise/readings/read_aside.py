@@ -28,7 +28,7 @@ import numpy as np
 
 from rankwise.readings.cell_codes import CellCodes
 from rankwise.readings.cells import Cell
-from rankwise.readings.entry_journal import piece_lines
+from rankwise.readings.entry_journal import WrittenPieces, piece_lines, sheet_header
 from rankwise.readings.errors import ReadingsError
 from rankwise.readings.reading_set import ReadingGroup, ReadingSet
 from rankwise.readings.sheet import ReadingSheet
@@ -42,16 +42,16 @@ class Outcome:
         kind: "opened" (``reading_set`` and ``sheet`` hold the readings), "many characteristics"
             (the file holds one row per part and many characteristics; nothing was read) or
             "failed" (``message`` says why, in plain words).
-        pieces: the file holding ``entry_journal.piece_lines`` of the sheet as read, when one was
-            asked for and written (the recovery file's first copy takes them instead of encoding
-            every cell on the window's side); else None.
+        pieces: the sheet's lines for the recovery file (``entry_journal.piece_lines``, in a file),
+            when they were asked for and written (the recovery file's first copy takes them instead
+            of encoding every cell on the window's side); else None.
     """
 
     kind: str
     reading_set: ReadingSet | None = None
     sheet: ReadingSheet | None = None
     message: str = ""
-    pieces: Path | None = None
+    pieces: WrittenPieces | None = None
 
 
 def sheet_of(reading_set: ReadingSet) -> ReadingSheet:
@@ -137,15 +137,16 @@ def _child_main(path: str, pieces_to: str | None) -> int:
     return 0
 
 
-def _write_pieces(sheet: ReadingSheet, path: Path) -> Path | None:
+def _write_pieces(sheet: ReadingSheet, path: Path) -> WrittenPieces | None:
     """Write the sheet's piece lines to ``path``; None (and no file) when they cannot be written."""
+    snapshot = sheet.snapshot()
     try:
         with open(path, "w", encoding="utf-8", newline="\n") as stream:
-            stream.writelines(piece_lines(sheet.snapshot()))
+            stream.writelines(piece_lines(snapshot))
     except OSError:
         path.unlink(missing_ok=True)
         return None
-    return path
+    return WrittenPieces(path, sheet_header(snapshot))
 
 
 def _unexpected(what: str) -> str:

@@ -27,6 +27,7 @@ from typing import Any
 from PySide6.QtCore import QLockFile, QObject, QStandardPaths, Signal
 
 from rankwise.readings.entry_journal import (
+    WrittenPieces,
     PIECE_CELLS,
     JournalEntry,
     base_lines,
@@ -35,7 +36,6 @@ from rankwise.readings.entry_journal import (
     header_line,
     question_line,
     read_journal,
-    sheet_header,
 )
 
 ENTRY_SUFFIX = ".rankwise-entry"
@@ -319,8 +319,8 @@ class RecoveryKeeper(QObject):
         self._writer = JournalWriter(file.path, self.problem.emit)
         self._sheet = None
         self._has_copy = False
-        self._pieces: tuple[object, Path, dict] | None = None
-        """The sheet, the file of its piece lines as opened (``use_pieces``) and its ``sheet_header``."""
+        self._pieces: tuple[object, WrittenPieces] | None = None
+        """The sheet and its piece lines as opened (``use_pieces``)."""
 
     def follow(self, sheet) -> None:
         """Keep ``sheet`` from now on (a new entry, an opened file): the old entry's file goes."""
@@ -339,14 +339,14 @@ class RecoveryKeeper(QObject):
         it lies with this window's temporary files and goes with them."""
         return self.file.folder / f".{self.file.path.name}.opened-{next(_pieces_numbers)}.tmp"
 
-    def use_pieces(self, sheet, pieces: Path) -> None:
-        """``pieces`` holds the piece lines of ``sheet`` as it stands now (written by the process that
+    def use_pieces(self, sheet, pieces: WrittenPieces) -> None:
+        """``pieces`` are the piece lines of ``sheet`` as it stands now (written by the process that
         read the file): the first edit's full copy takes them instead of encoding every cell here."""
         self._drop_pieces()
         if sheet is self._sheet and not self._has_copy:
-            self._pieces = (sheet, pieces, sheet_header(sheet.snapshot()))
+            self._pieces = (sheet, pieces)
         else:
-            pieces.unlink(missing_ok=True)
+            pieces.path.unlink(missing_ok=True)
 
     def adopt(self, left: RecoveryFile) -> None:
         """Take over ``left``, whose entry the window now shows (restored): its file becomes this
@@ -411,15 +411,15 @@ class RecoveryKeeper(QObject):
 
     def _write_copy_from_pieces(self, record) -> None:
         """The first copy of an opened file: its header, its piece lines as opened, then this first change."""
-        _, pieces, header = self._pieces
+        pieces = self._pieces[1]
         self._pieces = None
-        head = header_line(header, self._question(), self._source())
-        self._writer.start_over(lambda: _lines_with_pieces(head, pieces, change_lines(record)))
+        head = header_line(pieces.header, self._question(), self._source())
+        self._writer.start_over(lambda: _lines_with_pieces(head, pieces.path, change_lines(record)))
         self._has_copy = True
 
     def _drop_pieces(self) -> None:
         if self._pieces is not None:
-            self._pieces[1].unlink(missing_ok=True)
+            self._pieces[1].path.unlink(missing_ok=True)
             self._pieces = None
 
     def _write_copy(self) -> None:

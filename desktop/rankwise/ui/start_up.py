@@ -10,6 +10,8 @@ from __future__ import annotations
 
 
 def import_what_the_window_needs() -> None:
-    """Import the statistics service and the charts (call before the window is shown)."""
-    import rankwise.stats.service  # noqa: F401 - imported for its side effect: loaded once, here
+    """Import the statistics service, the charts and what suggests an opened file's question (call
+    before the window is shown)."""
+    import rankwise.readings.same_parts  # noqa: F401 - imported for their side effect: loaded once, here
+    import rankwise.stats.service  # noqa: F401
     import rankwise.ui.charts  # noqa: F401

@@ -40,7 +40,7 @@ class FileOpening(QObject):
 
     Signals:
         opened(object, object, object): the ``ReadingSet`` read, the ``ReadingSheet`` built from it, and
-            the file of the sheet's piece lines for the recovery file (``pieces_to``), or None.
+            the sheet's lines for the recovery file (``WrittenPieces``, in ``pieces_to``), or None.
         failed(str): the plain-words reason the file cannot be opened.
         many_characteristics(): the file holds many characteristics (one row per part); nothing was read.
     """
@@ -128,7 +128,7 @@ class WindowFiles:
             remember_file(path)
             return True
         if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
-            self.opening = FileOpening(path, self.keeper.pieces_file(), self)  # it looks for many characteristics first, on its thread
+            self.opening = FileOpening(path, self.keeper.pieces_file(), self)  # it looks for many characteristics first, in its process
             self.opening.opened.connect(self._on_file_opened)
             self.opening.failed.connect(self._on_file_failed)
             self.opening.many_characteristics.connect(self._on_many_characteristics)
@@ -153,7 +153,7 @@ class WindowFiles:
         remember_file(path)
         return True
 
-    def _on_file_opened(self, reading_set, sheet: ReadingSheet, pieces: Path | None) -> None:
+    def _on_file_opened(self, reading_set, sheet: ReadingSheet, pieces) -> None:
         path, self.opening = self.opening.path, None
         self.load_reading_set(reading_set, path, sheet)
         if pieces is not None:
