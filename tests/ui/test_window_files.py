@@ -182,3 +182,44 @@ def test_a_large_file_of_many_characteristics_is_recognised_by_the_reading_proce
     qtbot.waitUntil(lambda: window.opening is None and bool(asked), timeout=PATIENCE_MS)
     assert len(asked[0].characteristics) >= 2
     assert window.sheet.group_names == ["A", "B"] and window.source_path is None
+
+
+def _slow_reading(monkeypatch, seconds: float) -> None:
+    """Every file counts as large, and its reading process starts ``seconds`` late (then reads it as usual)."""
+    import sys
+
+    import rankwise.readings.read_aside as read_aside
+    import rankwise.ui.window_files as window_files
+
+    real_command = read_aside.child_command
+    late = f"import runpy, sys, time; time.sleep({seconds}); sys.argv = ['read_aside', *sys.argv[1:]]; " \
+           "runpy.run_module('rankwise.readings.read_aside', run_name='__main__')"
+    monkeypatch.setattr(window_files, "LARGE_FILE_BYTES", 10)
+    monkeypatch.setattr(read_aside, "child_command",  # the real command's arguments after "-m module"
+                        lambda *args: [sys.executable, "-c", late, *real_command(*args)[3:]])
+
+
+def test_a_second_file_opened_while_a_large_one_is_read_is_the_one_shown(qtbot, window, monkeypatch, answers):
+    """The first reading is stopped: the sheet, its name and its readings are the second file's."""
+    _slow_reading(monkeypatch, 1.0)
+    first, second = DEMO_FILES / "long_export.csv", DEMO_FILES / "two_wheels_roughness.csv"
+    assert window.open_path(first)
+    reading = window.opening
+    assert window.open_path(second)
+    qtbot.waitUntil(lambda: window.opening is None and window.source_path == second, timeout=PATIENCE_MS)
+    reading._thread.join(PATIENCE_MS / 1000)
+    qtbot.wait(50)  # anything the stopped reading had sent on its way is handled
+    assert window.source_path == second and window.sheet.group_names[0].startswith("Wheel A")
+    assert not answers.problems
+    wait_for_verdict(qtbot, window)
+
+
+def test_a_new_sheet_started_while_a_large_file_is_read_stays(qtbot, window, monkeypatch, answers):
+    _slow_reading(monkeypatch, 0.5)
+    assert window.open_path(DEMO_FILES / "long_export.csv")
+    reading = window.opening
+    window.new_sheet()
+    assert window.opening is None
+    reading._thread.join(PATIENCE_MS / 1000)
+    qtbot.wait(50)
+    assert window.sheet.group_names == ["A", "B"] and window.source_path is None and not answers.problems

@@ -111,8 +111,7 @@ class MainWindow(WindowPanes, WindowMenus, WindowKeyboard, WindowSheet, WindowGr
         if not self._may_replace_sheet():
             event.ignore()
             return
-        if self.opening is not None:
-            self.opening.cancel()
+        self.stop_opening()
         self.runner.cancel()
         self.runner.wait_until_idle(3000)
         self.keeper.close()

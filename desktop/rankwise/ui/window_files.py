@@ -128,6 +128,7 @@ class WindowFiles:
             remember_file(path)
             return True
         if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
+            self.stop_opening()
             self.opening = FileOpening(path, self.keeper.pieces_file(), self)  # it looks for many characteristics first, in its process
             self.opening.opened.connect(self._on_file_opened)
             self.opening.failed.connect(self._on_file_failed)
@@ -153,7 +154,21 @@ class WindowFiles:
         remember_file(path)
         return True
 
+    def stop_opening(self) -> None:
+        """Stop reading a large file that is still being read (another sheet is shown, or the window closes)."""
+        if self.opening is not None:
+            self.opening.cancel()
+            self.opening = None
+
+    def _is_stale(self) -> bool:
+        """True for a notice of a reading stopped meanwhile (it was on its way when the reading stopped)."""
+        return self.opening is None or self.sender() is not self.opening
+
     def _on_file_opened(self, reading_set, sheet: ReadingSheet, pieces) -> None:
+        if self._is_stale():
+            if pieces is not None:
+                pieces.path.unlink(missing_ok=True)
+            return
         path, self.opening = self.opening.path, None
         self.load_reading_set(reading_set, path, sheet)
         if pieces is not None:
@@ -170,11 +185,15 @@ class WindowFiles:
         return many
 
     def _on_many_characteristics(self) -> None:
+        if self._is_stale():
+            return
         path, self.opening = self.opening.path, None
         self.statusBar().clearMessage()
         self._offer_characteristics(path)
 
     def _on_file_failed(self, message: str) -> None:
+        if self._is_stale():
+            return
         self.opening = None
         self.statusBar().clearMessage()
         dialogs.show_problem(self, "Cannot open the file", message)

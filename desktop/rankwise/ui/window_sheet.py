@@ -14,6 +14,7 @@ class WindowSheet:
 
     def set_sheet(self, sheet: ReadingSheet, source: Path | None = None) -> None:
         """Show ``sheet`` in the grid (a new entry, an opened file, or a restored one)."""
+        self.stop_opening()  # a file still being read would replace this sheet when it arrived
         self.sheet.unsubscribe(self._on_sheet_changed)
         self.sheet = sheet
         self.source_path = source
