@@ -27,9 +27,9 @@ from typing import Any
 from PySide6.QtCore import QLockFile, QObject, QStandardPaths, Signal
 
 from rankwise.readings.entry_journal import (
-    WrittenPieces,
     PIECE_CELLS,
     JournalEntry,
+    WrittenPieces,
     base_lines,
     change_lines,
     change_record,

@@ -64,7 +64,7 @@ class FileOpening(QObject):
         self._thread.start()
 
     def cancel(self) -> None:
-        """Stop reading (the window is closing)."""
+        """Stop reading (the window shows another sheet, or closes); nothing is sent after this (a signal already on its way can still arrive)."""
         if self._reading is not None:
             self._reading.cancel()
 
