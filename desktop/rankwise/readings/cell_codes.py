@@ -19,7 +19,8 @@ _STEP = 65_536
 
 
 class CellCodes:
-    """``cells`` as ``distinct`` (each cell object once) and ``codes`` (the position in ``distinct`` of each row's cell)."""
+    """``cells`` as ``distinct`` (each cell object once) and ``codes`` (for each row, the position of
+    its cell in ``distinct``)."""
 
     __slots__ = ("distinct", "codes")
 

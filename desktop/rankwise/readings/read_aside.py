@@ -112,7 +112,8 @@ class KnownRows(Known):
 def _settled(reading_set: ReadingSet) -> ReadingSet:
     """The reading set with each group's lazily built parts built, so it can be pickled."""
     def settled(group: ReadingGroup) -> ReadingGroup:
-        return dataclasses.replace(group, make_cells=KnownCells(CellCodes(group.cells)), make_decimals=Known(group.decimals),
+        return dataclasses.replace(group, make_cells=KnownCells(CellCodes(group.cells)),
+                                   make_decimals=Known(group.decimals),
                                    make_rows=KnownRows(np.asarray(group.file_rows, dtype=np.int64)))
     return dataclasses.replace(reading_set, groups=tuple(settled(group) for group in reading_set.groups))
 

@@ -64,7 +64,8 @@ class FileOpening(QObject):
         self._thread.start()
 
     def cancel(self) -> None:
-        """Stop reading (the window shows another sheet, or closes); nothing is sent after this (a signal already on its way can still arrive)."""
+        """Stop reading (the window shows another sheet, or closes): nothing is sent after this, though
+        a signal already on its way can still arrive."""
         if self._reading is not None:
             self._reading.cancel()
 
@@ -129,7 +130,8 @@ class WindowFiles:
             return True
         if not show_dialog and path.stat().st_size > LARGE_FILE_BYTES:
             self.stop_opening()
-            self.opening = FileOpening(path, self.keeper.pieces_file(), self)  # it looks for many characteristics first, in its process
+            # The reading process looks for many characteristics first.
+            self.opening = FileOpening(path, self.keeper.pieces_file(), self)
             self.opening.opened.connect(self._on_file_opened)
             self.opening.failed.connect(self._on_file_failed)
             self.opening.many_characteristics.connect(self._on_many_characteristics)
