@@ -60,7 +60,7 @@ def test_the_fingerprint_changes_with_a_reading_a_setting_or_a_signature():
     record = paired_record()
     base = fingerprint(record)
     group = record.analysis.groups[0]
-    changed_reading = dataclasses.replace(group, values=(1.84,) + group.values[1:])
+    changed_reading = dataclasses.replace(group, values=(1.84, *group.values[1:]))
     variants = [
         dataclasses.replace(record, analysis=dataclasses.replace(record.analysis, groups=(changed_reading,) + record.analysis.groups[1:])),
         dataclasses.replace(record, analysis=dataclasses.replace(

@@ -6,6 +6,8 @@ import math
 from collections.abc import Sequence
 from typing import TYPE_CHECKING
 
+import numpy as np
+
 from rankwise.readings.censored import censoring_for, check_mixed_limits
 from rankwise.readings.cells import Cell, CellKind
 from rankwise.readings.column_arrays import CENSORED, NUMBER
@@ -14,6 +16,7 @@ from rankwise.readings.parse import machine_decimal
 from rankwise.readings.snapshot import RowParts
 from rankwise.wording import pairing as words
 from rankwise.stats.analysis import Analysis, GroupReadings, Question, Settings
+from rankwise.stats.frozen_floats import FrozenFloats
 
 if TYPE_CHECKING:
     from rankwise.readings.sheet import GroupColumn
@@ -66,7 +69,7 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
         values.extend([math.nan] * (length - len(values)))
         groups.append(
             GroupReadings(
-                name=column.name, values=tuple(values), unit=column.unit, lsl=column.lsl, usl=column.usl,
+                name=column.name, values=values, unit=column.unit, lsl=column.lsl, usl=column.usl,
                 nominal=column.nominal, decimals=decimals,
             )
         )
@@ -86,12 +89,12 @@ def build_analysis(columns: Sequence[GroupColumn], question: Question, settings:
 def _readings_from_arrays(column: GroupColumn, length: int) -> GroupReadings:
     """A group's readings when none is censored: each row's reading, NaN elsewhere, padded to ``length``."""
     arrays = column.arrays()
-    # math.nan itself where no reading (as the cell-by-cell reading gives), so that equal analyses compare equal
-    values = [value if value == value else math.nan for value in arrays.values.tolist()]
-    values.extend([math.nan] * (length - len(values)))
+    values = arrays.values
+    if length > values.size:
+        values = np.concatenate([values, np.full(length - values.size, np.nan)])
     measured = arrays.decimals[arrays.kinds == NUMBER]
     return GroupReadings(
-        name=column.name, values=tuple(values), unit=column.unit, lsl=column.lsl, usl=column.usl,
+        name=column.name, values=FrozenFloats(values), unit=column.unit, lsl=column.lsl, usl=column.usl,
         nominal=column.nominal, decimals=max(0, int(measured.max())) if measured.size else None,
     )
 
@@ -141,7 +144,7 @@ def question_notes(question: Question, groups: list[GroupReadings], parts: RowPa
         notes = []
         kept = []
         for group in groups:
-            count = sum(1 for value in group.values if not math.isnan(value))
+            count = int(np.count_nonzero(~np.isnan(np.asarray(group.values))))
             if count == 0:
                 notes.append(words.empty_group_left_out(group.name))
                 continue
@@ -156,16 +159,19 @@ def _part_pairing_notes(groups: list[GroupReadings], parts: RowParts) -> list[st
     """How many parts pair by identifier, and the parts with a reading at one stage only."""
     first, second = groups
     rows = max(len(first.values), len(second.values))
-    paired = 0
-    unpaired = []
-    for row in range(rows):
-        has = [row < len(g.values) and not math.isnan(g.values[row]) for g in groups]
-        part = parts.id_of(row) or f"row {row + 1} (no identifier)"
-        if all(has):
-            paired += 1
-        elif any(has):
-            unpaired.append((part, first.name if has[0] else second.name))
+    has_first, has_second = (_has_reading(group, rows) for group in groups)
+    paired = int(np.count_nonzero(has_first & has_second))
+    unpaired = [(parts.id_of(row) or f"row {row + 1} (no identifier)", first.name if has_first[row] else second.name)
+                for row in np.flatnonzero(has_first ^ has_second).tolist()]
     notes = [words.paired_by_part(paired, parts.column)]
     if unpaired:
         notes.append(words.unpaired_parts(unpaired, "parts"))
     return notes
+
+
+def _has_reading(group: GroupReadings, rows: int) -> np.ndarray:
+    """For each of ``rows`` rows, whether ``group`` has a reading there."""
+    has = np.zeros(rows, dtype=bool)
+    values = np.asarray(group.values)
+    has[:values.size] = ~np.isnan(values)
+    return has

@@ -9,6 +9,8 @@ from __future__ import annotations
 import enum
 from dataclasses import dataclass, field
 
+from rankwise.stats.frozen_floats import FrozenFloats, freeze_fields
+
 
 class Question(str, enum.Enum):
     """The question a technician asks of the readings."""
@@ -38,19 +40,23 @@ class GroupReadings:
 
     Attributes:
         name: the group's name as the user wrote it ("Wheel A", "Press 2").
-        values: the readings; NaN marks a blank that the statistics drop and count.
+        values: the readings; NaN marks a blank that the statistics drop and count. Any sequence
+            of numbers may be given; it is kept as ``FrozenFloats`` (one read-only array).
         unit: the unit of the readings ("µm", "N"), or "".
         lsl, usl, nominal: specification limits and nominal value, or None.
         decimals: the gauge resolution as a number of decimals, when known from the typed text.
     """
 
     name: str
-    values: tuple[float, ...]
+    values: FrozenFloats
     unit: str = ""
     lsl: float | None = None
     usl: float | None = None
     nominal: float | None = None
     decimals: int | None = None
+
+    def __post_init__(self) -> None:
+        freeze_fields(self, "values")
 
 
 @dataclass(frozen=True)

@@ -10,14 +10,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from typing import Iterator
 
-from rankwise.stats.frozen_floats import FrozenFloats
-
-
-def _freeze(result: object, *names: str) -> None:
-    """Turn the fields ``names`` of a frozen result into ``FrozenFloats`` (any sequence of numbers given)."""
-    for name in names:
-        if not isinstance(getattr(result, name), FrozenFloats):
-            object.__setattr__(result, name, FrozenFloats(getattr(result, name)))
+from rankwise.stats.frozen_floats import FrozenFloats, freeze_fields
 
 
 @dataclass(frozen=True)
@@ -103,7 +96,7 @@ class NullDistribution:
     exact: bool
 
     def __post_init__(self) -> None:
-        _freeze(self, "support", "probabilities")
+        freeze_fields(self, "support", "probabilities")
 
 
 @dataclass(frozen=True)
@@ -260,7 +253,7 @@ class TwoGroupResult:
     warnings: tuple[str, ...]
 
     def __post_init__(self) -> None:
-        _freeze(self, "values_a", "values_b", "ranks_a", "ranks_b")
+        freeze_fields(self, "values_a", "values_b", "ranks_a", "ranks_b")
 
     @property
     def median_a(self) -> float:
@@ -352,7 +345,7 @@ class PairedResult:
     warnings: tuple[str, ...]
 
     def __post_init__(self) -> None:
-        _freeze(self, "values_a", "values_b", "differences", "signed_ranks")
+        freeze_fields(self, "values_a", "values_b", "differences", "signed_ranks")
 
 
 @dataclass(frozen=True)

@@ -7,8 +7,9 @@ result is worded once (``rankwise.wording``) and shown in the results panel, ran
 from __future__ import annotations
 
 import functools
-import math
 from dataclasses import replace
+
+import numpy as np
 
 from rankwise.readings import ReadingSheet, ReadingsError
 from rankwise.readings.censored import MixedLimitsError
@@ -37,7 +38,7 @@ def analysis_for(sheet: ReadingSheet, choice) -> Analysis:
         analysis = replace(analysis, decimal_mark=sheet.decimal)
     if choice.notes:  # e.g. where a plan's starting values came from, kept in the record
         analysis = replace(analysis, notes=(*analysis.notes, *choice.notes))
-    empty = [group.name for group in analysis.groups if not any(math.isfinite(v) for v in group.values)]
+    empty = [group.name for group in analysis.groups if not np.isfinite(np.asarray(group.values)).any()]
     if choice.question is not Question.PLAN and empty:
         if len(empty) == len(analysis.groups):
             raise ReadingsError("Type or paste the readings into the sheet, one column per group, "
