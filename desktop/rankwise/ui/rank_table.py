@@ -80,20 +80,25 @@ class RankRows(Sequence):
         return self._make(position)
 
 
-def _tie_positions(sorted_keys: np.ndarray, tied_keys: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """For keys sorted ascending: each row's place in its tie block, and the block's number
-    (counting tie blocks from 1; 0 for a reading that ties with none)."""
-    tied = np.isin(sorted_keys, tied_keys)
-    first = np.searchsorted(sorted_keys, sorted_keys, side="left")
-    starts = tied & (np.arange(sorted_keys.size) == first)
-    return np.arange(sorted_keys.size) - first, np.where(tied, np.cumsum(starts), 0)
+class _TieCells:
+    """The tie column of rows sorted by ``sorted_keys`` (ascending), found when a row is worded: a
+    row's place in its tie block by one binary search, no array kept per row."""
 
+    def __init__(self, sorted_keys: np.ndarray, tie_blocks: tuple[TieBlock, ...]) -> None:
+        self._keys = sorted_keys
+        self._blocks = {block.mid_rank: block for block in tie_blocks}
+        tied = np.array(sorted(self._blocks), dtype=float)
+        self._present = tied[np.isin(tied, sorted_keys)]  # the tie blocks the rows show, numbered from 1
 
-def _tie_cells(block: TieBlock | None, place: int, number: int, mark: str) -> tuple[str, str, int]:
-    """The tie column of a row: bracket mark, words, block number ("", "", 0 without a tie)."""
-    if block is None:
-        return "", "", 0
-    return _bracket(place, block.count), _tie_words(block, mark), number
+    def cells(self, position: int, mark: str) -> tuple[str, str, int]:
+        """Bracket mark, words and block number of the row at ``position`` ("", "", 0 without a tie)."""
+        key = float(self._keys[position])
+        block = self._blocks.get(key)
+        if block is None:
+            return "", "", 0
+        place = position - int(np.searchsorted(self._keys, key, side="left"))
+        number = int(np.searchsorted(self._present, key, side="left")) + 1
+        return _bracket(place, block.count), _tie_words(block, mark), number
 
 
 def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...],
@@ -101,20 +106,23 @@ def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...
                     decimals: int | None, mark: str = ".") -> RankRows:
     """Combined sorted readings of independent groups: position, group, reading, rank, tie
     (numbers written with the decimal ``mark``); ordered by rank, then group, then entry."""
-    all_values = np.concatenate([np.asarray(v, dtype=float) for v in values]) if values else np.empty(0)
+    lengths = [len(v) for v in values]
     all_ranks = np.concatenate([np.asarray(r, dtype=float) for r in ranks]) if ranks else np.empty(0)
-    group_of = np.concatenate([np.full(len(v), g) for g, v in enumerate(values)]) if values else np.empty(0, int)
-    entry_of = np.concatenate([np.arange(len(v)) for v in values]) if values else np.empty(0, int)
+    group_of = np.repeat(np.arange(len(values), dtype=np.int32), lengths)
+    entry_of = np.concatenate([np.arange(n, dtype=np.int32) for n in lengths]) if values else np.empty(0, np.int32)
     order = np.lexsort((entry_of, group_of, all_ranks))
-    sorted_ranks = all_ranks[order]
-    by_rank = {block.mid_rank: block for block in tie_blocks}
-    place, number = _tie_positions(sorted_ranks, np.array(sorted(by_rank), dtype=float))
+    # only the sorted columns are kept: a row is looked up by its position, not by its reading
+    sorted_ranks, sorted_group, sorted_entry = all_ranks[order], group_of[order], entry_of[order]
+    del all_ranks, group_of, entry_of
+    all_values = np.concatenate([np.asarray(v, dtype=float) for v in values]) if values else np.empty(0)
+    sorted_values = all_values[order]
+    del all_values, order
+    ties = _TieCells(sorted_ranks, tie_blocks)
 
     def make(position: int) -> RankRow:
-        index = order[position]
-        rank, group, row = float(all_ranks[index]), int(group_of[index]), int(entry_of[index])
-        bracket, words, block_number = _tie_cells(by_rank.get(rank), int(place[position]), int(number[position]), mark)
-        reading = format_reading(float(all_values[index]), decimals, mark)
+        rank, group, row = float(sorted_ranks[position]), int(sorted_group[position]), int(sorted_entry[position])
+        bracket, words, block_number = ties.cells(position, mark)
+        reading = format_reading(float(sorted_values[position]), decimals, mark)
         rank_text = format_count(rank, mark)
         return RankRow(
             cells=(str(position + 1), names[group], reading, rank_text),
@@ -123,7 +131,7 @@ def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...
                     + (f"; {words}" if words else ""),
         )
 
-    return RankRows(int(order.size), make)
+    return RankRows(int(sorted_ranks.size), make)
 
 
 def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") -> RankRows:
@@ -134,13 +142,11 @@ def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") 
     size_of_rank = np.abs(signed)
     order = np.lexsort((np.arange(signed.size), np.abs(differences), size_of_rank))
     sorted_keys = size_of_rank[order]
-    by_rank = {block.mid_rank: block for block in result.tie_blocks}
-    place, number = _tie_positions(sorted_keys, np.array(sorted(by_rank), dtype=float))
+    ties = _TieCells(sorted_keys, result.tie_blocks)
 
     def make(position: int) -> RankRow:
         i = int(order[position])
-        bracket, words, block_number = _tie_cells(by_rank.get(float(sorted_keys[position])), int(place[position]),
-                                                  int(number[position]), mark)
+        bracket, words, block_number = ties.cells(position, mark)
         signed_rank = result.signed_ranks[i]
         difference = format_reading(result.differences[i], decimals, mark)
         rank_text = "not ranked (no difference)" if signed_rank == 0 else (
