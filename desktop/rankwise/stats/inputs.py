@@ -7,6 +7,8 @@ from collections.abc import Iterable, Sequence
 
 import numpy as np
 
+from rankwise.stats.frozen_floats import FrozenFloats
+
 
 def clean_group(values: Sequence[float] | np.ndarray, label: str) -> tuple[np.ndarray, int]:
     """Return the readings of one group as floats without blanks, and how many blanks were dropped.
@@ -33,6 +35,8 @@ def readings_array(values: Sequence[float] | np.ndarray, what: str) -> np.ndarra
     """The readings as a flat float array, blanks (None) as NaN; ``what`` names them in messages
     ("Group A", "The before readings"). Only a flat list (or 1-D array) of numbers is taken."""
     expected = "give one list of numeric readings per group, e.g. [1.2, 1.3, 1.25]"
+    if isinstance(values, FrozenFloats):  # already one row of floats, read-only: used as it is
+        return np.asarray(values)
     if isinstance(values, np.ndarray):
         if values.ndim != 1:
             raise ValueError(f"{what} is a table of {values.ndim} dimensions, not a list; {expected}.")

@@ -66,7 +66,8 @@ def _shared_settings(first: GroupReadings, second: GroupReadings, analysis: Anal
 def _two_groups(analysis: Analysis, monitor: Monitor) -> Result:
     """Mann-Whitney U comparison: groups[0] is A (reference), groups[1] is B."""
     group_a, group_b = _two_columns(analysis, "Comparing two groups needs exactly two groups of readings (A and B)")
-    return compare_two(_values(group_a), _values(group_b), **_shared_settings(group_a, group_b, analysis, monitor))
+    # the frozen runs themselves: the result keeps them instead of copies when no reading is blank
+    return compare_two(group_a.values, group_b.values, **_shared_settings(group_a, group_b, analysis, monitor))
 
 
 def _paired(analysis: Analysis, monitor: Monitor) -> Result:

@@ -121,7 +121,9 @@ def compare_two(
     significant = p_value <= alpha + _P_TOLERANCE
 
     if estimate_shift or margin is not None:
-        sorted_a, sorted_b = np.sort(counts_a), np.sort(counts_b)
+        counts_a.sort()  # in place: the counts are not needed in entry order any more
+        counts_b.sort()
+        sorted_a, sorted_b = counts_a, counts_b
     shift = shift_ci = None
     if estimate_shift:
         shift = float(grid.to_readings(hodges_lehmann_shift(sorted_a, sorted_b)))
@@ -145,10 +147,10 @@ def compare_two(
         n_b=n_b,
         n_dropped_a=dropped_a,
         n_dropped_b=dropped_b,
-        values_a=FrozenFloats(values_a),
-        values_b=FrozenFloats(values_b),
-        ranks_a=FrozenFloats(ranks_a),
-        ranks_b=FrozenFloats(ranks_b),
+        values_a=_kept_readings(a, values_a, dropped_a),
+        values_b=_kept_readings(b, values_b, dropped_b),
+        ranks_a=FrozenFloats.handed_over(ranks_a),
+        ranks_b=FrozenFloats.handed_over(ranks_b),
         tie_blocks=tie_blocks,
         rank_sum_a=rank_sum_a,
         rank_sum_b=rank_sum_b,
@@ -183,6 +185,14 @@ def compare_two(
         min_parts_needed=min_parts,
         warnings=warnings,
     )
+
+
+def _kept_readings(given: Sequence[float] | np.ndarray, cleaned: np.ndarray, dropped: int) -> FrozenFloats:
+    """The readings as the result keeps them: the given run itself when it was frozen and had no
+    blank, the array the cleaning made when it dropped blanks, otherwise a copy of the caller's."""
+    if dropped:
+        return FrozenFloats.handed_over(cleaned)
+    return FrozenFloats(given if isinstance(given, FrozenFloats) else cleaned)
 
 
 def exact_affordable(n_a: int, n_b: int, tie_blocks: tuple[TieBlock, ...] = ()) -> bool:
