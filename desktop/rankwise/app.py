@@ -62,6 +62,9 @@ def run_record_command(argv: Sequence[str]) -> int:
 
 def run_window(args: argparse.Namespace) -> int:
     """Show the window, offer back an unsaved entry, then open the file or demo asked for."""
+    from rankwise.memory_pools import limit_memory_pools
+
+    limit_memory_pools()  # before Qt or the window start a thread
     from PySide6.QtCore import QCoreApplication, Qt, QTimer
     from PySide6.QtGui import QGuiApplication
     from PySide6.QtWidgets import QApplication

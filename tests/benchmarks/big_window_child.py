@@ -181,6 +181,9 @@ def measure(path: Path) -> dict:
 
 
 def main() -> None:
+    from rankwise.memory_pools import limit_memory_pools
+
+    limit_memory_pools()  # as the program does before it starts Qt
     path = Path(sys.argv[1])
     application = QApplication.instance() or QApplication(sys.argv[:1])
     if "--profile" in sys.argv:
