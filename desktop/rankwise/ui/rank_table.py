@@ -7,8 +7,10 @@ same-parts question it lists the differences ranked by size with their signs.
 
 from __future__ import annotations
 
+import bisect
 import functools
 from collections.abc import Callable, Sequence
+from itertools import accumulate
 from dataclasses import dataclass
 
 import numpy as np
@@ -81,14 +83,14 @@ class RankRows(Sequence):
 
 
 class _TieCells:
-    """The tie column of rows sorted by ``sorted_keys`` (ascending), found when a row is worded: a
-    row's place in its tie block by one binary search, no array kept per row."""
+    """The tie column, found when a row is worded: ``keys`` gives each row's key in the table's order
+    (ascending, looked up, not kept per row), ``shown`` the keys of the tie blocks the rows show (all
+    blocks when None); a row's place in its block comes from one binary search over ``keys``."""
 
-    def __init__(self, sorted_keys: np.ndarray, tie_blocks: tuple[TieBlock, ...]) -> None:
-        self._keys = sorted_keys
+    def __init__(self, keys: Sequence[float], tie_blocks: tuple[TieBlock, ...], shown: np.ndarray | None = None) -> None:
+        self._keys = keys
         self._blocks = {block.mid_rank: block for block in tie_blocks}
-        tied = np.array(sorted(self._blocks), dtype=float)
-        self._present = tied[np.isin(tied, sorted_keys)]  # the tie blocks the rows show, numbered from 1
+        self._shown = np.array(sorted(self._blocks), dtype=float) if shown is None else shown  # numbered from 1
 
     def cells(self, position: int, mark: str) -> tuple[str, str, int]:
         """Bracket mark, words and block number of the row at ``position`` ("", "", 0 without a tie)."""
@@ -96,9 +98,40 @@ class _TieCells:
         block = self._blocks.get(key)
         if block is None:
             return "", "", 0
-        place = position - int(np.searchsorted(self._keys, key, side="left"))
-        number = int(np.searchsorted(self._present, key, side="left")) + 1
+        place = position - bisect.bisect_left(self._keys, key)
+        number = int(np.searchsorted(self._shown, key, side="left")) + 1
         return _bracket(place, block.count), _tie_words(block, mark), number
+
+
+class _GroupsInRankOrder(Sequence):
+    """The readings of several groups in rank order (ties by group, then entry): one 32-bit index per
+    reading is kept; a row's group, entry, reading and rank are looked up in the groups' own arrays."""
+
+    def __init__(self, values: Sequence[Sequence[float]], ranks: Sequence[Sequence[float]]) -> None:
+        self._values = [np.asarray(v, dtype=float) for v in values]  # a result's frozen runs: not copied
+        self._ranks = [np.asarray(r, dtype=float) for r in ranks]
+        self._starts = list(accumulate((len(v) for v in values), initial=0))
+        combined = np.concatenate(self._ranks) if self._ranks else np.empty(0)
+        # a stable sort by rank keeps tied readings in the order they were joined: by group, then entry
+        self._order = np.argsort(combined, kind="stable").astype(np.int32)
+
+    def __len__(self) -> int:
+        return int(self._order.size)
+
+    def locate(self, position: int) -> tuple[int, int]:
+        """The group and the entry of the row at ``position``."""
+        index = int(self._order[position])
+        group = bisect.bisect_right(self._starts, index) - 1
+        return group, index - self._starts[group]
+
+    def reading(self, position: int) -> float:
+        group, entry = self.locate(position)
+        return float(self._values[group][entry])
+
+    def __getitem__(self, position: int) -> float:
+        """The rank of the row at ``position``."""
+        group, entry = self.locate(position)
+        return float(self._ranks[group][entry])
 
 
 def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...],
@@ -106,23 +139,14 @@ def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...
                     decimals: int | None, mark: str = ".") -> RankRows:
     """Combined sorted readings of independent groups: position, group, reading, rank, tie
     (numbers written with the decimal ``mark``); ordered by rank, then group, then entry."""
-    lengths = [len(v) for v in values]
-    all_ranks = np.concatenate([np.asarray(r, dtype=float) for r in ranks]) if ranks else np.empty(0)
-    group_of = np.repeat(np.arange(len(values), dtype=np.int32), lengths)
-    entry_of = np.concatenate([np.arange(n, dtype=np.int32) for n in lengths]) if values else np.empty(0, np.int32)
-    order = np.lexsort((entry_of, group_of, all_ranks))
-    # only the sorted columns are kept: a row is looked up by its position, not by its reading
-    sorted_ranks, sorted_group, sorted_entry = all_ranks[order], group_of[order], entry_of[order]
-    del all_ranks, group_of, entry_of
-    all_values = np.concatenate([np.asarray(v, dtype=float) for v in values]) if values else np.empty(0)
-    sorted_values = all_values[order]
-    del all_values, order
-    ties = _TieCells(sorted_ranks, tie_blocks)
+    in_order = _GroupsInRankOrder(values, ranks)
+    ties = _TieCells(in_order, tie_blocks)
 
     def make(position: int) -> RankRow:
-        rank, group, row = float(sorted_ranks[position]), int(sorted_group[position]), int(sorted_entry[position])
+        group, row = in_order.locate(position)
+        rank = in_order[position]
         bracket, words, block_number = ties.cells(position, mark)
-        reading = format_reading(float(sorted_values[position]), decimals, mark)
+        reading = format_reading(in_order.reading(position), decimals, mark)
         rank_text = format_count(rank, mark)
         return RankRow(
             cells=(str(position + 1), names[group], reading, rank_text),
@@ -131,7 +155,7 @@ def rows_for_groups(names: tuple[str, ...], values: tuple[tuple[float, ...], ...
                     + (f"; {words}" if words else ""),
         )
 
-    return RankRows(int(sorted_ranks.size), make)
+    return RankRows(len(in_order), make)
 
 
 def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") -> RankRows:
@@ -142,7 +166,8 @@ def rows_for_pairs(result: PairedResult, decimals: int | None, mark: str = ".") 
     size_of_rank = np.abs(signed)
     order = np.lexsort((np.arange(signed.size), np.abs(differences), size_of_rank))
     sorted_keys = size_of_rank[order]
-    ties = _TieCells(sorted_keys, result.tie_blocks)
+    tied = np.array(sorted(block.mid_rank for block in result.tie_blocks), dtype=float)
+    ties = _TieCells(sorted_keys, result.tie_blocks, shown=tied[np.isin(tied, sorted_keys)])
 
     def make(position: int) -> RankRow:
         i = int(order[position])
