@@ -165,3 +165,31 @@ def test_a_copy_of_the_sheet_takes_its_arrays_along_and_stands_apart():
         assert frozen(copy) == expected
 
     run()
+
+
+def test_a_column_of_readings_only_lends_its_values_as_the_measured_readings_and_answers_afresh_after_an_edit():
+    """Every row a reading: the measured readings are a read-only view of the column's values (10^6
+    readings: 8 MB not copied); an edit answers with the new value, a blank row with a copy."""
+    sheet = make_sheet(["1", "2", "3"], names=["A"])
+    arrays = sheet.groups[0].arrays()
+    measured = arrays.measured()
+    assert measured.tolist() == [1.0, 2.0, 3.0] and np.shares_memory(measured, arrays.values)
+    with pytest.raises(ValueError):
+        measured[0] = 9.0
+    sheet.set_text(0, 1, "5")
+    assert sheet.groups[0].arrays().measured().tolist() == [1.0, 5.0, 3.0]
+    sheet.set_text(0, 1, "")
+    with_blank = sheet.groups[0].arrays()
+    assert with_blank.measured().tolist() == [1.0, 3.0]
+    assert not np.shares_memory(with_blank.measured(), with_blank.values)
+
+
+def test_unpickled_arrays_leave_out_the_answers_that_are_one_pass_over_them_and_give_them_again():
+    import pickle
+
+    sheet = make_sheet(["1", "", "2,5", "x"], names=["A"])
+    arrays = sheet.groups[0].arrays()
+    rows, measured = arrays.reading_rows().tolist(), arrays.measured().tolist()
+    twin = pickle.loads(pickle.dumps(arrays))
+    assert "rows" not in twin._answers and "measured" not in twin._answers
+    assert twin.reading_rows().tolist() == rows and twin.measured().tolist() == measured

@@ -37,6 +37,10 @@ def _decimals(cell: Cell) -> int:
     return cell.decimals if cell.kind is CellKind.NUMBER and cell.decimals is not None else NO_DECIMALS
 
 
+_ARRAY_ANSWERS = ("rows", "measured")
+"""Answers that are arrays as long as the column, found again in one numpy pass (not pickled)."""
+
+
 class ColumnArrays:
     """One group's cells as arrays: ``kinds`` (codes of ``KIND_CODES``), ``values`` (the readings,
     NaN elsewhere) and ``decimals`` (of the readings, ``NO_DECIMALS`` elsewhere)."""
@@ -62,7 +66,9 @@ class ColumnArrays:
         return twin
 
     def __getstate__(self) -> tuple:
-        return self.kinds, self.values, self.decimals, self._answers  # not the cells: their group gives them back
+        # not the cells (their group gives them back), nor the answers that are only a pass over the arrays
+        answers = {key: answer for key, answer in self._answers.items() if key not in _ARRAY_ANSWERS}
+        return self.kinds, self.values, self.decimals, answers
 
     def __setstate__(self, state: tuple) -> None:
         self.kinds, self.values, self.decimals, self._answers = state
@@ -124,7 +130,7 @@ class ColumnArrays:
     def reading_rows(self) -> np.ndarray:
         """The rows of the measured readings (read-only)."""
         if "rows" not in self._answers:
-            self._answers["rows"] = _read_only(np.flatnonzero(self.kinds == NUMBER))
+            self._answers["rows"] = _read_only(np.flatnonzero(self.kinds == NUMBER).astype(np.int32))
         return self._answers["rows"]
 
     def squares_about_mean(self) -> float:
@@ -151,9 +157,12 @@ class ColumnArrays:
 
     def measured(self) -> np.ndarray:
         """The measured readings in row order (readings below a detection limit, notes and blanks left
-        out; read-only)."""
+        out; read-only). When every row holds a reading it is a view of ``values``, not a copy, valid
+        until the next change."""
         if "measured" not in self._answers:
-            self._answers["measured"] = _read_only(self.values[self.reading_rows()])
+            rows = self.reading_rows()
+            every_row = rows.size == self.values.size
+            self._answers["measured"] = _read_only(self.values.view() if every_row else self.values[rows])
         return self._answers["measured"]
 
 
