@@ -158,9 +158,11 @@ import pandas
 def peak_mib():  # as big_window_child.peak_mib (that module loads Qt, which this reference must not)
     with open("/proc/self/status", encoding="ascii") as status:
         return next(int(line.split()[1]) / 1024.0 for line in status if line.startswith("VmHWM:"))
+imported = peak_mib()
 started = time.perf_counter()
 frame = pandas.read_csv(sys.argv[1], sep=";", decimal=",")
-print(json.dumps({"seconds": time.perf_counter() - started, "rows": len(frame), "peak_mib": peak_mib()}))
+print(json.dumps({"seconds": time.perf_counter() - started, "rows": len(frame), "peak_mib": peak_mib(),
+                  "idle_mib": imported, "frame_mib": frame.memory_usage(deep=True).sum() / 2**20}))
 """
 
 
@@ -188,6 +190,7 @@ def bench_big_export() -> tuple[dict, dict]:
                                timeout=3600, check=True)
     figures = json.loads(window.stdout.strip().splitlines()[-1])
     figures["load"] = (load_before, os.getloadavg()[0])
+    figures["file"] = path
     return figures, json.loads(reference.stdout.strip().splitlines()[-1])
 
 
@@ -207,9 +210,17 @@ def print_big_table(window: dict, reference: dict) -> None:
         print(f"{name:44} {window[key]:10.0f} {'':>10} {'':>7}")
     for name, key, ref in (("open -> verdict (s)", "open_to_verdict_s", reference["seconds"]),
                            ("edit -> verdict (s)", "edit_to_verdict_s", reference["seconds"]),
+                           ("memory before the file (MiB)", "idle_mib", reference["idle_mib"]),
                            ("peak memory once opened (MiB)", "peak_open_mib", reference["peak_mib"]),
                            ("peak memory (MiB)", "peak_mib", reference["peak_mib"])):
         print(f"{name:44} {window[key]:10.1f} {ref:10.1f} {window[key] / ref:7.1f}")
+    added, added_reference = window["peak_mib"] - window["idle_mib"], reference["peak_mib"] - reference["idle_mib"]
+    print(f"{'memory the file added at the peak (MiB)':44} {added:10.1f} {added_reference:10.1f} "
+          f"{added / added_reference:7.1f}")
+    size = os.path.getsize(window["file"]) / 2**20
+    print(f"readings' size: the file {size:.1f} MiB, as pandas holds them {reference['frame_mib']:.1f} MiB, "
+          f"as numbers {BIG_ROWS * 8 / 2**20:.1f} MiB; the window added {added / size:.1f}x the file, "
+          f"{added / reference['frame_mib']:.1f}x pandas' frame")
 
 
 def main() -> None:

@@ -8,7 +8,7 @@ one reading, and waits for the updated verdict. It prints one line of JSON: the 
 each step, the most processor time the window's thread itself spent between two turns of its loop
 in that step (on a shared machine a stall is also time spent waiting for a core or for the other
 threads to let go of Python's interpreter lock), the time to each verdict, and the peak memory
-of the process (``peak_mib``) once the file is open and at the end. With ``--stalls`` a watching
+of the process (``peak_mib``) before the file (``idle_mib``), once it is open and at the end. With ``--stalls`` a watching
 thread looks at every thread every 10 ms while the window's event loop stands still for more than
 50 ms and prints to stderr, for the longest stalls, the step they came in and the stacks it found
 most often on each thread (the window's thread mostly shows the event loop: it is waiting, and
@@ -145,7 +145,7 @@ def measure(path: Path) -> dict:
     watch = StallWatch(heartbeat) if "--stalls" in sys.argv else None
     wait(lambda: window.isVisible())
     heartbeat.step()
-    figures: dict[str, float] = {}
+    figures: dict[str, float] = {"idle_mib": peak_mib()}
 
     start = time.perf_counter()
     window.open_path(path)
