@@ -10,10 +10,9 @@ however it was made (computed, or read from a record). A blank (NaN) equals a bl
 
 from __future__ import annotations
 
+import math
 from collections.abc import Iterable, Iterator, Sequence
 from typing import Any, overload
-
-import math
 
 import numpy as np
 

@@ -10,8 +10,8 @@ from __future__ import annotations
 import bisect
 import functools
 from collections.abc import Callable, Sequence
-from itertools import accumulate
 from dataclasses import dataclass
+from itertools import accumulate
 
 import numpy as np
 
@@ -87,7 +87,8 @@ class _TieCells:
     (ascending, looked up, not kept per row), ``shown`` the keys of the tie blocks the rows show (all
     blocks when None); a row's place in its block comes from one binary search over ``keys``."""
 
-    def __init__(self, keys: Sequence[float], tie_blocks: tuple[TieBlock, ...], shown: np.ndarray | None = None) -> None:
+    def __init__(self, keys: Sequence[float], tie_blocks: tuple[TieBlock, ...],
+                 shown: np.ndarray | None = None) -> None:
         self._keys = keys
         self._blocks = {block.mid_rank: block for block in tie_blocks}
         self._shown = np.array(sorted(self._blocks), dtype=float) if shown is None else shown  # numbered from 1
@@ -125,6 +126,7 @@ class _GroupsInRankOrder(Sequence):
         return group, index - self._starts[group]
 
     def reading(self, position: int) -> float:
+        """The reading of the row at ``position``."""
         group, entry = self.locate(position)
         return float(self._values[group][entry])
 
